@@ -1,0 +1,126 @@
+import { PsychometricsInputError } from './errors';
+import { fitDesign, lapseOf } from './fit-core';
+import { quantileSorted } from './math';
+import { baseDesign, fitJointModels, packStart, startForBase } from './models';
+import { prepare } from './prepare';
+import { createRng } from './random';
+import { type Observer, simulateCells } from './simulate';
+import { targetF, thresholdFraction } from './target';
+import type { Task } from './types';
+
+export interface PlanInput {
+  basePrices: number[];
+  /** Discount fractions tested at every base. */
+  rungs: number[];
+  /** Trials per cell per respondent. */
+  repetitions: number;
+  respondents: number;
+  task: Task;
+  /** Assumed ln mid-point threshold fraction, one for all bases or one per base … */
+  alpha?: number | number[];
+  /** … or an assumed Weber fraction (α = ln of it at every base). */
+  weberFraction?: number;
+  beta: number;
+  lapse: number;
+  guess?: number;
+  simulations: number;
+  seed: number | string;
+  targetWidth?: number;
+}
+
+export interface PlanResult {
+  trialsPerCell: number;
+  bases: { basePrice: number; threshold: number; expectedWidth: number; meetsTarget?: boolean }[];
+  weberSlopeWidth: number | null;
+  simulations: number;
+}
+
+function alphaFor(input: PlanInput): (j: number) => number {
+  if (Array.isArray(input.alpha)) {
+    if (input.alpha.length !== input.basePrices.length) throw new PsychometricsInputError('planner: one alpha per base price');
+    const a = input.alpha;
+    return (j) => a[j];
+  }
+  if (typeof input.alpha === 'number') { const a = input.alpha; return () => a; }
+  if (input.weberFraction !== undefined && input.weberFraction > 0 && input.weberFraction < 1) {
+    const a = Math.log(input.weberFraction); return () => a;
+  }
+  throw new PsychometricsInputError('planner: give alpha or a weberFraction between 0 and 1');
+}
+
+/**
+ * Expected 95 % interval widths by simulation: `simulations` studies are drawn from the
+ * assumed observer and refitted; the spread (2.5 % to 97.5 % quantiles) of the refitted
+ * thresholds is the width a parametric bootstrap of one such study would report, without
+ * a bootstrap inside every simulated study. Widths are in threshold fraction units.
+ */
+export function planDesign(input: PlanInput): PlanResult {
+  if (!(input.respondents >= 1 && input.repetitions >= 1 && input.simulations >= 10)) {
+    throw new PsychometricsInputError('planner: needs respondents ≥ 1, repetitions ≥ 1 and simulations ≥ 10');
+  }
+  const alpha = alphaFor(input);
+  const guess = input.guess ?? (input.task === 'pick' ? 0.5 : 0);
+  const index = new Map(input.basePrices.map((b, j) => [b, j]));
+  const o: Observer = { alpha: (b) => alpha(index.get(b)!), beta: input.beta, lapse: input.lapse, guess };
+  const nCell = input.repetitions * input.respondents;
+  const rng = createRng(input.seed);
+  const J = input.basePrices.length;
+  const th = Array.from({ length: J }, () => new Float64Array(input.simulations));
+  const slopes = new Float64Array(input.simulations);
+  for (let s = 0; s < input.simulations; s++) {
+    const { cells } = simulateCells(o, input.basePrices, input.rungs, nCell, rng);
+    const prep = prepare(cells, [], input.task, guess);
+    prep.warnings.length = 0;
+    const alphas: number[] = [], logBetas: number[] = [];
+    for (let j = 0; j < J; j++) {
+      const d = baseDesign(prep, j);
+      const st = startForBase(prep, j, 0.01);
+      const fit = fitDesign(d, prep.k.slice(prep.baseStart[j], prep.baseEnd[j]), packStart(d, [st.alpha], st.logBeta, 0.01), { stepTol: 1e-6 });
+      const f = targetF(undefined, guess, lapseOf(d, fit.params));
+      th[j][s] = thresholdFraction(fit.params[0], Math.exp(fit.params[1]), f);
+      alphas.push(fit.params[0]); logBetas.push(fit.params[1]);
+    }
+    slopes[s] = J >= 2 ? fitJointModels(prep, alphas, logBetas, Array(J).fill(1)).fits.power.params[1] : NaN;
+  }
+  const width = (v: Float64Array) => { const x = Float64Array.from(v).sort(); return quantileSorted(x, 0.975) - quantileSorted(x, 0.025); };
+  return {
+    trialsPerCell: nCell,
+    bases: input.basePrices.map((basePrice, j) => {
+      const w = width(th[j]);
+      const row = { basePrice, threshold: thresholdFraction(alpha(j), input.beta, 0.5), expectedWidth: w };
+      return input.targetWidth === undefined ? row : { ...row, meetsTarget: w <= input.targetWidth };
+    }),
+    weberSlopeWidth: J >= 2 ? width(slopes) : null,
+    simulations: input.simulations,
+  };
+}
+
+/**
+ * Smallest respondent count (searched by doubling, then bisection, with the same seed so the
+ * comparison uses common random numbers) that brings each base's expected width under
+ * targetWidth; null when even maxRespondents does not.
+ */
+export function respondentsForWidth(
+  input: Omit<PlanInput, 'respondents'> & { targetWidth: number; maxRespondents?: number },
+): { basePrice: number; respondents: number | null }[] {
+  const max = input.maxRespondents ?? 5000;
+  const cache = new Map<number, number[]>();
+  const widthAt = (r: number) => {
+    let w = cache.get(r);
+    if (!w) { w = planDesign({ ...input, respondents: r }).bases.map((b) => b.expectedWidth); cache.set(r, w); }
+    return w;
+  };
+  return input.basePrices.map((basePrice, j) => {
+    const ok = (r: number) => widthAt(r)[j] <= input.targetWidth;
+    let hi = 1, lo = 0;
+    while (hi < max && !ok(hi)) { lo = hi; hi = Math.min(max, hi * 2); }
+    if (!ok(hi)) return { basePrice, respondents: null };
+    if (hi === 1) return { basePrice, respondents: 1 };
+    // lo is the last count that failed
+    while (hi - lo > 1) {
+      const mid = Math.floor((lo + hi) / 2);
+      if (ok(mid)) hi = mid; else lo = mid;
+    }
+    return { basePrice, respondents: hi };
+  });
+}
