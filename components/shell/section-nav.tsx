@@ -1,0 +1,35 @@
+'use client';
+import Link from 'next/link';
+import { usePathname } from 'next/navigation';
+import clsx from 'clsx';
+
+const SECTIONS = [
+  { href: '', label: 'Studies' },
+  { href: '/promotions', label: 'Promotions' },
+  { href: '/team', label: 'Team' },
+  { href: '/billing', label: 'Billing' },
+  { href: '/settings', label: 'Settings' },
+];
+
+export function SectionNav({ slug }: { slug: string }) {
+  const path = usePathname();
+  const base = `/w/${slug}`;
+  return (
+    <nav aria-label="Sections" className="flex gap-1 overflow-x-auto text-sm">
+      {SECTIONS.map((s) => {
+        const href = base + s.href;
+        const active = s.href === '' ? path === base || path.startsWith(`${base}/studies`) : path.startsWith(href);
+        return (
+          <Link
+            key={s.label}
+            href={href}
+            aria-current={active ? 'page' : undefined}
+            className={clsx('border-b-2 px-3 py-2 font-semibold no-underline', active ? 'border-teal text-ink' : 'border-transparent text-muted hover:text-ink')}
+          >
+            {s.label}
+          </Link>
+        );
+      })}
+    </nav>
+  );
+}

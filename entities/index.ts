@@ -1,0 +1,20 @@
+// The explicit entity list the ORM config needs (the only barrel file in the project).
+export { Workspace } from './workspace';
+export { User } from './user';
+export { Membership } from './membership';
+export { AuditEvent } from './audit-event';
+export { Invitation } from './invitation';
+export { PasswordReset } from './password-reset';
+export { Study } from './study';
+export { StudyAsset } from './study-asset';
+export { RespondentLink } from './respondent-link';
+export { Respondent } from './respondent';
+export { Trial } from './trial';
+export { SeatLedgerEntry } from './seat-ledger-entry';
+export { Purchase } from './purchase';
+export { WebhookEvent } from './webhook-event';
+export { ApiToken } from './api-token';
+export { AnalysisResult } from './analysis-result';
+export { PriceList } from './price-list';
+export { PriceListItem } from './price-list-item';
+export { PromoPlan } from './promo-plan';

@@ -1,0 +1,32 @@
+import { randomUUID } from 'node:crypto';
+import { defineEntity, type InferEntity } from '@mikro-orm/core';
+import { Workspace } from './workspace';
+import { User } from './user';
+
+export const STUDY_STATES = ['draft', 'live', 'paused', 'closed', 'imported'] as const;
+export type StudyState = (typeof STUDY_STATES)[number];
+
+export const Study = defineEntity({
+  name: 'Study',
+  tableName: 'study',
+  indexes: [{ properties: ['workspace', 'state'] }],
+  properties: (p) => ({
+    id: p.uuid().primary().onCreate(() => randomUUID()),
+    workspace: p.manyToOne(Workspace).deleteRule('cascade'),
+    name: p.string().length(160),
+    state: p.enum([...STUDY_STATES]).default('draft'),
+    /** The validated design (lib/schemas/study.schema.ts); frozen once the study goes live. */
+    design: p.json<Record<string, unknown>>(),
+    /** Exclusion rules in force for results and exports. */
+    exclusionRules: p.json<Record<string, unknown>>().nullable(),
+    /** Bumped whenever the data behind results change (answers, imports, rules); keys cached fits. */
+    dataVersion: p.integer().default(0),
+    copiedFrom: p.uuid().nullable(),
+    createdBy: p.manyToOne(User).nullable().deleteRule('set null'),
+    createdAt: p.datetime().onCreate(() => new Date()),
+    updatedAt: p.datetime().onCreate(() => new Date()).onUpdate(() => new Date()),
+    launchedAt: p.datetime().nullable(),
+    closedAt: p.datetime().nullable(),
+  }),
+});
+export type IStudy = InferEntity<typeof Study>;

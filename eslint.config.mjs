@@ -1,0 +1,12 @@
+import nextVitals from 'eslint-config-next/core-web-vitals';
+import nextTs from 'eslint-config-next/typescript';
+
+const config = [
+  ...nextVitals,
+  ...nextTs,
+  {
+    ignores: ['node_modules/**', '.next/**', '.next-*/**', '.data/**', '.test-output/**', 'next-env.d.ts', 'migrations/**'],
+  },
+];
+
+export default config;

@@ -1,0 +1,37 @@
+import { z } from 'zod';
+
+/** Booleans from the environment: only these spellings count, anything else is an error. */
+const envBool = z
+  .enum(['1', '0', 'true', 'false', 'yes', 'no', 'on', 'off', ''])
+  .transform((v) => ['1', 'true', 'yes', 'on'].includes(v));
+
+export const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'must be a postgresql:// URL'),
+  AUTH_SECRET: z.string().min(32, 'must be at least 32 characters'),
+  APP_URL: z.string().url().default('http://127.0.0.1:3000'),
+  SECURE_COOKIES: envBool.optional(),
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().positive().default(1025),
+  MAIL_FROM: z.string().default('Notchwise <no-reply@notchwise.test>'),
+  STRIPE_SECRET_KEY: z.string().default('sk_test_local_fake'),
+  STRIPE_WEBHOOK_SECRET: z.string().default('whsec_local_fake_secret'),
+  /** host:port of the local Stripe stand-in; unset to talk to Stripe itself. */
+  STRIPE_FAKE_URL: z.string().url().optional(),
+  RUN_WORKER: envBool.default(true),
+  /** bcrypt cost; 12 in production, lower only in tests. */
+  BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(12),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+/** Parses an environment; throws one readable error listing every bad variable. */
+export function parseEnv(source: Record<string, string | undefined>): Env {
+  const cleaned = Object.fromEntries(Object.entries(source).filter(([, v]) => v !== undefined));
+  const result = envSchema.safeParse(cleaned);
+  if (!result.success) {
+    const lines = result.error.issues.map((i) => `  ${i.path.join('.') || '(env)'}: ${i.message}`);
+    throw new Error(`Invalid environment:\n${lines.join('\n')}`);
+  }
+  return result.data;
+}

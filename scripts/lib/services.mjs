@@ -1,0 +1,51 @@
+// Background processes (the app, the local stand-ins) started by `npm start` and the tests.
+import { spawn } from 'node:child_process';
+import net from 'node:net';
+import path from 'node:path';
+import { ROOT } from './project.mjs';
+
+const children = new Set();
+
+/** Starts a long-running child; its output is prefixed with `name`. */
+export function startService(name, cmd, args, { env = process.env, quiet = false } = {}) {
+  const child = spawn(cmd, args, { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'], detached: false });
+  const prefix = (chunk) => chunk.toString().split('\n').filter(Boolean).map((l) => `[${name}] ${l}\n`).join('');
+  if (!quiet) {
+    child.stdout.on('data', (c) => process.stdout.write(prefix(c)));
+    child.stderr.on('data', (c) => process.stderr.write(prefix(c)));
+  } else {
+    child.stdout.resume();
+    child.stderr.on('data', (c) => process.env.NOTCHWISE_VERBOSE && process.stderr.write(prefix(c)));
+  }
+  children.add(child);
+  child.on('exit', () => children.delete(child));
+  return child;
+}
+
+export function bin(name) {
+  return path.join(ROOT, 'node_modules', '.bin', name);
+}
+
+export function stopAll(signal = 'SIGTERM') {
+  for (const c of children) c.kill(signal);
+}
+
+export function waitForPort(port, { host = '127.0.0.1', timeoutMs = 60_000 } = {}) {
+  const until = Date.now() + timeoutMs;
+  return new Promise((resolve, reject) => {
+    const attempt = () => {
+      const s = net.connect({ host, port });
+      s.once('connect', () => { s.destroy(); resolve(); });
+      s.once('error', () => {
+        if (Date.now() > until) reject(new Error(`nothing listening on ${host}:${port} after ${timeoutMs} ms`));
+        else setTimeout(attempt, 200);
+      });
+    };
+    attempt();
+  });
+}
+
+/** The local SMTP catcher (maildev) with its web inbox. */
+export function startMailCatcher({ smtpPort, webPort, quiet }) {
+  return startService('mail', bin('maildev'), ['--ip', '127.0.0.1', '--smtp', String(smtpPort), '--web', String(webPort), '--web-ip', '127.0.0.1', '--silent'], { quiet });
+}

@@ -1,0 +1,19 @@
+// `npm run db:seed`: loads the demo data. Idempotent: running it again changes nothing.
+import { orm } from '@/lib/server/db';
+import { seedAccounts } from './seed/accounts';
+
+async function main() {
+  const o = await orm();
+  try {
+    const db = o.em.fork();
+    const workspace = await seedAccounts(db);
+    process.stdout.write(`[notchwise] demo data ready (workspace "${workspace.name}")\n`);
+  } finally {
+    await o.close(true);
+  }
+}
+
+main().catch((err: unknown) => {
+  process.stderr.write(`[notchwise] demo data failed: ${err instanceof Error ? err.message : String(err)}\n`);
+  process.exit(1);
+});

@@ -1,0 +1,76 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { baseUrl, openBrowser, screenshot, signIn } from '../support/browser';
+
+const DEMO_PASSWORD = 'harbour-demo-2026';
+
+describe('sign-up, sign-out, sign-in in Chromium', () => {
+  let context: BrowserContext;
+  let page: Page;
+  beforeAll(async () => ({ context, page } = await openBrowser()));
+  afterAll(async () => context?.close());
+
+  it('shows field errors for bad input without leaving the form', async () => {
+    await page.goto(`${baseUrl()}/sign-up`);
+    await page.getByLabel('Your name').fill('Quinn');
+    await page.getByLabel('E-mail').fill('not-an-address');
+    await page.getByLabel('Password').fill('short');
+    await page.getByLabel('Workspace name').fill('Q');
+    await page.getByRole('button', { name: 'Open workspace' }).click();
+    await expect.poll(() => page.getByText('Enter a valid e-mail address').count()).toBe(1);
+    expect(await page.getByText('Use at least 10 characters.').count()).toBe(1);
+    expect(page.url()).toMatch(/\/sign-up$/);
+  });
+
+  it('refuses a duplicate e-mail next to the field', async () => {
+    await page.goto(`${baseUrl()}/sign-up`);
+    await page.getByLabel('Your name').fill('Quinn');
+    await page.getByLabel('E-mail').fill('owner@harbourline.example');
+    await page.getByLabel('Password').fill('long-enough-password');
+    await page.getByLabel('Workspace name').fill('Quinn pricing');
+    await page.getByRole('button', { name: 'Open workspace' }).click();
+    await expect.poll(() => page.getByText('already exists').count()).toBe(1);
+  });
+
+  it('signs up, lands in the new workspace, signs out and signs in again', async () => {
+    const email = `e2e-${Date.now()}@test.example`;
+    await page.goto(`${baseUrl()}/sign-up`);
+    await page.getByLabel('Your name').fill('Rosa Lind');
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill('long-enough-password');
+    await page.getByLabel('Workspace name').fill('Lind pricing lab');
+    await page.getByRole('button', { name: 'Open workspace' }).click();
+    await page.waitForURL(/\/w\/lind-pricing-lab/);
+    await expect.poll(() => page.getByTestId('signed-in-as').textContent()).toContain('Rosa Lind · Owner');
+    // The shell reads /api/me with TanStack Query to fill the workspace switcher.
+    await expect.poll(() => page.getByLabel('Workspace').locator('option').first().textContent()).toContain('Lind pricing lab (Owner)');
+    await screenshot(page, 'shell');
+
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL(/\/sign-in/);
+    await page.goto(`${baseUrl()}/w/lind-pricing-lab`);
+    await page.waitForURL(/\/sign-in\?next=/);
+
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill('wrong-password-here');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await expect.poll(() => page.getByText('do not match an account').count()).toBe(1);
+    await page.getByLabel('Password').fill('long-enough-password');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(/\/w\/lind-pricing-lab$/);
+  });
+
+  it('the viewer demo account cannot open an owner-only page', async () => {
+    const { context: c2, page: p2 } = await openBrowser();
+    try {
+      await signIn(p2, 'viewer@harbourline.example', DEMO_PASSWORD);
+      await p2.goto(`${baseUrl()}/w/harbourline/settings`);
+      await p2.waitForURL(/not-allowed/);
+      expect(await p2.getByRole('heading', { name: 'Not allowed' }).count()).toBe(1);
+      const api = await p2.evaluate(async () => (await fetch('/api/w/harbourline', { method: 'PATCH', body: '{"name":"Hacked","retentionDays":99}' })).status);
+      expect(api).toBe(403);
+    } finally {
+      await c2.close();
+    }
+  });
+});

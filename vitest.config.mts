@@ -1,0 +1,45 @@
+import { defineConfig } from 'vitest/config';
+import path from 'node:path';
+
+const alias = {
+  '@': import.meta.dirname,
+  // The marker package throws outside React's server build; tests run server code directly.
+  'server-only': path.resolve(import.meta.dirname, 'tests/support/empty.ts'),
+};
+
+export default defineConfig({
+  resolve: { alias },
+  test: {
+    projects: [
+      {
+        resolve: { alias },
+        test: { name: 'unit', include: ['tests/unit/**/*.test.ts', 'lib/**/*.test.ts'], environment: 'node' },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: 'integration',
+          include: ['tests/integration/**/*.test.ts'],
+          environment: 'node',
+          globalSetup: ['tests/support/global-setup.ts'],
+          setupFiles: ['tests/support/integration-setup.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+          fileParallelism: false,
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.test.ts'],
+          environment: 'node',
+          globalSetup: ['tests/support/e2e-global-setup.ts'],
+          testTimeout: 120_000,
+          hookTimeout: 120_000,
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+});
