@@ -10,7 +10,9 @@ export const TEST_PGPORT = intFromEnv('TEST_PGPORT', 54339);
 export const TEST_APP_PORT = intFromEnv('TEST_APP_PORT', 3100);
 export const TEST_SMTP_PORT = intFromEnv('TEST_SMTP_PORT', 2025);
 export const TEST_MAIL_WEB_PORT = intFromEnv('TEST_MAIL_WEB_PORT', 2080);
-const TEST_DB = 'notchwise_test';
+const TEST_DB = process.env.TEST_DB_NAME ?? 'notchwise_test';
+/** Several checkouts or engineers can test side by side with their own ports, database and build folder. */
+export const TEST_DIST_DIR = process.env.TEST_DIST_DIR ?? '.next-test';
 
 /** Creates a fresh, migrated test database; returns its URL. */
 export async function prepareTestDatabase({ fresh = true } = {}) {
@@ -48,7 +50,7 @@ export function testEnv(databaseUrl) {
 
 /** Builds the app into .next-test (so a running `npm start` is left alone). */
 export function buildTestApp(env) {
-  const r = run(bin('next'), ['build'], { cwd: ROOT, env: { ...process.env, ...env, NODE_ENV: 'production', NEXT_DIST_DIR: '.next-test' } });
+  const r = run(bin('next'), ['build'], { cwd: ROOT, env: { ...process.env, ...env, NODE_ENV: 'production', NEXT_DIST_DIR: TEST_DIST_DIR } });
   if (r.code !== 0) throw new Error('next build failed:\n' + r.stdout.slice(-4000) + r.stderr.slice(-4000));
 }
 
@@ -56,7 +58,7 @@ export function buildTestApp(env) {
 export async function startTestApp(env) {
   const mail = startMailCatcher({ smtpPort: TEST_SMTP_PORT, webPort: TEST_MAIL_WEB_PORT, quiet: true });
   const app = startService('app', bin('next'), ['start', '-H', '127.0.0.1', '-p', String(TEST_APP_PORT)], {
-    env: { ...process.env, ...env, NODE_ENV: 'production', NEXT_DIST_DIR: '.next-test' },
+    env: { ...process.env, ...env, NODE_ENV: 'production', NEXT_DIST_DIR: TEST_DIST_DIR },
     quiet: true,
   });
   await Promise.all([waitForPort(TEST_APP_PORT, { timeoutMs: 90_000 }), waitForPort(TEST_SMTP_PORT), waitForPort(TEST_MAIL_WEB_PORT)]);

@@ -1,0 +1,151 @@
+import { z } from 'zod';
+
+// The study design: one schema for the builder form, the server actions and route handlers,
+// and the respondent flow. Stored as Study.design (jsonb) and frozen once a study goes live.
+
+export const TASKS = ['spot', 'pick', 'trip'] as const;
+export type TaskId = (typeof TASKS)[number];
+export const TASK_LABELS: Record<TaskId, string> = {
+  spot: 'Spot the saving',
+  pick: 'Pick the lower price',
+  trip: 'Worth the trip',
+};
+
+export const PRICE_ENDINGS = ['exact', 'ends-99', 'ends-49', 'whole'] as const;
+export const PRICE_ENDING_LABELS: Record<(typeof PRICE_ENDINGS)[number], string> = {
+  exact: 'Exact (to the cent)',
+  'ends-99': 'Ends in .99',
+  'ends-49': 'Ends in .49 or .99',
+  whole: 'Whole units',
+};
+
+export const CURRENCIES = ['EUR', 'USD', 'GBP', 'CHF', 'SEK', 'NOK', 'DKK', 'PLN', 'CZK', 'CAD', 'AUD', 'NZD', 'JPY'] as const;
+export const LOCALES = ['en-GB', 'en-US', 'en-IE', 'de-DE', 'fr-FR', 'nl-NL', 'es-ES', 'it-IT', 'sv-SE', 'da-DK', 'nb-NO', 'pl-PL', 'cs-CZ', 'ja-JP'] as const;
+
+export const STAIRCASE_RULES = ['1u2d', '1u3d'] as const;
+export const STAIRCASE_RULE_LABELS: Record<(typeof STAIRCASE_RULES)[number], string> = {
+  '1u2d': '1 up / 2 down (converges on 70.7 % noticed)',
+  '1u3d': '1 up / 3 down (converges on 79.4 % noticed)',
+};
+
+export const MAX_SEGMENT_QUESTIONS = 5;
+
+export const DEFAULT_CONSENT =
+  'This short survey is part of price research by a retailer. You will see prices and answer a few quick questions; ' +
+  'there are no right or wrong answers. It takes a few minutes. We do not ask for your name or e-mail address, ' +
+  'and your answers are stored under a random number. Taking part is voluntary and you may stop at any time; ' +
+  'answers given until then may be kept for the research unless you ask for them to be deleted.';
+
+const money = z.coerce.number({ error: 'Enter a price.' }).finite('Enter a price.').gt(0, 'Prices must be above zero.').max(1_000_000, 'At most 1,000,000.');
+const depth = z.coerce.number({ error: 'Enter a depth.' }).finite().gt(0, 'Depths must be above 0 %.').lt(1, 'Depths must be below 100 %.');
+
+const uniqueSorted = (values: number[]) => new Set(values.map((v) => v.toFixed(6))).size === values.length;
+
+export const segmentQuestionSchema = z.object({
+  id: z.string().regex(/^[a-z0-9_]{1,32}$/, 'Use lower-case letters, digits and _ (up to 32).'),
+  text: z.string().trim().min(3, 'Write the question.').max(200, 'At most 200 characters.'),
+  options: z
+    .array(z.string().trim().min(1, 'An answer cannot be empty.').max(80, 'At most 80 characters.'))
+    .min(2, 'Give at least two answers.')
+    .max(8, 'At most eight answers.')
+    .refine((o) => new Set(o).size === o.length, 'Each answer only once.'),
+});
+export type SegmentQuestion = z.infer<typeof segmentQuestionSchema>;
+
+export const attentionCheckSchema = z
+  .object({
+    enabled: z.boolean(),
+    question: z.string().trim().max(200).default('To show you are reading carefully, choose “Often”.'),
+    options: z.array(z.string().trim().min(1).max(80)).min(2).max(6).default(['Never', 'Sometimes', 'Often', 'Always']),
+    correct: z.string().trim().default('Often'),
+  })
+  .refine((a) => !a.enabled || a.options.includes(a.correct), { message: 'The right answer must be one of the answers.', path: ['correct'] });
+
+export const adaptiveSchema = z.object({
+  enabled: z.boolean(),
+  rule: z.enum(STAIRCASE_RULES).default('1u2d'),
+  /** Trials per base price when adaptive (the staircase stops earlier when its reversals are reached). */
+  trialsPerBase: z.coerce.number().int().min(8, 'At least 8.').max(80, 'At most 80.').default(24),
+  reversals: z.coerce.number().int().min(4).max(20).default(8),
+});
+
+export const studyDesignSchema = z
+  .object({
+    name: z.string().trim().min(3, 'Name the study (at least 3 characters).').max(160, 'At most 160 characters.'),
+    itemName: z.string().trim().min(2, 'Name the item shown to respondents.').max(80, 'At most 80 characters.'),
+    /** StudyAsset id of the uploaded picture, if any. */
+    itemPictureId: z.uuid().nullable().default(null),
+    category: z.string().trim().min(2, 'Give the item category.').max(80, 'At most 80 characters.'),
+    currency: z.enum(CURRENCIES),
+    locale: z.enum(LOCALES).default('en-GB'),
+    task: z.enum(TASKS),
+    /** Spot the saving: items on the remembered shelf. */
+    shelfSize: z.coerce.number().int().min(3, 'At least 3 items.').max(12, 'At most 12 items.').default(6),
+    /** Pick the lower price: how long the two tags stay visible. */
+    viewMs: z.coerce.number().int().min(300, 'At least 300 ms.').max(5000, 'At most 5,000 ms.').default(1200),
+    /** Worth the trip: minutes of extra effort for the discounted offer. */
+    tripMinutes: z.coerce.number().int().min(1, 'At least 1 minute.').max(120, 'At most 120 minutes.').default(20),
+    basePrices: z
+      .array(money)
+      .min(1, 'Give at least one base price.')
+      .max(12, 'At most 12 base prices.')
+      .refine(uniqueSorted, 'Each base price only once.'),
+    ladder: z
+      .array(depth)
+      .min(2, 'The ladder needs at least two rungs.')
+      .max(20, 'At most 20 rungs.')
+      .refine(uniqueSorted, 'Each rung only once.'),
+    repetitions: z.coerce.number().int().min(1, 'At least once.').max(20, 'At most 20.'),
+    /** Share of all trials that are catch trials (no discount). */
+    catchShare: z.coerce.number().min(0, 'At least 0 %.').max(0.5, 'At most 50 %.'),
+    practiceTrials: z.coerce.number().int().min(0).max(10, 'At most 10.'),
+    orderSeed: z.coerce.number().int().min(0).max(2_147_483_647),
+    adaptive: adaptiveSchema,
+    consentText: z.string().trim().min(40, 'Write a consent text of at least 40 characters.').max(4000, 'At most 4,000 characters.'),
+    segmentQuestions: z
+      .array(segmentQuestionSchema)
+      .max(MAX_SEGMENT_QUESTIONS, `At most ${MAX_SEGMENT_QUESTIONS} segment questions.`)
+      .refine((qs) => new Set(qs.map((q) => q.id)).size === qs.length, 'Each question needs its own id.'),
+    attentionCheck: attentionCheckSchema,
+    targetCompletes: z.coerce.number().int().min(1, 'At least 1.').max(100_000, 'At most 100,000.'),
+    redirectUrl: z.union([z.literal(''), z.url('Enter a full URL starting with https://').refine((u) => /^https?:\/\//.test(u), 'Use an http(s) URL.')]).default(''),
+    priceEnding: z.enum(PRICE_ENDINGS),
+  })
+  .transform((d) => ({ ...d, basePrices: [...d.basePrices].sort((a, b) => a - b), ladder: [...d.ladder].sort((a, b) => a - b) }));
+
+export type StudyDesignInput = z.input<typeof studyDesignSchema>;
+export type StudyDesign = z.output<typeof studyDesignSchema>;
+
+/** Geometric spacing between a minimum and maximum depth (fractions), N rungs, rounded to 0.1 %. */
+export function geometricLadder(min: number, max: number, rungs: number): number[] {
+  if (!(min > 0 && max < 1 && max > min && rungs >= 2)) return [];
+  const ratio = Math.pow(max / min, 1 / (rungs - 1));
+  const out = Array.from({ length: rungs }, (_, i) => Math.round(min * Math.pow(ratio, i) * 1000) / 1000);
+  return [...new Set(out)];
+}
+
+/** Trials one respondent answers (practice and attention check included). */
+export function trialsPerRespondent(d: Pick<StudyDesign, 'basePrices' | 'ladder' | 'repetitions' | 'catchShare' | 'practiceTrials' | 'adaptive' | 'attentionCheck'>): {
+  test: number;
+  catch: number;
+  practice: number;
+  attention: number;
+  total: number;
+} {
+  const test = d.adaptive.enabled ? d.basePrices.length * d.adaptive.trialsPerBase : d.basePrices.length * d.ladder.length * d.repetitions;
+  const catchTrials = d.catchShare > 0 ? Math.round((test * d.catchShare) / (1 - d.catchShare)) : 0;
+  const attention = d.attentionCheck.enabled ? 1 : 0;
+  return { test, catch: catchTrials, practice: d.practiceTrials, attention, total: test + catchTrials + d.practiceTrials + attention };
+}
+
+/**
+ * Estimated minutes for one respondent. Seconds per trial are our own working estimates
+ * (common practice, no source): 4 s to answer, plus the viewing time for "pick the lower
+ * price", plus a shelf of 2 s per item for "spot the saving"; one minute for consent and questions.
+ */
+export function estimatedMinutes(d: StudyDesign): number {
+  const n = trialsPerRespondent(d).total;
+  const perTrial = 4 + (d.task === 'pick' ? d.viewMs / 1000 : 0) + (d.task === 'trip' ? 2 : 0);
+  const shelf = d.task === 'spot' ? d.shelfSize * 2 : 0;
+  return Math.max(1, Math.round((60 + shelf + n * perTrial) / 60));
+}
