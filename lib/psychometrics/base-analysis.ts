@@ -9,6 +9,9 @@ import type { BaseReport } from './report-types';
 import { targetF, thresholdFraction } from './target';
 import type { Interval } from './types';
 
+/** Slopes this steep (10 % to 90 % within about 15 % of the discount) mean separation. */
+const STEEP_SLOPE = 30;
+
 export interface BaseFit {
   design: Design;
   k: Float64Array;
@@ -110,8 +113,10 @@ function warnBase(ctx: AnalysisContext, j: number, bf: BaseFit, fraction: number
   const { design: d, fit } = bf;
   const at = `base ${prep.bases[j]}`;
   if (!fit.converged) ctx.warnings.push(`${at}: the fit did not converge`);
-  if (fit.params[1] >= d.upper[1] - 1e-9) {
-    ctx.warnings.push(`${at}: slope at its upper bound (perfect separation or a step-like response); the threshold is only bracketed by the rungs`);
+  // Under separation the likelihood keeps rising as the slope grows, so the fit stops
+  // somewhere below the bound: anything this steep is a step between two rungs.
+  if (Math.exp(fit.params[1]) >= STEEP_SLOPE) {
+    ctx.warnings.push(`${at}: slope at or near its upper bound (perfect separation or a step-like response); the threshold is only bracketed by the rungs`);
   }
   if (fit.params[1] <= d.lower[1] + 1e-9) ctx.warnings.push(`${at}: slope at its lower bound (the notice rate hardly changes with the discount)`);
   const lo = prep.discount[prep.baseStart[j]], hi = prep.discount[prep.baseEnd[j] - 1];

@@ -1,0 +1,50 @@
+import { spawnSync } from 'node:child_process';
+import path from 'node:path';
+import { describe, expect, it } from 'vitest';
+
+const root = path.resolve(__dirname, '../../..');
+const fixture = (f: string) => path.join('tests/fixtures/psychometrics', f);
+const run = (...args: string[]) => spawnSync('npx', ['tsx', 'scripts/fit.ts', ...args], { cwd: root, encoding: 'utf8', timeout: 60000 });
+
+describe('npm run fit (scripts/fit.ts)', () => {
+  it('fits cell rows and prints the report as JSON', () => {
+    const r = run(fixture('example-cells.csv'), '--task', 'spot', '--bootstrap', '100', '--seed', '7');
+    expect(r.status).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.task).toBe('spot');
+    expect(doc.seed).toBe(7);
+    expect(doc.bootstrapSamples).toBe(100);
+    expect(doc.bases.map((b: { basePrice: number }) => b.basePrice)).toEqual([9.99, 199]);
+    expect(doc.bases[0].guess).toBeCloseTo(5 / 60, 10);
+    expect(doc.bases[0].nTrials).toBe(160);
+    expect(doc.bases[0].threshold.fractionCi).toHaveLength(2);
+    for (const m of ['free', 'weber', 'constantAmount', 'power']) expect(doc.models[m].thresholds).toHaveLength(2);
+    expect(doc.models.power.weberSlopeCi).toHaveLength(2);
+    expect(doc.tests.weberVsPower.df).toBe(1);
+    expect(doc.intervalMethod).toMatch(/parametric bootstrap, 100 samples, percentile/);
+  });
+
+  it('fits trial rows, ignores extra columns, and honours --lapse and --target', () => {
+    const r = run(fixture('example-trials.csv'), '--task', 'pick', '--bootstrap', '0', '--lapse', '0', '--target', '0.75');
+    expect(r.status).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.target).toBe(0.75);
+    expect(doc.bases.every((b: { lapse: number; guess: number }) => b.lapse === 0 && b.guess === 0.5)).toBe(true);
+    expect(doc.bases[0].nTrials).toBe(96);
+    expect(doc.warnings.join(' ')).toMatch(/catch trials ignored/);
+  });
+
+  it('a bad file: one stderr line naming the row, exit code 2', () => {
+    const r = run(fixture('bad-row.csv'));
+    expect(r.status).toBe(2);
+    expect(r.stdout).toBe('');
+    expect(r.stderr.trim().split('\n')).toHaveLength(1);
+    expect(r.stderr).toMatch(/line 3: response must be 0 or 1, got 'yes'/);
+  });
+
+  it('a bad option exits 2 as well', () => {
+    const r = run(fixture('example-cells.csv'), '--bootstrap', 'many');
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/--bootstrap must be a number/);
+  });
+});
