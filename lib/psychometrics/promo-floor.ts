@@ -67,7 +67,15 @@ function interp(lnB: number[], v: number[], x: number): [number, boolean] {
  * tested bases and held flat outside them; weber/power: the model's formula. Outside the
  * tested price range every model is flagged `extrapolated`. Target as in target.ts.
  */
-export function thresholdAt(p: FloorParams, basePrice: number, target?: number): { fraction: number; extrapolated: boolean } {
+export function thresholdAt(
+  source: AnalysisReport | FloorParams, model: FloorModel, basePrice: number, target?: number,
+): { fraction: number; extrapolated: boolean } {
+  const p = 'models' in source ? floorParams(source, model) : source.model === model ? source : null;
+  if (!p) throw new PsychometricsInputError(`floor parameters were built for the ${(source as FloorParams).model} model, not ${model}`);
+  return thresholdFromParams(p, basePrice, target);
+}
+
+function thresholdFromParams(p: FloorParams, basePrice: number, target?: number): { fraction: number; extrapolated: boolean } {
   if (!(basePrice > 0)) throw new PsychometricsInputError(`base price must be above 0, got ${basePrice}`);
   const x = Math.log(basePrice);
   const [guess, outside] = interp(p.lnB, p.guess, x);
@@ -95,7 +103,7 @@ export interface PromoFloor {
 export function makeFloorCalculator(report: AnalysisReport, model: FloorModel, target?: number) {
   const p = floorParams(report, model);
   return (basePrice: number, ending: PriceEnding): PromoFloor => {
-    const { fraction, extrapolated } = thresholdAt(p, basePrice, target);
+    const { fraction, extrapolated } = thresholdFromParams(p, basePrice, target);
     const floorAmount = fraction * basePrice;
     let promoPrice = fraction < 1 ? applyPriceEnding(basePrice - floorAmount, ending) : NaN;
     // A float result a hair above the floor price would make the discount shallower: step down a cent.

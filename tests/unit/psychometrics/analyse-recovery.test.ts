@@ -52,7 +52,7 @@ describe('recovery of a known Weber fraction', () => {
 });
 
 describe('model comparison on square-root data', () => {
-  // Threshold in money ∝ sqrt(B): Weber slope 0.5 (the shape Azar 2011 describes; invented data).
+  // Simulated observer whose threshold in money grows with sqrt(B): Weber slope 0.5.
   const sqrtObs: Observer = { alpha: (b) => Math.log(0.05) - 0.5 * Math.log(b / 10), beta: 4, lapse: 0.02, guess: 0 };
   const data = simulateCells(sqrtObs, [2, 10, 50, 250, 1000], geometricLadder(0.002, 0.5, 10), 150, createRng('sqrt'));
   const report = analyse({ ...data, task: 'trip', bootstrap: 200, seed: 3 });

@@ -27,7 +27,8 @@ describe('promo floors from a fitted study', () => {
     for (const model of ['free', 'weber', 'power'] as const) {
       const p = floorParams(report, model);
       report.models[model].thresholds.forEach((t) => {
-        const r = thresholdAt(p, t.basePrice);
+        const r = thresholdAt(p, model, t.basePrice);
+        expect(thresholdAt(report, model, t.basePrice).fraction).toBe(r.fraction);
         expect(r.fraction).toBeCloseTo(t.fraction, 10);
         expect(r.extrapolated).toBe(false);
       });
@@ -38,11 +39,11 @@ describe('promo floors from a fitted study', () => {
     const p = floorParams(report, 'free');
     const [t0, t1] = report.models.free.thresholds;
     const mid = Math.sqrt(t0.basePrice * t1.basePrice);
-    expect(Math.log(thresholdAt(p, mid).fraction)).toBeCloseTo((Math.log(t0.fraction) + Math.log(t1.fraction)) / 2, 10);
-    const below = thresholdAt(p, 1);
+    expect(Math.log(thresholdAt(p, 'free', mid).fraction)).toBeCloseTo((Math.log(t0.fraction) + Math.log(t1.fraction)) / 2, 10);
+    const below = thresholdAt(p, 'free', 1);
     expect(below.extrapolated).toBe(true);
     expect(below.fraction).toBeCloseTo(t0.fraction, 10);
-    expect(thresholdAt(floorParams(report, 'power'), 2000).extrapolated).toBe(true);
+    expect(thresholdAt(report, 'power', 2000).extrapolated).toBe(true);
   });
 
   it('the discount after the ending is never below the floor, for many prices and every ending', () => {
