@@ -1,0 +1,68 @@
+import 'server-only';
+import PgBoss from 'pg-boss';
+import { env } from './env';
+
+// The job queue: pg-boss in its own PostgreSQL schema, shared by every app instance and
+// worker, so long computations survive restarts (an active job whose worker died expires
+// and is retried) and several workers split the work.
+
+export const QUEUES = ['analysis', 'planner'] as const;
+export type QueueName = (typeof QUEUES)[number];
+
+/** Long enough for a 1,000-sample bootstrap or a planner search on a large design. */
+const EXPIRE_SECONDS = 15 * 60;
+const RETRY_LIMIT = 2;
+
+type Holder = { bossPromise?: Promise<PgBoss>; bossRole?: 'sender' | 'worker' };
+const holder = globalThis as unknown as Holder;
+
+/**
+ * One pg-boss per process. App instances only send (no maintenance loop); the worker process
+ * calls it with 'worker' first, which also runs pg-boss's supervision (expiry, retention).
+ */
+export function boss(role: 'sender' | 'worker' = 'sender'): Promise<PgBoss> {
+  if (!holder.bossPromise) {
+    holder.bossRole = role;
+    holder.bossPromise = (async () => {
+      const b = new PgBoss({
+        connectionString: env().DATABASE_URL, schema: 'pgboss', max: role === 'worker' ? 4 : 2,
+        supervise: role === 'worker', schedule: false, application_name: `notchwise-${role}`,
+      });
+      b.on('error', (err) => console.error('[jobs]', err));
+      await b.start();
+      await ensureQueues(b);
+      return b;
+    })().catch((err) => {
+      holder.bossPromise = undefined;
+      throw err;
+    });
+  }
+  return holder.bossPromise;
+}
+
+async function ensureQueues(b: PgBoss) {
+  for (const name of QUEUES) {
+    if (await b.getQueue(name)) continue;
+    try {
+      // 'short': at most one queued job per singleton key, so repeated page polls collapse.
+      await b.createQueue(name, { name, policy: 'short', retryLimit: RETRY_LIMIT, retryDelay: 5, expireInSeconds: EXPIRE_SECONDS });
+    } catch (err) {
+      // Another process created it in the meantime.
+      if (!(await b.getQueue(name))) throw err;
+    }
+  }
+}
+
+/** Queues a job; a job with the same key already waiting makes this a no-op. */
+export async function enqueue(queue: QueueName, data: object, singletonKey: string): Promise<void> {
+  const b = await boss();
+  await b.send(queue, data, { singletonKey, retryLimit: RETRY_LIMIT, retryDelay: 5, expireInSeconds: EXPIRE_SECONDS });
+}
+
+export async function stopBoss(): Promise<void> {
+  const p = holder.bossPromise;
+  holder.bossPromise = undefined;
+  if (p) await (await p).stop({ graceful: true, wait: true });
+}
+
+export { RETRY_LIMIT };
