@@ -1,0 +1,16 @@
+import { NextResponse } from 'next/server';
+import { workspaceRoute } from '@/lib/server/api';
+import { AppError } from '@/lib/server/errors';
+import { checkUploadLength, savePicture } from '@/lib/server/assets';
+
+/** Item picture upload: multipart/form-data with one field "file". */
+export const POST = workspaceRoute('analyst', async (req, ctx) => {
+  checkUploadLength(req.headers.get('content-length'));
+  let form: FormData;
+  try {
+    form = await req.formData();
+  } catch {
+    throw new AppError(400, 'bad_request', 'Send the picture as multipart/form-data with a field named “file”.');
+  }
+  return NextResponse.json(await savePicture(ctx, form.get('file')), { status: 201 });
+});

@@ -1,0 +1,13 @@
+import { NextResponse } from 'next/server';
+import { readJson, workspaceRoute } from '@/lib/server/api';
+import { createLink, listLinks } from '@/lib/server/study-links';
+import { studyLinkSchema } from '@/lib/schemas/study-link.schema';
+
+type P = { workspace: string; study: string };
+
+export const GET = workspaceRoute<P>('viewer', async (_req, ctx, p) => NextResponse.json({ links: await listLinks(ctx, p.study) }));
+
+export const POST = workspaceRoute<P>('analyst', async (req, ctx, p) => {
+  const input = await readJson(req, studyLinkSchema);
+  return NextResponse.json(await createLink(ctx, p.study, input), { status: 201 });
+});

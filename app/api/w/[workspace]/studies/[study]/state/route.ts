@@ -1,0 +1,9 @@
+import { NextResponse } from 'next/server';
+import { readJson, workspaceRoute } from '@/lib/server/api';
+import { changeStudyState } from '@/lib/server/study-state';
+import { studyStateChangeSchema } from '@/lib/schemas/study-link.schema';
+
+export const POST = workspaceRoute<{ workspace: string; study: string }>('analyst', async (req, ctx, p) => {
+  const { action } = await readJson(req, studyStateChangeSchema);
+  return NextResponse.json(await changeStudyState(ctx, p.study, action));
+});

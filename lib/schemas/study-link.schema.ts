@@ -1,0 +1,17 @@
+import { z } from 'zod';
+import { STUDY_ACTIONS } from '@/lib/study-states';
+
+export const studyLinkSchema = z.object({
+  source: z.string().trim().min(1, 'Name the source, e.g. “newsletter” or “store QR”.').max(80, 'At most 80 characters.'),
+  /** Completes this link accepts; empty for no quota. */
+  quota: z
+    .union([z.literal('').transform(() => null), z.null(), z.coerce.number({ error: 'Enter a whole number.' }).int('Enter a whole number.').min(1, 'At least 1.').max(100_000, 'At most 100,000.')])
+    .optional()
+    .transform((v) => v ?? null),
+  acceptsPid: z.boolean().default(false),
+});
+export type StudyLinkInput = z.input<typeof studyLinkSchema>;
+
+export const studyLinkPatchSchema = z.object({ closed: z.literal(true, { error: 'Only closing a link is supported: send {"closed": true}.' }) });
+
+export const studyStateChangeSchema = z.object({ action: z.enum(STUDY_ACTIONS, { error: 'Use one of: launch, pause, resume, close.' }) });

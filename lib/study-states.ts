@@ -1,0 +1,28 @@
+// Study states and the moves between them; shared by the server (which enforces them) and the
+// screens (which only offer the moves that are allowed).
+
+export const STUDY_STATE_LABELS = {
+  draft: 'Draft',
+  live: 'Live',
+  paused: 'Paused',
+  closed: 'Closed',
+  imported: 'Imported',
+} as const;
+export type StudyStateName = keyof typeof STUDY_STATE_LABELS;
+
+export const STUDY_ACTIONS = ['launch', 'pause', 'resume', 'close'] as const;
+export type StudyAction = (typeof STUDY_ACTIONS)[number];
+
+export const TRANSITIONS: Record<StudyAction, { from: readonly StudyStateName[]; to: StudyStateName; label: string }> = {
+  launch: { from: ['draft'], to: 'live', label: 'Launch' },
+  pause: { from: ['live'], to: 'paused', label: 'Pause' },
+  resume: { from: ['paused'], to: 'live', label: 'Resume' },
+  close: { from: ['live', 'paused'], to: 'closed', label: 'Close' },
+};
+
+export function allowedActions(state: StudyStateName): StudyAction[] {
+  return STUDY_ACTIONS.filter((a) => TRANSITIONS[a].from.includes(state));
+}
+
+/** A stored design may change only while the study is a draft; afterwards it is frozen. */
+export const isEditable = (state: StudyStateName) => state === 'draft';
