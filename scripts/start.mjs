@@ -3,7 +3,7 @@ import { ensureDeps } from './lib/deps.mjs';
 import { ensureCluster } from './lib/postgres.mjs';
 import { ROOT, DATA, intFromEnv, persistentSecret, DEMO_ACCOUNTS, DEMO_PASSWORD } from './lib/project.mjs';
 import { log, fail, runLive } from './lib/run.mjs';
-import { startService, startMailCatcher, stopAll, waitForPort, bin } from './lib/services.mjs';
+import { startService, startMailCatcher, startFakeStripe, stopAll, waitForPort, bin } from './lib/services.mjs';
 import path from 'node:path';
 
 const t0 = Date.now();
@@ -11,6 +11,10 @@ const PORT = intFromEnv('PORT', 3000);
 const PGPORT = intFromEnv('PGPORT', 54329);
 const SMTP_PORT = intFromEnv('SMTP_PORT', 1025);
 const MAIL_WEB_PORT = intFromEnv('MAIL_WEB_PORT', 1080);
+const STRIPE_FAKE_PORT = intFromEnv('STRIPE_FAKE_PORT', 12111);
+// Real Stripe keys in the environment (and no STRIPE_FAKE_URL) switch the stand-in off.
+const useFakeStripe = !!process.env.STRIPE_FAKE_URL || !process.env.STRIPE_SECRET_KEY?.startsWith('sk_');
+const STRIPE_FAKE_URL = process.env.STRIPE_FAKE_URL ?? `http://127.0.0.1:${STRIPE_FAKE_PORT}`;
 
 await ensureDeps(ROOT);
 const DATABASE_URL = process.env.DATABASE_URL ?? (await ensureCluster({ root: path.join(DATA, 'dev'), port: PGPORT, database: 'notchwise' }));
@@ -25,6 +29,7 @@ const env = {
   SMTP_HOST: '127.0.0.1',
   SMTP_PORT: String(SMTP_PORT),
   PORT: String(PORT),
+  ...(useFakeStripe ? { STRIPE_FAKE_URL, STRIPE_SECRET_KEY: 'sk_test_local_fake', STRIPE_WEBHOOK_SECRET: process.env.STRIPE_WEBHOOK_SECRET ?? persistentSecret('stripe-webhook-secret') } : {}),
 };
 
 const tsx = bin('tsx');
@@ -35,6 +40,7 @@ log('building the app (next build) ...');
 if ((await runLive(bin('next'), ['build'], { cwd: ROOT, env })) !== 0) fail('The build failed.', 'See the messages above.');
 
 startMailCatcher({ smtpPort: SMTP_PORT, webPort: MAIL_WEB_PORT });
+if (useFakeStripe) startFakeStripe({ port: Number(new URL(STRIPE_FAKE_URL).port), webhookUrl: `${appUrl}/api/stripe/webhook`, webhookSecret: env.STRIPE_WEBHOOK_SECRET });
 const app = startService('app', bin('next'), ['start', '-H', '127.0.0.1', '-p', String(PORT)], { env });
 app.on('exit', (code) => {
   if (code) log(`the app stopped (exit code ${code}).`);
@@ -48,6 +54,7 @@ process.stdout.write(`
 Notchwise is running (ready in ${((Date.now() - t0) / 1000).toFixed(1)} s)
   app          ${appUrl}
   mail inbox   http://127.0.0.1:${MAIL_WEB_PORT}  (SMTP on 127.0.0.1:${SMTP_PORT})
+  payments     ${useFakeStripe ? `${STRIPE_FAKE_URL}  (local Stripe stand-in: test checkout page, signed webhooks)` : 'Stripe (real keys from the environment)'}
   database     ${DATABASE_URL}  (stop it with: npm run stop)
 
 Demo sign-ins (password for all: ${DEMO_PASSWORD})

@@ -49,3 +49,10 @@ export function waitForPort(port, { host = '127.0.0.1', timeoutMs = 60_000 } = {
 export function startMailCatcher({ smtpPort, webPort, quiet }) {
   return startService('mail', bin('maildev'), ['--ip', '127.0.0.1', '--smtp', String(smtpPort), '--web', String(webPort), '--web-ip', '127.0.0.1', '--silent'], { quiet });
 }
+
+/** The local Stripe stand-in (scripts/fake-stripe): Checkout API, test checkout page, signed webhooks. */
+export function startFakeStripe({ port, webhookUrl, webhookSecret, quiet, delayMs }) {
+  const env = { ...process.env, FAKE_STRIPE_PORT: String(port), FAKE_STRIPE_WEBHOOK_URL: webhookUrl, STRIPE_WEBHOOK_SECRET: webhookSecret };
+  if (delayMs !== undefined) env.FAKE_STRIPE_WEBHOOK_DELAY_MS = String(delayMs);
+  return startService('stripe', bin('tsx'), ['scripts/fake-stripe/server.ts'], { env, quiet });
+}

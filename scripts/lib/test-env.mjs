@@ -4,12 +4,14 @@ import { randomBytes } from 'node:crypto';
 import { ensureCluster, dropDatabase } from './postgres.mjs';
 import { DATA, ROOT, intFromEnv } from './project.mjs';
 import { run } from './run.mjs';
-import { bin, startService, startMailCatcher, waitForPort } from './services.mjs';
+import { bin, startService, startMailCatcher, startFakeStripe, waitForPort } from './services.mjs';
 
 export const TEST_PGPORT = intFromEnv('TEST_PGPORT', 54339);
 export const TEST_APP_PORT = intFromEnv('TEST_APP_PORT', 3100);
 export const TEST_SMTP_PORT = intFromEnv('TEST_SMTP_PORT', 2025);
 export const TEST_MAIL_WEB_PORT = intFromEnv('TEST_MAIL_WEB_PORT', 2080);
+export const TEST_STRIPE_PORT = intFromEnv('TEST_STRIPE_PORT', 12112);
+export const TEST_STRIPE_WEBHOOK_SECRET = 'whsec_test_only_0123456789abcdef';
 const TEST_DB = process.env.TEST_DB_NAME ?? 'notchwise_test';
 /** Several checkouts or engineers can test side by side with their own ports, database and build folder. */
 export const TEST_DIST_DIR = process.env.TEST_DIST_DIR ?? '.next-test';
@@ -44,6 +46,9 @@ export function testEnv(databaseUrl) {
     SMTP_HOST: '127.0.0.1',
     SMTP_PORT: String(TEST_SMTP_PORT),
     MAIL_API_URL: `http://127.0.0.1:${TEST_MAIL_WEB_PORT}`,
+    STRIPE_SECRET_KEY: 'sk_test_local_fake',
+    STRIPE_WEBHOOK_SECRET: TEST_STRIPE_WEBHOOK_SECRET,
+    STRIPE_FAKE_URL: `http://127.0.0.1:${TEST_STRIPE_PORT}`,
     NEXT_TELEMETRY_DISABLED: '1',
   };
 }
@@ -57,10 +62,11 @@ export function buildTestApp(env) {
 /** Starts the stand-ins and the built app; resolves when the app answers. */
 export async function startTestApp(env) {
   const mail = startMailCatcher({ smtpPort: TEST_SMTP_PORT, webPort: TEST_MAIL_WEB_PORT, quiet: true });
+  const stripe = startFakeStripe({ port: TEST_STRIPE_PORT, webhookUrl: `${env.APP_URL}/api/stripe/webhook`, webhookSecret: env.STRIPE_WEBHOOK_SECRET, quiet: true, delayMs: 300 });
   const app = startService('app', bin('next'), ['start', '-H', '127.0.0.1', '-p', String(TEST_APP_PORT)], {
     env: { ...process.env, ...env, NODE_ENV: 'production', NEXT_DIST_DIR: TEST_DIST_DIR },
     quiet: true,
   });
-  await Promise.all([waitForPort(TEST_APP_PORT, { timeoutMs: 90_000 }), waitForPort(TEST_SMTP_PORT), waitForPort(TEST_MAIL_WEB_PORT)]);
-  return [mail, app];
+  await Promise.all([waitForPort(TEST_APP_PORT, { timeoutMs: 90_000 }), waitForPort(TEST_SMTP_PORT), waitForPort(TEST_MAIL_WEB_PORT), waitForPort(TEST_STRIPE_PORT)]);
+  return [mail, stripe, app];
 }
