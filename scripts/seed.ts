@@ -1,12 +1,14 @@
 // `npm run db:seed`: loads the demo data. Idempotent: running it again changes nothing.
 import { orm } from '@/lib/server/db';
 import { seedAccounts } from './seed/accounts';
+import { seedDemoStudy } from './seed/demo-study';
 
 async function main() {
   const o = await orm();
   try {
     const db = o.em.fork();
     const workspace = await seedAccounts(db);
+    await seedDemoStudy(db, workspace.id);
     process.stdout.write(`[notchwise] demo data ready (workspace "${workspace.name}")\n`);
   } finally {
     await o.close(true);

@@ -1,0 +1,89 @@
+// The demo workspace's closed study with SIMULATED responses. Every parameter below is
+// invented for the fictional Harbourline scenario and every answer is drawn from a model
+// observer (scripts/seed/simulate-responses.ts): no shopper took part, nothing here is a
+// finding about real people. Idempotent: a study with this name in the demo workspace is kept.
+import { randomBytes, randomUUID } from 'node:crypto';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { DEFAULT_CONSENT, studyDesignSchema } from '@/lib/schemas/study.schema';
+import { DEFAULT_EXCLUSION_RULES } from '@/lib/schemas/exclusions.schema';
+import { insertRespondents, simulateRespondents, type SimParams } from './simulate-responses';
+
+export const DEMO_STUDY_NAME = 'Kitchen & home — notice thresholds';
+
+export const DEMO_DESIGN = studyDesignSchema.parse({
+  name: DEMO_STUDY_NAME,
+  itemName: 'Harbourline Home kitchenware',
+  itemPictureId: null,
+  category: 'Kitchen & home',
+  currency: 'EUR',
+  locale: 'en-IE',
+  task: 'spot',
+  shelfSize: 6,
+  viewMs: 1200,
+  tripMinutes: 20,
+  basePrices: [3.49, 12.99, 39, 129, 449],
+  ladder: [0.01, 0.02, 0.03, 0.05, 0.08, 0.12, 0.18, 0.25],
+  repetitions: 2,
+  catchShare: 0.1,
+  practiceTrials: 2,
+  orderSeed: 20260301,
+  adaptive: { enabled: false, rule: '1u2d', trialsPerBase: 24, reversals: 8 },
+  consentText: DEFAULT_CONSENT,
+  segmentQuestions: [{ id: 'shop_often', text: 'How often do you shop this category?', options: ['Every month', 'A few times a year', 'Rarely'] }],
+  attentionCheck: { enabled: true, question: 'To show you are reading carefully, choose “Often”.', options: ['Never', 'Sometimes', 'Often', 'Always'], correct: 'Often' },
+  targetCompletes: 120,
+  redirectUrl: '',
+  priceEnding: 'ends-99',
+});
+
+/** Invented observer: Weber slope 0.8 (a smaller fraction on dearer items), lapse 2 %. */
+export const DEMO_SIM: SimParams = {
+  basePrices: DEMO_DESIGN.basePrices,
+  ladder: DEMO_DESIGN.ladder,
+  repetitions: DEMO_DESIGN.repetitions,
+  catchPerRespondent: 9,
+  respondents: 120,
+  refFraction: 0.07,
+  refPrice: 39,
+  weberSlope: 0.8,
+  beta: 2.6,
+  lapse: 0.02,
+  guess: 0.08,
+  alphaSd: 0.2,
+  segment: {
+    questionId: 'shop_often',
+    answers: [
+      { answer: 'Every month', share: 0.35, alphaShift: -0.12 },
+      { answer: 'A few times a year', share: 0.45, alphaShift: 0 },
+      { answer: 'Rarely', share: 0.2, alphaShift: 0.18 },
+    ],
+  },
+  careless: { inattentive: 4, speeders: 3, straightLiners: 3 },
+  seed: 'harbourline-kitchen-demo',
+};
+
+export async function seedDemoStudy(db: EntityManager, workspaceId: string) {
+  const rows: { id: string }[] = await db.execute('select id from study where workspace_id = ? and name = ?', [workspaceId, DEMO_STUDY_NAME]);
+  if (rows.length) return { id: rows[0].id, created: false };
+  const knex = db.getKnex();
+  const studyId = randomUUID();
+  const closedAt = new Date('2026-03-20T17:00:00Z');
+  const launchedAt = new Date('2026-03-02T08:00:00Z');
+  await knex.transaction(async (trx) => {
+    await trx('study').insert({
+      id: studyId, workspace_id: workspaceId, name: DEMO_STUDY_NAME, state: 'closed', design: JSON.stringify(DEMO_DESIGN),
+      exclusion_rules: JSON.stringify(DEFAULT_EXCLUSION_RULES), data_version: 1, created_at: launchedAt, updated_at: closedAt,
+      launched_at: launchedAt, closed_at: closedAt,
+    });
+    const links = [
+      { source: 'Newsletter', id: randomUUID() },
+      { source: 'Store QR', id: randomUUID() },
+    ];
+    await trx('respondent_link').insert(links.map((l) => ({
+      id: l.id, workspace_id: workspaceId, study_id: studyId, token: randomBytes(24).toString('base64url'),
+      source: l.source, quota: null, accepts_pid: false, closed_at: closedAt, created_at: launchedAt,
+    })));
+    await insertRespondents(db, trx, { workspaceId, studyId, respondents: simulateRespondents(DEMO_SIM), linkIds: links.map((l) => l.id), startedAt: launchedAt });
+  });
+  return { id: studyId, created: true };
+}

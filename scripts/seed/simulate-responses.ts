@@ -1,0 +1,111 @@
+// Simulated respondents for the demo study and for tests: every number here is invented and
+// every answer drawn from a model observer; no real shopper answered any of it.
+import { randomBytes, randomUUID } from 'node:crypto';
+import type { EntityManager, Knex } from '@mikro-orm/postgresql';
+import { createRng, type Rng } from '@/lib/psychometrics/random';
+
+export interface SimParams {
+  basePrices: number[];
+  ladder: number[];
+  repetitions: number;
+  catchPerRespondent: number;
+  respondents: number;
+  /** Mid-point threshold fraction at `refPrice`. */
+  refFraction: number;
+  refPrice: number;
+  /** Slope of ln(threshold money) on ln(base price). */
+  weberSlope: number;
+  /** Psychometric slope β on the ln-discount axis. */
+  beta: number;
+  lapse: number;
+  /** Mean false-alarm rate on catch trials. */
+  guess: number;
+  /** Between-respondent spread of ln threshold (overdispersion, as real panels show). */
+  alphaSd: number;
+  segment?: { questionId: string; answers: { answer: string; share: number; alphaShift: number }[] };
+  /** Respondents who answer at random (failed attention check), speed through, or press one key. */
+  careless?: { inattentive: number; speeders: number; straightLiners: number };
+  seed: string;
+}
+
+export interface SimTrial { idx: number; kind: 'test' | 'catch' | 'attention'; basePrice: number; discount: number; answer: 0 | 1; responseMs: number }
+export interface SimRespondent { segmentAnswers: Record<string, string>; attentionPassed: boolean | null; trials: SimTrial[] }
+
+const logistic = (x: number) => 1 / (1 + Math.exp(-x));
+
+function pickSegment(p: SimParams, rng: Rng) {
+  if (!p.segment) return { answers: {}, shift: 0 };
+  let u = rng.next();
+  for (const a of p.segment.answers) {
+    u -= a.share;
+    if (u <= 0) return { answers: { [p.segment.questionId]: a.answer }, shift: a.alphaShift };
+  }
+  const last = p.segment.answers[p.segment.answers.length - 1];
+  return { answers: { [p.segment.questionId]: last.answer }, shift: last.alphaShift };
+}
+
+export function simulateRespondents(p: SimParams): SimRespondent[] {
+  const rng = createRng(p.seed);
+  const care = p.careless ?? { inattentive: 0, speeders: 0, straightLiners: 0 };
+  const out: SimRespondent[] = [];
+  for (let r = 0; r < p.respondents; r++) {
+    const kind = r < care.inattentive ? 'inattentive' : r < care.inattentive + care.speeders ? 'speeder'
+      : r < care.inattentive + care.speeders + care.straightLiners ? 'straight' : 'careful';
+    const seg = pickSegment(p, rng);
+    const offset = p.alphaSd * rng.normal() + seg.shift;
+    const guess = Math.min(0.4, Math.max(0, p.guess + 0.04 * rng.normal()));
+    const screens: { kind: 'test' | 'catch'; basePrice: number; discount: number }[] = [];
+    for (const basePrice of p.basePrices) for (const discount of p.ladder) for (let k = 0; k < p.repetitions; k++) screens.push({ kind: 'test', basePrice, discount });
+    for (let c = 0; c < p.catchPerRespondent; c++) screens.push({ kind: 'catch', basePrice: p.basePrices[c % p.basePrices.length], discount: 0 });
+    rng.shuffle(screens);
+    const trials: SimTrial[] = screens.map((s, idx) => {
+      const alpha = Math.log(p.refFraction) + (p.weberSlope - 1) * Math.log(s.basePrice / p.refPrice) + offset;
+      const pYes = s.kind === 'catch' ? guess : guess + (1 - guess - p.lapse) * logistic(p.beta * (Math.log(s.discount) - alpha));
+      let answer: 0 | 1 = rng.next() < pYes ? 1 : 0;
+      if (kind === 'inattentive' || kind === 'speeder') answer = rng.next() < 0.5 ? 1 : 0;
+      if (kind === 'straight') answer = 1;
+      const ms = kind === 'speeder' ? 180 + rng.int(150) : Math.round(Math.exp(Math.log(1500) + 0.35 * rng.normal()));
+      return { idx: idx + 1, kind: s.kind, basePrice: s.basePrice, discount: s.discount, answer, responseMs: ms };
+    });
+    const attentionPassed = kind !== 'inattentive';
+    trials.splice(Math.floor(trials.length / 2), 0, { idx: 0, kind: 'attention', basePrice: p.basePrices[0], discount: 0, answer: attentionPassed ? 1 : 0, responseMs: 2400 });
+    trials.forEach((t, i) => { t.idx = i + 1; });
+    out.push({ segmentAnswers: seg.answers, attentionPassed, trials });
+  }
+  return out;
+}
+
+/**
+ * Bulk insert (multi-row INSERTs through knex, in chunks) of finished respondents and their
+ * trials. `links` spreads respondents over respondent links (their "source").
+ */
+export async function insertRespondents(
+  db: EntityManager,
+  trx: Knex.Transaction,
+  { workspaceId, studyId, respondents, linkIds = [], state = 'completed', startedAt = new Date() }:
+  { workspaceId: string; studyId: string; respondents: SimRespondent[]; linkIds?: string[]; state?: 'completed' | 'imported'; startedAt?: Date },
+) {
+  const knex = db.getKnex();
+  const rRows: Record<string, unknown>[] = [];
+  const tRows: Record<string, unknown>[] = [];
+  respondents.forEach((r, i) => {
+    const id = randomUUID();
+    const begin = new Date(startedAt.getTime() + i * 7 * 60_000);
+    const done = new Date(begin.getTime() + 9 * 60_000);
+    rRows.push({
+      id, workspace_id: workspaceId, study_id: studyId, link_id: linkIds.length ? linkIds[i % linkIds.length] : null,
+      resume_token: randomBytes(24).toString('base64url'), external_ref: state === 'imported' ? `R${i + 1}` : null,
+      seed: i + 1, state, segment_answers: JSON.stringify(r.segmentAnswers), attention_passed: r.attentionPassed,
+      answered_count: r.trials.length, started_at: begin, last_seen_at: done, completed_at: done,
+    });
+    for (const t of r.trials) {
+      tRows.push({
+        study_id: studyId, respondent_id: id, idx: t.idx, kind: t.kind, base_price: t.basePrice, discount: t.discount,
+        answer: t.answer, response_ms: t.responseMs, client_id: randomUUID(), answered_at: done,
+      });
+    }
+  });
+  await knex.batchInsert('respondent', rRows, 1000).transacting(trx);
+  await knex.batchInsert('trial', tRows, 2000).transacting(trx);
+  return { respondents: rRows.length, trials: tRows.length };
+}

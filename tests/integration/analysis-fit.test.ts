@@ -1,0 +1,47 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { fitCacheKey, getFitState, getStudyFit, listFittableStudies, runFitJob } from '@/lib/server/analysis';
+import { authorise } from '@/lib/server/membership';
+import { em } from '@/lib/server/db';
+import { findStudy } from '@/lib/server/study-data';
+import { makeWorkspace, signInAs } from '../support/factories';
+import { makeSimulatedStudy } from '../support/studies';
+
+describe('getStudyFit: queued job, cached result, workspace scope', () => {
+  let ws: Awaited<ReturnType<typeof makeWorkspace>>;
+  let other: Awaited<ReturnType<typeof makeWorkspace>>;
+  let studyId: string;
+  beforeAll(async () => {
+    ws = await makeWorkspace();
+    other = await makeWorkspace();
+    ({ studyId } = await makeSimulatedStudy(ws.slug));
+  });
+
+  it('is pending first, ready after the job ran, and flags poor fits', async () => {
+    signInAs(ws.owner);
+    const ctx = await authorise(ws.owner, ws.slug, 'viewer');
+    const first = await getStudyFit(ctx, studyId);
+    expect(first.status).toBe('pending');
+    const study = await findStudy(await em(), ctx.workspace.id, studyId);
+    const { cacheKey } = fitCacheKey(study, {});
+    await runFitJob({ studyId, kind: 'fit', cacheKey, dataVersion: study.dataVersion, segment: null, target: null });
+    const state = await getFitState(ctx, studyId);
+    expect(state.fit.status).toBe('ready');
+    if (state.fit.status !== 'ready') return;
+    expect(state.fit.report.bases).toHaveLength(5);
+    expect(state.fit.basePrices).toEqual([3.49, 12.99, 39, 129, 449]);
+    expect(state.fit.report.bootstrapSamples).toBe(1000);
+    expect(typeof state.fit.poorFit).toBe('boolean');
+    expect(state.counts!.respondents.before).toBe(40);
+    expect(state.counts!.respondents.after).toBeLessThan(40);
+  });
+
+  it('a foreign study is a 404; fittable studies are listed per workspace', async () => {
+    const ctxOther = await authorise(other.owner, other.slug, 'viewer');
+    await expect(getStudyFit(ctxOther, studyId)).rejects.toMatchObject({ status: 404 });
+    expect(await listFittableStudies(ctxOther)).toEqual([]);
+    const ctx = await authorise(ws.owner, ws.slug, 'viewer');
+    const list = await listFittableStudies(ctx);
+    expect(list.map((s) => s.id)).toEqual([studyId]);
+    expect(list[0].segmentQuestions[0].id).toBe('shop_often');
+  });
+});
