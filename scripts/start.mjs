@@ -16,6 +16,10 @@ const STRIPE_FAKE_PORT = intFromEnv('STRIPE_FAKE_PORT', 12111);
 const useFakeStripe = !!process.env.STRIPE_FAKE_URL || !process.env.STRIPE_SECRET_KEY?.startsWith('sk_');
 const STRIPE_FAKE_URL = process.env.STRIPE_FAKE_URL ?? `http://127.0.0.1:${STRIPE_FAKE_PORT}`;
 
+for (const [name, port] of [['PORT', PORT], ['SMTP_PORT', SMTP_PORT], ['MAIL_WEB_PORT', MAIL_WEB_PORT]]) {
+  if (await portInUse(port)) fail(`Port ${port} on 127.0.0.1 is already in use (is Notchwise already running?).`, `Stop that program, or choose another port with ${name}=... .`);
+}
+
 await ensureDeps(ROOT);
 const DATABASE_URL = process.env.DATABASE_URL ?? (await ensureCluster({ root: path.join(DATA, 'dev'), port: PGPORT, database: 'notchwise' }));
 const appUrl = process.env.APP_URL ?? `http://127.0.0.1:${PORT}`;

@@ -8,7 +8,8 @@ const children = new Set();
 
 /** Starts a long-running child; its output is prefixed with `name`. */
 export function startService(name, cmd, args, { env = process.env, quiet = false } = {}) {
-  const child = spawn(cmd, args, { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'], detached: false });
+  // Own process group: `next start` forks a next-server child that a plain kill would orphan.
+  const child = spawn(cmd, args, { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'], detached: true });
   const prefix = (chunk) => chunk.toString().split('\n').filter(Boolean).map((l) => `[${name}] ${l}\n`).join('');
   if (!quiet) {
     child.stdout.on('data', (c) => process.stdout.write(prefix(c)));
@@ -26,9 +27,30 @@ export function bin(name) {
   return path.join(ROOT, 'node_modules', '.bin', name);
 }
 
-export function stopAll(signal = 'SIGTERM') {
-  for (const c of children) c.kill(signal);
+/** Stops a service and everything it started (its process group). */
+export function stopService(child, signal = 'SIGTERM') {
+  try {
+    process.kill(-child.pid, signal);
+  } catch {
+    child.kill(signal);
+  }
 }
+
+export function stopAll(signal = 'SIGTERM') {
+  for (const c of children) stopService(c, signal);
+}
+
+/** True when something already listens on the port. */
+export function portInUse(port, host = '127.0.0.1') {
+  return new Promise((resolve) => {
+    const s = net.connect({ host, port });
+    s.once('connect', () => { s.destroy(); resolve(true); });
+    s.once('error', () => resolve(false));
+  });
+}
+
+// Whatever way this process ends, its services end with it.
+process.on('exit', () => stopAll());
 
 export function waitForPort(port, { host = '127.0.0.1', timeoutMs = 60_000 } = {}) {
   const until = Date.now() + timeoutMs;

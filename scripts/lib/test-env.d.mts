@@ -9,3 +9,4 @@ export function prepareTestDatabase(opts?: { fresh?: boolean }): Promise<string>
 export function testEnv(databaseUrl: string): Record<string, string>;
 export function buildTestApp(env: Record<string, string>): void;
 export function startTestApp(env: Record<string, string>): Promise<ChildProcess[]>;
+export function stopTestApp(children: ChildProcess[]): void;

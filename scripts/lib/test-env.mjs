@@ -70,3 +70,7 @@ export async function startTestApp(env) {
   await Promise.all([waitForPort(TEST_APP_PORT, { timeoutMs: 90_000 }), waitForPort(TEST_SMTP_PORT), waitForPort(TEST_MAIL_WEB_PORT), waitForPort(TEST_STRIPE_PORT)]);
   return [mail, stripe, app];
 }
+
+export function stopTestApp(children) {
+  for (const c of children) stopService(c);
+}

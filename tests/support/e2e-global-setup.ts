@@ -2,7 +2,7 @@
 // (E2E_BASE_URL set); running this project alone builds and starts it here.
 import type { TestProject } from 'vitest/node';
 import type { ChildProcess } from 'node:child_process';
-import { prepareTestDatabase, testEnv, buildTestApp, startTestApp } from '../../scripts/lib/test-env.mjs';
+import { prepareTestDatabase, testEnv, buildTestApp, startTestApp, stopTestApp } from '../../scripts/lib/test-env.mjs';
 
 let children: ChildProcess[] = [];
 
@@ -21,9 +21,7 @@ export default async function setup(project: TestProject) {
   project.provide('appUrl', base);
   project.provide('mailApiUrl', mailApi ?? '');
   project.provide('databaseUrl', databaseUrl ?? '');
-  return () => {
-    for (const c of children) c.kill('SIGTERM');
-  };
+  return () => stopTestApp(children);
 }
 
 declare module 'vitest' {
