@@ -1,0 +1,36 @@
+import { primaryButton } from './price-tag';
+
+/**
+ * Server-rendered first screen. A real form posting to the start route, so a respondent whose
+ * phone has not loaded the script yet can still begin; with script the flow takes over.
+ */
+export function ConsentScreen({ consentText, retentionDays, action, pid, onAgree }: {
+  consentText: string;
+  retentionDays: number;
+  action?: string;
+  pid?: string | null;
+  onAgree?: () => void;
+}) {
+  return (
+    <form
+      method="post"
+      action={action}
+      className="flex flex-col gap-5"
+      onSubmit={(e) => {
+        if (!onAgree) return;
+        e.preventDefault();
+        onAgree();
+      }}
+    >
+      <h1 className="text-2xl">Before you start</h1>
+      <p className="whitespace-pre-line text-lg leading-relaxed">{consentText}</p>
+      <ul className="flex flex-col gap-2 border-l-2 border-rule pl-4 text-base text-muted">
+        <li>No names or e-mail addresses are stored.</li>
+        <li>Your answers are kept for {retentionDays} days after the study closes, then deleted.</li>
+      </ul>
+      {pid ? <input type="hidden" name="pid" value={pid} /> : null}
+      <input type="hidden" name="consent" value="true" />
+      <button type="submit" className={primaryButton}>I agree, start</button>
+    </form>
+  );
+}
