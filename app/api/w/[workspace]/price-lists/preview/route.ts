@@ -1,0 +1,10 @@
+import { NextResponse } from 'next/server';
+import { workspaceRoute } from '@/lib/server/api';
+import { parsePriceList } from '@/lib/promo/parse-price-list';
+import { previewDto, readCsvUpload } from '@/lib/server/price-lists';
+
+/** The preview step: the first rows and every error, nothing stored. */
+export const POST = workspaceRoute('analyst', async (req) => {
+  const { text } = await readCsvUpload(req);
+  return NextResponse.json(previewDto(parsePriceList(text)));
+});

@@ -1,0 +1,36 @@
+import { thresholdAt, type FloorParams } from '@/lib/psychometrics/promo-floor';
+import type { FloorRow } from './floor-table';
+
+export interface ChartPoint { price: number; discount: number; flagged: boolean }
+
+export interface PromoChartData {
+  /** The model's promo floor (% off) along the list's price range, on a log grid. */
+  curve: { price: number; floor: number }[];
+  /** Items' discount after the ending rule (a deterministic sample on big lists). */
+  items: ChartPoint[];
+  testedBasePrices: number[];
+  itemsShown: number;
+  itemsTotal: number;
+}
+
+const MAX_POINTS = 800;
+const GRID = 80;
+
+export function promoChartData(params: FloorParams, target: number | undefined, rows: readonly FloorRow[], testedBasePrices: number[]): PromoChartData {
+  let lo = Math.min(...testedBasePrices), hi = Math.max(...testedBasePrices);
+  for (const r of rows) { if (r.regularPrice < lo) lo = r.regularPrice; if (r.regularPrice > hi) hi = r.regularPrice; }
+  const curve: PromoChartData['curve'] = [];
+  const a = Math.log(lo), b = Math.log(hi);
+  for (let i = 0; i <= GRID; i++) {
+    const price = Math.exp(a + ((b - a) * i) / GRID);
+    curve.push({ price, floor: Math.min(1, thresholdAt(params, params.model, price, target).fraction) });
+  }
+  // Every k-th item keeps the sample spread over the whole list in list order.
+  const step = Math.max(1, Math.ceil(rows.length / MAX_POINTS));
+  const items: ChartPoint[] = [];
+  for (let i = 0; i < rows.length; i += step) {
+    const r = rows[i];
+    if (r.discountAfterEnding !== null) items.push({ price: r.regularPrice, discount: r.discountAfterEnding, flagged: r.outsideRange || r.deeperThanMargin });
+  }
+  return { curve, items, testedBasePrices: [...testedBasePrices].sort((x, y) => x - y), itemsShown: items.length, itemsTotal: rows.length };
+}
