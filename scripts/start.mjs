@@ -3,7 +3,7 @@ import { ensureDeps } from './lib/deps.mjs';
 import { ensureCluster } from './lib/postgres.mjs';
 import { ROOT, DATA, intFromEnv, persistentSecret, DEMO_ACCOUNTS, DEMO_PASSWORD } from './lib/project.mjs';
 import { log, fail, runLive } from './lib/run.mjs';
-import { startService, startMailCatcher, startFakeStripe, stopAll, waitForPort, bin } from './lib/services.mjs';
+import { startService, startMailCatcher, startFakeStripe, stopAll, waitForPort, bin, portInUse } from './lib/services.mjs';
 import path from 'node:path';
 
 const t0 = Date.now();
