@@ -1,0 +1,39 @@
+import type { BillingOverview } from '@/lib/server/billing';
+import { EmptyState } from '@/components/ui/empty-state';
+
+const REASONS: Record<string, string> = {
+  welcome: 'Welcome seats',
+  purchase: 'Bundle bought',
+  complete: 'Respondent completed',
+  adjustment: 'Adjustment',
+};
+
+const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' }) + ' UTC';
+
+export function LedgerTable({ entries }: { entries: BillingOverview['entries'] }) {
+  if (entries.length === 0) return <EmptyState title="No seat movements yet" />;
+  return (
+    <div className="card overflow-x-auto">
+      <table className="table" data-testid="ledger">
+        <thead>
+          <tr>
+            <th>Date</th>
+            <th className="n">Change (seats)</th>
+            <th>Reason</th>
+            <th>Reference</th>
+          </tr>
+        </thead>
+        <tbody>
+          {entries.map((e) => (
+            <tr key={e.id}>
+              <td className="whitespace-nowrap">{when(e.createdAt)}</td>
+              <td className={e.delta >= 0 ? 'n text-moss' : 'n text-brick'}>{e.delta >= 0 ? `+${e.delta}` : `−${Math.abs(e.delta)}`}</td>
+              <td>{REASONS[e.reason] ?? e.reason}{e.note ? <span className="text-muted"> · {e.note}</span> : null}</td>
+              <td className="num max-w-[18rem] truncate text-xs text-muted" title={e.reference}>{e.reference}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
