@@ -1,5 +1,35 @@
+// Where the buyer is sent to pay: the local Stripe stand-in, or Stripe's own checkout.
+const checkoutOrigin = process.env.STRIPE_FAKE_URL ? new URL(process.env.STRIPE_FAKE_URL).origin : 'https://checkout.stripe.com';
+const dev = process.env.NODE_ENV !== 'production';
+
+// Only what the app needs: its own scripts (Next's bootstrap is inline), styles (next/font and
+// chart attributes are inline), images incl. data: QR codes, and the checkout page for forms.
+const contentSecurityPolicy = [
+  "default-src 'self'",
+  `script-src 'self' 'unsafe-inline'${dev ? " 'unsafe-eval'" : ''}`,
+  "style-src 'self' 'unsafe-inline'",
+  "img-src 'self' data: blob:",
+  "font-src 'self'",
+  `connect-src 'self'${dev ? ' ws:' : ''}`,
+  `form-action 'self' ${checkoutOrigin}`,
+  "frame-ancestors 'none'",
+  "base-uri 'self'",
+  "object-src 'none'",
+].join('; ');
+
+const securityHeaders = [
+  { key: 'Content-Security-Policy', value: contentSecurityPolicy },
+  { key: 'X-Frame-Options', value: 'DENY' },
+  { key: 'Referrer-Policy', value: 'strict-origin-when-cross-origin' },
+  { key: 'X-Content-Type-Options', value: 'nosniff' },
+  { key: 'Permissions-Policy', value: 'camera=(), microphone=(), geolocation=()' },
+];
+
 /** @type {import('next').NextConfig} */
 const nextConfig = {
+  async headers() {
+    return [{ source: '/:path*', headers: securityHeaders }];
+  },
   // The test run builds into its own folder so it never disturbs a running `npm start`.
   distDir: process.env.NEXT_DIST_DIR || '.next',
   serverExternalPackages: [
