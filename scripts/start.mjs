@@ -46,6 +46,8 @@ if ((await runLive(bin('next'), ['build'], { cwd: ROOT, env })) !== 0) fail('The
 startMailCatcher({ smtpPort: SMTP_PORT, webPort: MAIL_WEB_PORT });
 if (useFakeStripe) startFakeStripe({ port: Number(new URL(STRIPE_FAKE_URL).port), webhookUrl: `${appUrl}/api/stripe/webhook`, webhookSecret: env.STRIPE_WEBHOOK_SECRET });
 const app = startService('app', bin('next'), ['start', '-H', '127.0.0.1', '-p', String(PORT)], { env });
+// The job worker (fits, segment comparisons, planner) runs beside the app; RUN_WORKER=0 leaves the queue to workers elsewhere.
+if (!['0', 'false', 'no', 'off'].includes(String(process.env.RUN_WORKER ?? '').toLowerCase())) startService('worker', tsx, ['--conditions=react-server', 'scripts/worker.ts'], { env });
 app.on('exit', (code) => {
   if (code) log(`the app stopped (exit code ${code}).`);
   stopAll();

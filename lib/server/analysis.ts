@@ -4,7 +4,7 @@ import { Study } from '@/entities/study';
 import { analyse } from '@/lib/psychometrics/analyse';
 import { chiSquareP } from '@/lib/psychometrics/chi2';
 import type { AnalysisReport } from '@/lib/psychometrics/report-types';
-import type { Task } from '@/lib/psychometrics/types';
+import type { Cell, CatchCell, Task } from '@/lib/psychometrics/types';
 import type { ExclusionCounts } from '@/lib/exclusions';
 import type { ExclusionRules } from '@/lib/schemas/exclusions.schema';
 import { hashKey, latestDone, requestComputation, runCached, type CacheRow, type JobData } from './analysis-cache';
@@ -29,6 +29,9 @@ export type StudyFit =
 export interface FitResult extends Record<string, unknown> {
   report: AnalysisReport;
   counts: ExclusionCounts;
+  /** The observed counts the fit used (the notice rates drawn as dots). */
+  cells: Cell[];
+  catchCells: CatchCell[];
   optionsKey: string;
   computedMs: number;
 }
@@ -56,8 +59,9 @@ export interface FitState {
   study: StudyInfo;
   fit: StudyFit;
   counts: ExclusionCounts | null;
+  cells: { cells: Cell[]; catchCells: CatchCell[] } | null;
   /** While a newer fit computes: the last finished one with the same options. */
-  previous: { report: AnalysisReport; counts: ExclusionCounts; dataVersion: number } | null;
+  previous: { report: AnalysisReport; counts: ExclusionCounts; cells: Cell[]; catchCells: CatchCell[]; dataVersion: number } | null;
   job: { status: CacheRow<unknown>['status']; since: string } | null;
 }
 
@@ -66,7 +70,7 @@ export async function getFitState(ctx: WorkspaceContext, studyId: string, opts: 
   const db = await em();
   const study = await findStudy(db, ctx.workspace.id, studyId);
   const { cacheKey, optionsKey } = fitCacheKey(study, opts);
-  const base = { study, counts: null, previous: null, job: null };
+  const base = { study, counts: null, cells: null, previous: null, job: null };
   if (!(await hasAnsweredTests(db, study.id))) {
     return { ...base, fit: { status: 'empty', message: 'No finished respondent has answered a test trial yet.' } };
   }
@@ -77,7 +81,7 @@ export async function getFitState(ctx: WorkspaceContext, studyId: string, opts: 
   if (row.status === 'done' && row.result) {
     const r = row.result;
     return {
-      ...base, counts: r.counts, job: { status: 'done', since: row.updatedAt.toISOString() },
+      ...base, counts: r.counts, cells: { cells: r.cells, catchCells: r.catchCells }, job: { status: 'done', since: row.updatedAt.toISOString() },
       fit: {
         status: 'ready', report: r.report, dataVersion: study.dataVersion, exclusionRules: study.exclusionRules,
         poorFit: isPoorFit(r.report), task: study.task, currency: study.currency, locale: study.locale,
@@ -90,7 +94,7 @@ export async function getFitState(ctx: WorkspaceContext, studyId: string, opts: 
   const prev = await latestDone<FitResult>(db, study.id, 'fit', optionsKey);
   return {
     ...base, job,
-    previous: prev ? { report: prev.result.report, counts: prev.result.counts, dataVersion: prev.dataVersion } : null,
+    previous: prev ? { report: prev.result.report, counts: prev.result.counts, cells: prev.result.cells, catchCells: prev.result.catchCells, dataVersion: prev.dataVersion } : null,
     fit: { status: 'pending', message: row.status === 'running' ? 'Fitting the curves and bootstrapping the intervals…' : 'The fit is queued and starts in a moment…' },
   };
 }
@@ -111,7 +115,7 @@ export async function runFitJob(data: JobData & { segment: Segment | null; targe
       target: data.target ?? undefined, bootstrap: FIT_BOOTSTRAP, seed: FIT_SEED,
     });
     if (study.task !== 'spot' && catchCells.length) report.warnings.push(`catch trials ignored: the ${study.task} task does not estimate a guess rate from them`);
-    const result: FitResult = { report, counts, optionsKey: optionsKeyOf(study.exclusionRules, { segment: data.segment, target: data.target ?? undefined }), computedMs: Date.now() - started };
+    const result: FitResult = { report, counts, cells, catchCells, optionsKey: optionsKeyOf(study.exclusionRules, { segment: data.segment, target: data.target ?? undefined }), computedMs: Date.now() - started };
     return result;
   });
 }

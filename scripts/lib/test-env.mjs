@@ -67,8 +67,13 @@ export async function startTestApp(env) {
     env: { ...process.env, ...env, NODE_ENV: 'production', NEXT_DIST_DIR: TEST_DIST_DIR },
     quiet: true,
   });
+  // The job worker (fits, planner) beside the app, as `npm start` runs it.
+  const worker = startService('worker', bin('tsx'), ['--conditions=react-server', 'scripts/worker.ts'], {
+    env: { ...process.env, ...env, NODE_ENV: 'production' },
+    quiet: true,
+  });
   await Promise.all([waitForPort(TEST_APP_PORT, { timeoutMs: 90_000 }), waitForPort(TEST_SMTP_PORT), waitForPort(TEST_MAIL_WEB_PORT), waitForPort(TEST_STRIPE_PORT)]);
-  return [mail, stripe, app];
+  return [mail, stripe, app, worker];
 }
 
 export function stopTestApp(children) {

@@ -1,0 +1,11 @@
+import { workspaceRoute } from '@/lib/server/api';
+import { AppError } from '@/lib/server/errors';
+import { getPlan } from '@/lib/server/planner-analysis';
+import { plannerInputSchema } from '@/lib/schemas/results.schema';
+
+/** How many completes bring each threshold's interval under the chosen width (queued as a job). */
+export const GET = workspaceRoute<{ workspace: string; study: string }>('viewer', async (req, ctx, { study }) => {
+  const parsed = plannerInputSchema.safeParse({ widthPoints: req.nextUrl.searchParams.get('width') ?? undefined });
+  if (!parsed.success) throw new AppError(422, 'validation_failed', parsed.error.issues[0]?.message ?? 'Enter a width.', [{ path: 'widthPoints', message: parsed.error.issues[0]?.message ?? '' }]);
+  return Response.json(await getPlan(ctx, study, parsed.data.widthPoints), { headers: { 'cache-control': 'no-store' } });
+});

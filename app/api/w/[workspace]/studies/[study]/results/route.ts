@@ -1,0 +1,13 @@
+import { workspaceRoute } from '@/lib/server/api';
+import { getFitState } from '@/lib/server/analysis';
+import { resultsQuerySchema } from '@/lib/schemas/results.schema';
+import { AppError } from '@/lib/server/errors';
+
+/** The fit of a study (ready, pending with progress, or empty) with its exclusion counts. */
+export const GET = workspaceRoute<{ workspace: string; study: string }>('viewer', async (req, ctx, { study }) => {
+  const q = resultsQuerySchema.safeParse(Object.fromEntries(req.nextUrl.searchParams));
+  if (!q.success) throw new AppError(422, 'validation_failed', 'The segment or target in the address is not valid.');
+  const segment = q.data.segmentQuestion && q.data.segmentAnswer ? { questionId: q.data.segmentQuestion, answer: q.data.segmentAnswer } : null;
+  const state = await getFitState(ctx, study, { segment });
+  return Response.json(state, { headers: { 'cache-control': 'no-store' } });
+});

@@ -1,0 +1,10 @@
+import { workspaceRoute } from '@/lib/server/api';
+import { AppError } from '@/lib/server/errors';
+import { getSegmentComparison } from '@/lib/server/segment-analysis';
+
+/** Thresholds and Weber slope per answer group of one segment question, with the LR test. */
+export const GET = workspaceRoute<{ workspace: string; study: string }>('viewer', async (req, ctx, { study }) => {
+  const q = req.nextUrl.searchParams.get('question') ?? '';
+  if (!/^[a-z0-9_]{1,32}$/.test(q)) throw new AppError(422, 'validation_failed', 'Choose a segment question.');
+  return Response.json(await getSegmentComparison(ctx, study, q), { headers: { 'cache-control': 'no-store' } });
+});

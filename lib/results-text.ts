@@ -1,0 +1,69 @@
+import type { AnalysisReport, BaseReport } from '@/lib/psychometrics/report-types';
+
+// Plain words about a fit, shared by the results page, the printed report and the exports.
+
+export const MODEL_LABELS: Record<AnalysisReport['preferredModel'], string> = {
+  free: 'free (each base price its own threshold)',
+  weber: 'Weber (one percentage for all base prices)',
+  constantAmount: 'constant amount (one money amount for all base prices)',
+  power: 'power (threshold in money grows as base price to the Weber slope)',
+};
+
+export const modelLabel = (m: AnalysisReport['preferredModel']) => MODEL_LABELS[m];
+
+const pct = (f: number) => `${(f * 100).toFixed(f < 0.1 ? 1 : 0)} %`;
+const num = (x: number, d = 2) => x.toFixed(d);
+
+/** Why a base was judged a poor fit (or what to watch on one that fits). */
+export function verdictWhy(b: BaseReport, warnings: string[]): string[] {
+  const out: string[] = [];
+  if (b.devianceP !== null && b.devianceP < 0.05) out.push(`The deviance (${num(b.deviance, 1)} on ${b.devianceDf} df) is larger than chance allows (p = ${b.devianceP.toFixed(3)}): the observed notice rates scatter around the curve more than binomial noise would.`);
+  if (b.overdispersed) out.push(`Deviance/df is ${num(b.deviance / Math.max(1, b.devianceDf), 2)}, above 1.5: respondents differ more than one curve describes (overdispersion). The intervals were widened by the quasi-binomial factor.`);
+  const mine = warnings.filter((w) => w.includes(String(b.basePrice)));
+  out.push(...mine);
+  if (!out.length && b.verdict === 'poor fit') out.push('The engine judged this fit poor; see the warnings of the report.');
+  return out;
+}
+
+/** One sentence for merchandising about what the Weber view means for promotions. */
+export function promotionSentence(r: AnalysisReport, currencyFmt: (x: number) => string): string {
+  const p = r.models.power;
+  if (p.weberSlope === null || r.bases.length < 2) return 'With a single base price the Weber view cannot say how thresholds change with price; test at least two base prices.';
+  const ci = p.weberSlopeCi;
+  const includes = (v: number) => ci !== null && ci[0] <= v && v <= ci[1];
+  const slopeText = `Weber slope ${num(p.weberSlope)}${ci ? `, 95 % interval ${num(ci[0])} to ${num(ci[1])}` : ''}`;
+  const lo = r.bases[0], hi = r.bases[r.bases.length - 1];
+  if (r.preferredModel === 'weber' || includes(1)) {
+    return `One percentage rule fits this category: a discount of about ${pct(r.models.weber.weberFraction)} of the base price is noticed at every price tested (${slopeText}).`;
+  }
+  if (r.preferredModel === 'constantAmount' || includes(0)) {
+    return `One amount fits this category: about ${currencyFmt(r.models.constantAmount.amount)} off is noticed whatever the base price, so percentages can fall as prices rise (${slopeText}).`;
+  }
+  if (p.weberSlope < 1) {
+    return `Deeper percentages are needed on cheap items: use tiers, from about ${pct(lo.threshold.fraction)} at ${currencyFmt(lo.basePrice)} down to about ${pct(hi.threshold.fraction)} at ${currencyFmt(hi.basePrice)} (${slopeText}).`;
+  }
+  return `Deeper percentages are needed on expensive items: use tiers, from about ${pct(lo.threshold.fraction)} at ${currencyFmt(lo.basePrice)} up to about ${pct(hi.threshold.fraction)} at ${currencyFmt(hi.basePrice)} (${slopeText}).`;
+}
+
+export const REFERENCE_PRICE_CAUTION =
+  'Price claims: a "was / now" or "save x %" claim must use a genuine former price. Reference-price rules differ by country ' +
+  '(for example the US Federal Trade Commission\'s Guides Against Deceptive Pricing, 16 CFR Part 233, and the EU rule that an ' +
+  'announced price reduction refers to the lowest price of the prior 30 days, Directive 98/6/EC Art. 6a); local law and counsel decide.';
+
+export function fitCautions(r: AnalysisReport, poorFit: boolean): string[] {
+  const out = ['Thresholds are estimates from a sample: read them with their intervals.'];
+  if (poorFit) out.push('At least one curve is a poor fit (see the verdicts): treat its threshold with care.');
+  if (r.bases.some((b) => b.overdispersed)) out.push('Respondents differ more than one curve describes (overdispersion); affected intervals were widened.');
+  out.push(...r.warnings);
+  out.push(REFERENCE_PRICE_CAUTION);
+  return out;
+}
+
+/** Wilson score interval for k of n at 95 % (the whiskers on observed notice rates). */
+export function wilson(k: number, n: number, z = 1.959964): [number, number] {
+  if (n === 0) return [0, 1];
+  const p = k / n, z2 = z * z;
+  const centre = (p + z2 / (2 * n)) / (1 + z2 / n);
+  const half = (z * Math.sqrt((p * (1 - p)) / n + z2 / (4 * n * n))) / (1 + z2 / n);
+  return [Math.max(0, centre - half), Math.min(1, centre + half)];
+}
