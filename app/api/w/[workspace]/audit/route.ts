@@ -1,0 +1,8 @@
+import { NextResponse } from 'next/server';
+import { workspaceRoute } from '@/lib/server/api';
+import { listAuditEvents } from '@/lib/server/audit-trail';
+
+export const GET = workspaceRoute('owner', async (req, ctx) => {
+  const page = Number(req.nextUrl.searchParams.get('page') ?? 1);
+  return NextResponse.json(await listAuditEvents(ctx, page));
+});
