@@ -1,0 +1,60 @@
+'use client';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
+import { linksQuery, studyApi } from '@/lib/queries/studies';
+import { fetchJson } from '@/lib/fetch-json';
+import type { StudyLinkDto } from '@/lib/server/study-links';
+import { CopyButton } from './copy-button';
+import { NewLinkForm } from './new-link-form';
+
+export function LinksManager({ slug, studyId, initial, canManage }: { slug: string; studyId: string; initial: StudyLinkDto[]; canManage: boolean }) {
+  const qc = useQueryClient();
+  const q = linksQuery(slug, studyId);
+  const { data: links = initial } = useQuery({ ...q, initialData: initial });
+  const refresh = () => qc.invalidateQueries({ queryKey: q.queryKey });
+  const close = async (l: StudyLinkDto) => {
+    if (!window.confirm(`Close the link for “${l.source}”? New respondents will be told it is closed; this cannot be undone.`)) return;
+    await fetchJson(`${studyApi(slug, studyId)}/links/${l.id}`, { method: 'PATCH', body: JSON.stringify({ closed: true }) });
+    await refresh();
+  };
+  return (
+    <div className="space-y-6">
+      {links.length === 0 ? (
+        <p className="card p-6 text-center text-sm text-muted">No links yet. {canManage ? 'Add one below: one per source, such as a newsletter, a panel or a printed QR code.' : ''}</p>
+      ) : (
+        <div className="card overflow-x-auto">
+          <table className="table" data-testid="links-table">
+            <thead>
+              <tr><th>Source</th><th>Link</th><th>QR code</th><th className="n">Quota</th><th className="n">Completes</th><th>Panel id</th><th>State</th>{canManage ? <th><span className="sr-only">Actions</span></th> : null}</tr>
+            </thead>
+            <tbody>
+              {links.map((l) => {
+                const qr = `${studyApi(slug, studyId)}/links/${l.id}/qr`;
+                return (
+                  <tr key={l.id} data-testid="link-row">
+                    <td className="font-semibold">{l.source}</td>
+                    <td className="max-w-[22rem]">
+                      <code className="num block break-all text-xs" data-testid="link-url">{l.url}</code>
+                      <CopyButton text={l.url} />
+                    </td>
+                    <td>
+                      <a href={qr} download={`qr-${l.source.replace(/\W+/g, '-')}.png`} title="Download the QR code">
+                        {/* eslint-disable-next-line @next/next/no-img-element -- a generated PNG from our own route */}
+                        <img src={qr} alt={`QR code for the ${l.source} link`} width={72} height={72} className="border border-rule" />
+                      </a>
+                    </td>
+                    <td className="n">{l.quota ?? '—'}</td>
+                    <td className="n">{l.completes}{l.quota ? ` / ${l.quota}` : ''}</td>
+                    <td>{l.acceptsPid ? 'Passed through (?pid=)' : 'Not used'}</td>
+                    <td>{l.closedAt ? <span className="pill text-muted">■ Closed</span> : <span className="pill text-moss">● Open</span>}</td>
+                    {canManage ? <td>{l.closedAt ? null : <button type="button" className="btn btn-danger !min-h-0 !py-1" onClick={() => close(l)}>Close</button>}</td> : null}
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
+      )}
+      {canManage ? <NewLinkForm slug={slug} studyId={studyId} onCreated={refresh} /> : null}
+    </div>
+  );
+}

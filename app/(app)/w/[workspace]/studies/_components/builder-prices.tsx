@@ -1,0 +1,36 @@
+'use client';
+import { Controller } from 'react-hook-form';
+import { errorAt, Section, type BuilderForm } from './form-bits';
+import { StringList } from './string-list';
+import { LadderEditor } from './ladder-editor';
+
+export function BuilderPrices({ form }: { form: BuilderForm }) {
+  const errors = form.formState.errors;
+  return (
+    <>
+      <Section title="Base prices" intro="The regular prices the item is shown at; each is tested on the whole ladder.">
+        <Controller
+          control={form.control}
+          name="basePrices"
+          render={({ field }) => (
+            <StringList
+              name="basePrices"
+              label="Base price"
+              values={((field.value as unknown[]) ?? []).map((v) => String(v ?? ''))}
+              onChange={field.onChange}
+              errorFor={(i) => errorAt(errors, `basePrices.${i}`)}
+              listError={errorAt(errors, 'basePrices')}
+              addLabel="Add a base price"
+              max={12}
+              inputMode="decimal"
+              hint="Up to 12, each above zero and only once; use a point for decimals."
+            />
+          )}
+        />
+      </Section>
+      <Section title="Discount ladder" intro="The discount depths (rungs) tested at each base price.">
+        <LadderEditor form={form} />
+      </Section>
+    </>
+  );
+}
