@@ -10,6 +10,8 @@ export type ErrorCode =
   | 'gone'
   | 'payload_too_large'
   | 'rate_limited'
+  | 'study_full'
+  | 'already_taken_part'
   | 'internal';
 
 export interface FieldIssue {

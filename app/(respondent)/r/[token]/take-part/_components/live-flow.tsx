@@ -1,0 +1,11 @@
+'use client';
+import { useState } from 'react';
+import type { FlowProps } from '@/components/respondent/respondent-flow';
+import { RespondentFlow } from '@/components/respondent/respondent-flow';
+import { liveDriver } from '@/components/respondent/live-driver';
+
+/** The flow against the real link: the driver (plain fetch) is made in the browser. */
+export function LiveFlow({ token, resumeToken, pid, ...rest }: Omit<FlowProps, 'driver' | 'formAction'> & { token: string; resumeToken: string | null; pid: string | null }) {
+  const [driver] = useState(() => liveDriver(token, resumeToken, pid));
+  return <RespondentFlow {...rest} pid={pid} driver={driver} formAction={`/api/r/${encodeURIComponent(token)}/start`} />;
+}

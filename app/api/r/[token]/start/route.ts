@@ -1,0 +1,39 @@
+import { NextResponse, type NextRequest } from 'next/server';
+import { readJson } from '@/lib/server/api';
+import { AppError } from '@/lib/server/errors';
+import { respondentRoute, resumeTokenFrom, setResumeCookie } from '@/lib/server/respondent-http';
+import { startRespondent, startSchema } from '@/lib/server/respondents';
+import { plainPage } from '@/lib/respondent/plain-page';
+
+/**
+ * POST: agree and start (or resume). JSON from the page's script; a plain form post (the
+ * consent screen before its script has loaded) is answered with a redirect to the flow.
+ */
+export const POST = respondentRoute(async (req: NextRequest, token: string) => {
+  const secure = req.nextUrl.protocol === 'https:';
+  const isForm = (req.headers.get('content-type') ?? '').includes('application/x-www-form-urlencoded');
+  if (isForm) return formStart(req, token, secure);
+  const input = await readJson(req, startSchema);
+  const out = await startRespondent(token, input, resumeTokenFrom(req));
+  const { studyId, ...body } = out;
+  const res = NextResponse.json(body);
+  setResumeCookie(res, studyId, out.resumeToken, secure);
+  return res;
+});
+
+async function formStart(req: NextRequest, token: string, secure: boolean) {
+  const form = await req.formData();
+  const pid = String(form.get('pid') ?? '').trim();
+  const flow = new URL(`/r/${encodeURIComponent(token)}/take-part`, req.nextUrl.origin);
+  try {
+    const out = await startRespondent(token, { consent: true, segmentAnswers: {}, ...(pid ? { pid } : {}) }, null);
+    flow.searchParams.set('resume', out.resumeToken);
+    const res = NextResponse.redirect(flow, 303);
+    setResumeCookie(res, out.studyId, out.resumeToken, secure);
+    return res;
+  } catch (err) {
+    if (!(err instanceof AppError) || err.status >= 500) throw err;
+    const title = err.code === 'study_full' ? 'This study is full' : err.code === 'already_taken_part' ? 'You have already taken part' : 'This study is not available';
+    return new Response(plainPage(title, err.message), { status: err.status, headers: { 'content-type': 'text/html; charset=utf-8' } });
+  }
+}

@@ -1,0 +1,15 @@
+import { NextResponse, type NextRequest } from 'next/server';
+import { em } from '@/lib/server/db';
+import { AppError } from '@/lib/server/errors';
+import { respondentRoute, resumeTokenFrom } from '@/lib/server/respondent-http';
+import { openLink } from '@/lib/server/respondent-links';
+import { findByResume, stateOf } from '@/lib/server/respondents';
+
+/** GET: the respondent's next screens (resume after closing the tab). */
+export const GET = respondentRoute(async (req: NextRequest, token: string) => {
+  const db = await em();
+  const link = await openLink(db, token);
+  const r = await findByResume(db, link.studyId, resumeTokenFrom(req, link.studyId));
+  if (!r) throw new AppError(404, 'not_found', 'We could not find your answers. Start from the study link.');
+  return NextResponse.json(await stateOf(db, link, r));
+});
