@@ -1,6 +1,7 @@
 // `npm run db:seed`: loads the demo data. Idempotent: running it again changes nothing.
 import { orm } from '@/lib/server/db';
 import { seedAccounts } from './seed/accounts';
+import { seedDemoPriceList } from './seed/demo-price-list';
 import { seedDemoStudy } from './seed/demo-study';
 
 async function main() {
@@ -8,6 +9,7 @@ async function main() {
   try {
     const db = o.em.fork();
     const workspace = await seedAccounts(db);
+    await seedDemoPriceList(db, workspace.id);
     await seedDemoStudy(db, workspace.id);
     process.stdout.write(`[notchwise] demo data ready (workspace "${workspace.name}")\n`);
   } finally {

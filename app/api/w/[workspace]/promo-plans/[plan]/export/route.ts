@@ -1,0 +1,12 @@
+import { workspaceRoute } from '@/lib/server/api';
+import { AppError } from '@/lib/server/errors';
+import { EXPORT_FORMATS, exportPlan, type ExportFormat } from '@/lib/server/promo-export';
+
+type Params = { workspace: string; plan: string };
+
+/** ?format=csv (the items), about-csv (settings and cautions, the CSV's side file) or json. */
+export const GET = workspaceRoute<Params>('viewer', async (req, ctx, p) => {
+  const format = req.nextUrl.searchParams.get('format') ?? 'csv';
+  if (!(EXPORT_FORMATS as readonly string[]).includes(format)) throw new AppError(422, 'validation_failed', `Unknown format “${format}”; use csv, about-csv or json.`, [{ path: 'format', message: 'Use csv, about-csv or json.' }]);
+  return exportPlan(ctx, p.plan, format as ExportFormat);
+});

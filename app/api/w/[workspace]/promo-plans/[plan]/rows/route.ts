@@ -1,0 +1,16 @@
+import { NextResponse } from 'next/server';
+import { workspaceRoute, zodIssues } from '@/lib/server/api';
+import { AppError } from '@/lib/server/errors';
+import { queryRows, rowQuerySchema } from '@/lib/promo/query-rows';
+import { planTable } from '@/lib/server/promo-table';
+
+type Params = { workspace: string; plan: string };
+
+/** One page of the plan's rows, sorted, filtered by flag and searched by SKU or name. */
+export const GET = workspaceRoute<Params>('viewer', async (req, ctx, p) => {
+  const parsed = rowQuerySchema.safeParse(Object.fromEntries(req.nextUrl.searchParams));
+  if (!parsed.success) throw new AppError(422, 'validation_failed', 'Some query parameters are not valid.', zodIssues(parsed.error));
+  const { rows } = await planTable(ctx, p.plan);
+  const page = queryRows(rows, parsed.data);
+  return NextResponse.json({ ...page, page: parsed.data.page, pageSize: parsed.data.pageSize });
+});
