@@ -100,6 +100,6 @@ export async function seedDemoPriceList(db: EntityManager, workspaceId: string):
     await tx.flush();
     await tx.getConnection().getKnex()('price_list_item')
       .insert(rows.map((r, i) => ({ price_list_id: list.id, row: i + 2, sku: r.sku, name: r.name, regular_price: r.regularPrice, unit_cost: r.unitCost, category: r.category })))
-      .transacting(tx.getTransactionContext());
+      .transacting(tx.getTransactionContext()!);
   });
 }
