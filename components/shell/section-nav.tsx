@@ -2,6 +2,7 @@
 import Link from 'next/link';
 import { usePathname } from 'next/navigation';
 import clsx from 'clsx';
+import type { Role } from '@/lib/roles';
 
 const SECTIONS = [
   { href: '', label: 'Studies' },
@@ -9,14 +10,15 @@ const SECTIONS = [
   { href: '/team', label: 'Team' },
   { href: '/billing', label: 'Billing' },
   { href: '/settings', label: 'Settings' },
+  { href: '/audit', label: 'Audit', ownerOnly: true },
 ];
 
-export function SectionNav({ slug }: { slug: string }) {
+export function SectionNav({ slug, role }: { slug: string; role?: Role }) {
   const path = usePathname();
   const base = `/w/${slug}`;
   return (
     <nav aria-label="Sections" className="flex gap-1 overflow-x-auto text-sm">
-      {SECTIONS.map((s) => {
+      {SECTIONS.filter((s) => !('ownerOnly' in s) || role === 'owner').map((s) => {
         const href = base + s.href;
         const active = s.href === '' ? path === base || path.startsWith(`${base}/studies`) : path.startsWith(href);
         return (

@@ -23,7 +23,7 @@ export default async function WorkspaceLayout({ children, params }: { children: 
           </div>
         </div>
         <div className="mx-auto max-w-6xl px-4">
-          <SectionNav slug={ctx.workspace.slug} />
+          <SectionNav slug={ctx.workspace.slug} role={ctx.role} />
         </div>
       </header>
       <main className="mx-auto max-w-6xl px-6 py-8">{children}</main>
