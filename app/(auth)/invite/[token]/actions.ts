@@ -1,0 +1,25 @@
+'use server';
+import { actionResult } from '@/lib/server/actions';
+import { AppError } from '@/lib/server/errors';
+import { acceptInvitation, signUpWithInvitation } from '@/lib/server/invitations';
+import { currentUser } from '@/lib/server/session';
+import { startSession } from '@/lib/server/start-session';
+import { inviteSignUpSchema } from '@/lib/schemas/team.schema';
+
+export async function acceptInviteAction(token: string) {
+  return actionResult(async () => {
+    const user = await currentUser();
+    if (!user) throw new AppError(401, 'unauthenticated', 'Sign in first.');
+    const { workspaceSlug } = await acceptInvitation(token, user);
+    return { redirectTo: `/w/${workspaceSlug}` };
+  });
+}
+
+export async function inviteSignUpAction(token: string, input: unknown) {
+  return actionResult(async () => {
+    const data = inviteSignUpSchema.parse(input);
+    const { workspaceSlug, email } = await signUpWithInvitation(token, data);
+    await startSession(email, data.password);
+    return { redirectTo: `/w/${workspaceSlug}` };
+  });
+}
