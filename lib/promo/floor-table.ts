@@ -41,8 +41,10 @@ export function makePlanCalculator(params: FloorParams, settings: FloorSettings)
     const { fraction, extrapolated } = thresholdAt(params, params.model, item.regularPrice, settings.target);
     const promoPrice = promoPriceAfterEnding(item.regularPrice, fraction, settings.ending);
     const hasCost = item.unitCost !== null;
+    // Fields written out rather than spread: spreads compile to slow helpers on older targets,
+    // which costs seconds over 50,000 rows.
     return {
-      ...item,
+      sku: item.sku, name: item.name, regularPrice: item.regularPrice, unitCost: item.unitCost, category: item.category,
       floorFraction: fraction,
       floorAmount: fraction * item.regularPrice,
       promoPrice,

@@ -89,7 +89,8 @@ export function parsePriceList(text: string): ParsedPriceList {
     const first = firstRowOfSku.get(result.data.sku);
     if (first !== undefined) add({ row: rowNo, column: 'sku', message: `SKU ${result.data.sku} appears again (first on row ${first}); each SKU only once per list.` });
     else firstRowOfSku.set(result.data.sku, rowNo);
-    rows.push({ ...result.data, row: rowNo });
+    const d = result.data;
+    rows.push({ row: rowNo, sku: d.sku, name: d.name, regular_price: d.regular_price, unit_cost: d.unit_cost, category: d.category });
   }
   const preview = rows.slice(0, PREVIEW_ROWS);
   return { rows: errorCount > 0 ? [] : rows, preview, rowCount, columns: header, errors, errorCount };
