@@ -101,11 +101,16 @@ export function screen(rows: RespondentRow[], rules: ExclusionRules): Screened {
   const counts = emptyCounts();
   const excluded = new Map<string, ExclusionRuleId[]>();
   const kept: RespondentRow[] = [];
+  const allOn: ExclusionRules = {
+    falseAlarms: { ...rules.falseAlarms, enabled: true }, attention: { enabled: true },
+    speeders: { ...rules.speeders, enabled: true }, straightLining: { enabled: true },
+  };
   for (const r of rows) {
     counts.respondents.before++;
     counts.trials.before += r.trials;
+    // byRule counts every rule, on or off, so the panel shows what switching a rule on would do.
+    for (const id of brokenRules(r, allOn)) counts.byRule[id]++;
     const broken = brokenRules(r, rules);
-    for (const id of broken) counts.byRule[id]++;
     if (broken.length) { excluded.set(r.id, broken); continue; }
     kept.push(r);
     counts.respondents.after++;
