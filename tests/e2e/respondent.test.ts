@@ -1,0 +1,78 @@
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { baseUrl, openBrowser, screenshot, signIn } from '../support/browser';
+
+// The study is made through the data layer against the app's database.
+process.env.DATABASE_URL ??= inject('databaseUrl');
+process.env.AUTH_SECRET ??= 'e2e-data-layer-secret-0123456789abcdef';
+
+describe('a respondent completes a study on a phone', () => {
+  let context: BrowserContext;
+  let page: Page;
+  let study: { studyId: string; token: string; workspaceId: string };
+  let before: number;
+  beforeAll(async () => {
+    const { makeLiveStudy, testDesign, balanceOf } = await import('../support/respondent-fixtures');
+    const design = testDesign({ name: 'Pantry oil: phone check', basePrices: [2.49, 9.99, 49], ladder: [0.03, 0.06, 0.12, 0.24], repetitions: 1, catchShare: 0.2, practiceTrials: 2, viewMs: 400 });
+    study = await makeLiveStudy('harbourline', { design });
+    before = await balanceOf(study.workspaceId);
+    ({ context, page } = await openBrowser({ phone: true }));
+  });
+  afterAll(async () => {
+    await context?.close();
+    const { orm } = await import('@/lib/server/db');
+    await (await orm()).close(true);
+  });
+
+  it('consent → segment question → practice → trials → thank you', async () => {
+    await page.goto(`${baseUrl()}/r/${study.token}`);
+    await page.waitForURL(/\/take-part/);
+    await expect.poll(() => page.getByText('No names or e-mail addresses are stored.').count()).toBe(1);
+    expect(await page.getByText(/kept for 365 days/).count()).toBe(1);
+    await screenshot(page, 'respondent-consent');
+    await page.getByRole('button', { name: 'I agree, start' }).click();
+    await page.getByRole('button', { name: '2', exact: true }).click();
+
+    let trials = 0;
+    let shot = false;
+    for (let i = 0; i < 200 && !(await page.getByTestId('thanks').count()); i++) {
+      const trial = page.getByTestId('trial');
+      if (!(await trial.count())) { await page.waitForTimeout(100); continue; }
+      if ((await trial.getAttribute('data-kind')) === 'attention') {
+        await page.getByRole('button', { name: 'Often' }).click();
+      } else {
+        if (!shot && (await trial.getAttribute('data-kind')) === 'trial') {
+          await page.locator('[data-phase="view"]').waitFor();
+          await screenshot(page, 'respondent-trial');
+          shot = true;
+        }
+        // Tags are hidden before the choice appears: never two plain prices with the buttons.
+        const left = page.getByRole('button', { name: 'Left', exact: true });
+        await left.waitFor();
+        expect(await page.getByTestId('price-tag').count()).toBe(0);
+        await left.click();
+      }
+      trials++;
+    }
+    await page.getByTestId('thanks').waitFor();
+    expect(trials).toBe(18); // 2 practice + 12 test + 3 catch + 1 attention
+    expect(shot).toBe(true);
+  });
+
+  it('reopening the link after completing shows the thank-you page again', async () => {
+    await page.goto(`${baseUrl()}/r/${study.token}`);
+    await page.getByTestId('thanks').waitFor();
+  });
+
+  it('the analyst sees 1 complete and one seat fewer', async () => {
+    const { context: c2, page: p2 } = await openBrowser();
+    try {
+      await signIn(p2, 'analyst@harbourline.example', 'harbour-demo-2026');
+      await p2.goto(`${baseUrl()}/w/harbourline/studies/${study.studyId}`);
+      await expect.poll(() => p2.getByTestId('completes').textContent(), { timeout: 20_000 }).toBe('1');
+      expect(Number(await p2.getByTestId('seats-left').textContent())).toBe(before - 1);
+    } finally {
+      await c2.close();
+    }
+  });
+});
