@@ -4,6 +4,7 @@ import { PATCH, DELETE } from '@/app/api/w/[workspace]/team/[member]/route';
 import { GET as audit } from '@/app/api/w/[workspace]/audit/route';
 import { em } from '@/lib/server/db';
 import { Membership } from '@/entities/membership';
+import { AuditEvent } from '@/entities/audit-event';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import type { SessionUser } from '@/lib/server/session';
 
@@ -80,5 +81,18 @@ describe('team: roles, removal and the last-owner rule', () => {
     expect(page.events[1]).toMatchObject({ target: viewer.email, actor: { email: ws.owner.email }, detail: { from: 'viewer', to: 'analyst' } });
     signInAs(await makeMember(ws.slug, 'analyst'));
     expect((await callRoute(audit, { params: { workspace: ws.slug } })).status).toBe(403);
+  });
+
+  it("the audit trail includes its members' sign-ins but not outsiders'", async () => {
+    const ws = await makeWorkspace();
+    const outsider = (await makeWorkspace()).owner;
+    const db = await em();
+    db.create(AuditEvent, { workspace: null, actor: ws.owner.id, action: 'auth.sign_in', target: ws.owner.email });
+    db.create(AuditEvent, { workspace: null, actor: outsider.id, action: 'auth.sign_in', target: outsider.email });
+    await db.flush();
+    signInAs(ws.owner);
+    const page = await (await callRoute(audit, { params: { workspace: ws.slug } })).json();
+    const signIns = page.events.filter((e: { action: string }) => e.action === 'auth.sign_in');
+    expect(signIns.map((e: { target: string }) => e.target)).toEqual([ws.owner.email]);
   });
 });
