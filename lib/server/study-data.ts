@@ -65,7 +65,7 @@ export interface RespondentRow extends RespondentQuality {
   trials: number;
 }
 
-/** Per finished respondent: what the exclusion rules judge. */
+/** Per finished respondent: what the exclusion rules judge. A response time of 0 means not recorded (imports). */
 export async function respondentRows(db: EntityManager, studyId: string): Promise<RespondentRow[]> {
   const rows: Record<string, unknown>[] = await db.execute(
     `select r.id, r.segment_answers, r.attention_passed,
@@ -73,7 +73,7 @@ export async function respondentRows(db: EntityManager, studyId: string): Promis
             coalesce(sum(t.answer) filter (where t.kind = 'catch'), 0)::int as catch_k,
             count(t.id) filter (where t.kind = 'test')::int as test_n,
             coalesce(sum(t.answer) filter (where t.kind = 'test'), 0)::int as test_k,
-            percentile_cont(0.5) within group (order by t.response_ms) filter (where t.kind in ('test', 'catch')) as median_ms
+            percentile_cont(0.5) within group (order by t.response_ms) filter (where t.kind in ('test', 'catch') and t.response_ms > 0) as median_ms
        from respondent r left join trial t on t.respondent_id = r.id and t.kind in ('test', 'catch')
       where r.study_id = ? and r.state in ('completed', 'imported')
       group by r.id order by r.started_at, r.id`,

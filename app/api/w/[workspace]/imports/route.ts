@@ -1,0 +1,14 @@
+import { workspaceRoute, zodIssues } from '@/lib/server/api';
+import { AppError } from '@/lib/server/errors';
+import { importNewStudy, readUpload } from '@/lib/server/imports';
+import { importedStudySchema } from '@/lib/schemas/import.schema';
+
+/** Creates a study of state "imported" from a minimal design plus the uploaded responses (one transaction). */
+export const POST = workspaceRoute('analyst', async (req, ctx) => {
+  const { text, fields } = await readUpload(req);
+  const design = importedStudySchema.safeParse(fields);
+  if (!design.success) throw new AppError(422, 'validation_failed', 'Some fields are not valid.', zodIssues(design.error));
+  const dryRun = req.nextUrl.searchParams.get('dryRun') === '1';
+  const result = await importNewStudy(ctx, design.data, text, dryRun);
+  return Response.json(result, { status: result.check.ok ? (dryRun ? 200 : 201) : 422 });
+});
