@@ -1,0 +1,40 @@
+import { createColumnHelper } from '@tanstack/react-table';
+import type { FloorRow } from '@/lib/promo/floor-table';
+import { FLAGS, rowFlags } from '@/lib/promo/flags';
+import { formatMoney, formatPct } from '@/lib/promo/format';
+
+const col = createColumnHelper<FloorRow>();
+const numeric = { numeric: true };
+
+/** Headers carry their units; flags are a shape plus a word, never colour alone. */
+export function planColumns(currency: string, locale: string) {
+  const money = (v: number | null) => formatMoney(v, currency, locale);
+  return [
+    col.accessor('sku', { header: 'SKU', cell: (c) => <span className="num">{c.getValue()}</span> }),
+    col.accessor('name', { header: 'Name' }),
+    col.accessor('category', { header: 'Category', cell: (c) => c.getValue() ?? '—' }),
+    col.accessor('regularPrice', { header: `Regular price (${currency})`, cell: (c) => money(c.getValue()), meta: numeric }),
+    col.accessor('floorFraction', { header: 'Promo floor (% off)', cell: (c) => formatPct(c.getValue()), meta: numeric }),
+    col.accessor('floorAmount', { header: `Promo floor (${currency} off)`, cell: (c) => money(c.getValue()), meta: numeric }),
+    col.accessor('promoPrice', { header: `Promo price (${currency})`, cell: (c) => <span className="font-semibold">{money(c.getValue())}</span>, meta: numeric }),
+    col.accessor('marginBefore', { header: `Margin before (${currency}/unit)`, cell: (c) => money(c.getValue()), meta: numeric }),
+    col.accessor('marginAfter', {
+      header: `Margin after (${currency}/unit)`,
+      cell: (c) => { const v = c.getValue(); return <span className={v !== null && v < 0 ? 'text-brick' : undefined}>{money(v)}</span>; },
+      meta: numeric,
+    }),
+    col.display({
+      id: 'flags',
+      header: 'Flags',
+      cell: (c) => (
+        <span className="flex flex-wrap gap-1">
+          {rowFlags(c.row.original).map((k) => (
+            <span key={k} className={`pill ${k === 'outsideRange' ? 'text-amber' : 'text-brick'}`} title={FLAGS[k].explain}>
+              <span aria-hidden>{FLAGS[k].mark}</span>{FLAGS[k].label}
+            </span>
+          ))}
+        </span>
+      ),
+    }),
+  ];
+}

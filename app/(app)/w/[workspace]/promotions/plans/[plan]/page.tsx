@@ -1,0 +1,59 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { requireRole } from '@/lib/server/guards';
+import { AppError } from '@/lib/server/errors';
+import { planTable } from '@/lib/server/promo-table';
+import { hasRole } from '@/lib/roles';
+import { PageTitle } from '@/components/ui/page-title';
+import { PromoFloorChart } from '@/components/charts/promo-floor-chart';
+import { CautionsPanel, PoorFitBanner } from '../../_components/cautions-panel';
+import { DeleteButton } from '../../_components/delete-button';
+import { PlanFacts } from './_components/plan-facts';
+import { PlanSummaryCard } from './_components/plan-summary';
+import { PlanTable } from './_components/plan-table';
+
+export const metadata: Metadata = { title: 'Promotion plan' };
+
+export default async function PlanPage({ params }: { params: Promise<{ workspace: string; plan: string }> }) {
+  const { workspace, plan: planId } = await params;
+  const ctx = await requireRole(workspace, 'viewer');
+  const table = await planTable(ctx, planId).catch((err: unknown) => {
+    if (err instanceof AppError && err.status === 404) notFound();
+    throw err;
+  });
+  const { plan, summary, chart } = table;
+  const api = `/api/w/${ctx.workspace.slug}/promo-plans/${plan.id}`;
+  const currency = plan.priceList.currency;
+  return (
+    <>
+      <PageTitle title={plan.name}>
+        <a className="btn" href={`${api}/export?format=csv`} download>Download CSV</a>
+        <a className="btn" href={`${api}/export?format=about-csv`} download>About this plan (CSV)</a>
+        <a className="btn" href={`${api}/export?format=json`} download>Download JSON</a>
+        {hasRole(ctx.role, 'analyst') ? (
+          <DeleteButton url={api} what={`plan ${plan.name}`} confirmText={`Delete the plan “${plan.name}”?`} after={`/w/${ctx.workspace.slug}/promotions`} />
+        ) : null}
+      </PageTitle>
+      <p className="-mt-3 mb-5 text-sm"><Link href={`/w/${ctx.workspace.slug}/promotions`}>← All promotion plans</Link></p>
+      {plan.poorFit ? <PoorFitBanner /> : null}
+      <div className="grid gap-6 lg:grid-cols-[1fr_19rem]">
+        <div className="min-w-0 space-y-6">
+          <PlanSummaryCard summary={summary} />
+          <figure className="card p-4">
+            <figcaption className="mb-2 text-sm text-muted">
+              Promo floor against regular price. The line is the model’s floor; dots are items at their promo price
+              {chart.itemsShown < chart.itemsTotal ? ` (every ${Math.ceil(chart.itemsTotal / chart.itemsShown)}th of ${chart.itemsTotal.toLocaleString('en-GB')} items)` : ''}; ▽ marks the tested base prices.
+            </figcaption>
+            <PromoFloorChart data={chart} currency={currency} />
+          </figure>
+          <PlanTable slug={ctx.workspace.slug} planId={plan.id} currency={currency} locale={plan.fit.locale} total={summary.items} />
+        </div>
+        <div className="space-y-4">
+          <PlanFacts plan={plan} />
+          <CautionsPanel />
+        </div>
+      </div>
+    </>
+  );
+}

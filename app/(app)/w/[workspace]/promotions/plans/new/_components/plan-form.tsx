@@ -1,0 +1,88 @@
+'use client';
+import { useRouter } from 'next/navigation';
+import { useState } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { promoPlanCreateSchema, TARGET_CHOICES, TARGET_CHOICE_LABELS, type PromoPlanCreate, type PromoPlanCreateInput } from '@/lib/schemas/promo-plan.schema';
+import { PRICE_ENDINGS, PRICE_ENDING_LABELS } from '@/lib/schemas/study.schema';
+import { FLOOR_MODELS, FLOOR_MODEL_LABELS } from '@/lib/promo/model-choice';
+import { TextField } from '@/components/ui/text-field';
+
+interface StudyOption { id: string; name: string; currency: string; basePrices: number[]; segmentQuestions: { id: string; text: string; options: string[] }[] }
+interface ListOption { id: string; name: string; currency: string; itemCount: number }
+
+const SEP = '\u241F';
+
+function Select({ id, label, error, hint, children, ...rest }: { id: string; label: string; error?: string; hint?: string; children: React.ReactNode } & React.SelectHTMLAttributes<HTMLSelectElement>) {
+  return (
+    <div className="field">
+      <label htmlFor={id}>{label}</label>
+      <select id={id} className="input" aria-invalid={error ? 'true' : 'false'} {...rest}>{children}</select>
+      {error ? <span className="field-error" role="alert">{error}</span> : hint ? <span className="hint">{hint}</span> : null}
+    </div>
+  );
+}
+
+export function PlanForm({ slug, studies, lists }: { slug: string; studies: StudyOption[]; lists: ListOption[] }) {
+  const router = useRouter();
+  const [status, setStatus] = useState<{ kind: 'pending' | 'error'; text: string } | null>(null);
+  const first = studies[0];
+  const { register, handleSubmit, setError, setValue, control, formState } = useForm<PromoPlanCreateInput, unknown, PromoPlanCreate>({
+    resolver: zodResolver(promoPlanCreateSchema),
+    defaultValues: { name: '', studyId: first.id, priceListId: (lists.find((l) => l.currency === first.currency) ?? lists[0]).id, segment: null, model: 'preferred', target: 'mid-point', ending: 'ends-99' },
+  });
+  const studyId = useWatch({ control, name: 'studyId' });
+  const segment = useWatch({ control, name: 'segment' });
+  const study = studies.find((s) => s.id === studyId) ?? first;
+  const err = formState.errors;
+
+  const submit = handleSubmit(async (values) => {
+    setStatus(null);
+    const res = await fetch(`/api/w/${slug}/promo-plans`, { method: 'POST', headers: { 'content-type': 'application/json', accept: 'application/json' }, body: JSON.stringify(values) });
+    const body = await res.json().catch(() => null);
+    if (res.status === 201) {
+      router.push(`/w/${slug}/promotions/plans/${body.plan.id}`);
+      return;
+    }
+    if (res.status === 202) return setStatus({ kind: 'pending', text: body.message });
+    const issues: { path: string; message: string }[] = body?.error?.issues ?? [];
+    for (const i of issues) setError(i.path as keyof PromoPlanCreateInput, { message: i.message });
+    setStatus({ kind: 'error', text: body?.error?.message ?? `Could not create the plan (${res.status}).` });
+  });
+
+  return (
+    <form onSubmit={submit} noValidate className="card grid max-w-3xl gap-4 p-5 sm:grid-cols-2">
+      <div className="sm:col-span-2"><TextField label="Plan name" registration={register('name')} error={err.name?.message} /></div>
+      <Select id="f-studyId" label="Fitted study" error={err.studyId?.message} {...register('studyId', { onChange: () => setValue('segment', null) })}>
+        {studies.map((s) => <option key={s.id} value={s.id}>{s.name} ({s.currency})</option>)}
+      </Select>
+      <Select id="f-segment" label="Respondents" hint={`Tested base prices: ${study.basePrices.join(' · ')} ${study.currency}`}
+        value={segment ? `${segment.questionId}${SEP}${segment.answer}` : ''}
+        onChange={(e) => { const [questionId, answer] = e.target.value.split(SEP); setValue('segment', e.target.value ? { questionId, answer } : null); }}>
+        <option value="">All respondents</option>
+        {study.segmentQuestions.map((q) => (
+          <optgroup key={q.id} label={q.text}>
+            {q.options.map((o) => <option key={o} value={`${q.id}${SEP}${o}`}>{o}</option>)}
+          </optgroup>
+        ))}
+      </Select>
+      <Select id="f-priceListId" label="Price list" error={err.priceListId?.message} {...register('priceListId')}>
+        {lists.map((l) => <option key={l.id} value={l.id}>{l.name} ({l.itemCount.toLocaleString('en-GB')} items, {l.currency})</option>)}
+      </Select>
+      <Select id="f-model" label="Model" error={err.model?.message} {...register('model')}>
+        <option value="preferred">The study’s preferred model (from its model comparison)</option>
+        {FLOOR_MODELS.map((m) => <option key={m} value={m}>{FLOOR_MODEL_LABELS[m]}</option>)}
+      </Select>
+      <Select id="f-target" label="Target notice rate" error={err.target?.message} hint="The share of shoppers who should notice the saving." {...register('target')}>
+        {TARGET_CHOICES.map((t) => <option key={t} value={t}>{TARGET_CHOICE_LABELS[t]}</option>)}
+      </Select>
+      <Select id="f-ending" label="Price ending" error={err.ending?.message} hint="The promo price is rounded down to it, so the discount only gets deeper." {...register('ending')}>
+        {PRICE_ENDINGS.map((e) => <option key={e} value={e}>{PRICE_ENDING_LABELS[e]}</option>)}
+      </Select>
+      <div className="flex flex-wrap items-center gap-3 sm:col-span-2">
+        <button type="submit" className="btn btn-primary" disabled={formState.isSubmitting}>{formState.isSubmitting ? 'Working…' : 'Create plan'}</button>
+        {status ? <span role={status.kind === 'error' ? 'alert' : 'status'} className={status.kind === 'error' ? 'field-error' : 'text-sm text-muted'} data-testid="plan-status">{status.text}</span> : null}
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,35 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { requireRole } from '@/lib/server/guards';
+import { listFittableStudies } from '@/lib/server/analysis';
+import { listPriceLists } from '@/lib/server/price-lists';
+import { PageTitle } from '@/components/ui/page-title';
+import { EmptyState } from '@/components/ui/empty-state';
+import { PlanForm } from './_components/plan-form';
+
+export const metadata: Metadata = { title: 'New promotion plan' };
+
+export default async function NewPlanPage({ params }: { params: Promise<{ workspace: string }> }) {
+  const { workspace } = await params;
+  const ctx = await requireRole(workspace, 'analyst');
+  const [studies, lists] = await Promise.all([listFittableStudies(ctx), listPriceLists(ctx)]);
+  const base = `/w/${ctx.workspace.slug}/promotions`;
+  return (
+    <>
+      <PageTitle title="New promotion plan" />
+      {!studies.length || !lists.length ? (
+        <EmptyState title={!lists.length ? 'Upload a price list first' : 'No fitted study yet'}>
+          {!lists.length
+            ? <>A plan needs a price list. <Link href={`${base}/price-lists/new`}>Upload one</Link>.</>
+            : 'A plan needs a study with finished respondents, whose fit gives the notice thresholds.'}
+        </EmptyState>
+      ) : (
+        <PlanForm
+          slug={ctx.workspace.slug}
+          studies={studies.map((s) => ({ id: s.id, name: s.name, currency: s.currency, basePrices: s.basePrices, segmentQuestions: s.segmentQuestions }))}
+          lists={lists.map((l) => ({ id: l.id, name: l.name, currency: l.currency, itemCount: l.itemCount }))}
+        />
+      )}
+    </>
+  );
+}
