@@ -1,0 +1,71 @@
+import type { Metadata } from 'next';
+import { notFound } from 'next/navigation';
+import { connection } from 'next/server';
+import { requireRole } from '@/lib/server/guards';
+import { AppError } from '@/lib/server/errors';
+import { getFitState, isPoorFit } from '@/lib/server/analysis';
+import { describeRules } from '@/lib/schemas/exclusions.schema';
+import { fitCautions } from '@/lib/results-text';
+import { TASK_LABELS } from '@/lib/schemas/study.schema';
+import { BaseCurves } from '../_components/base-curves';
+import { WeberSection } from '../_components/weber-section';
+import { PrintButton } from './print-button';
+
+export const metadata: Metadata = { title: 'Results report' };
+
+// Print stylesheet for this page only: no app chrome, no buttons, charts kept whole on a page.
+const PRINT_CSS = `
+@media print {
+  @page { size: A4; margin: 14mm; }
+  body > div > header, .print-hide { display: none !important; }
+  main { max-width: none !important; padding: 0 !important; }
+  .card { border-color: #bbb !important; }
+  .print-avoid-break, figure, table { break-inside: avoid; }
+  h2 { break-after: avoid; }
+  a { color: inherit; text-decoration: none; }
+}`;
+
+export default async function PrintPage({ params }: { params: Promise<{ workspace: string; study: string }> }) {
+  await connection();
+  const { workspace, study } = await params;
+  const ctx = await requireRole(workspace, 'viewer');
+  const state = await getFitState(ctx, study).catch((e) => {
+    if (e instanceof AppError && e.status === 404) notFound();
+    throw e;
+  });
+  const s = state.study;
+  const money = new Intl.NumberFormat(s.locale, { style: 'currency', currency: s.currency });
+  const generated = new Date().toLocaleString('en-GB', { dateStyle: 'long', timeStyle: 'short' });
+  return (
+    <article className="space-y-8">
+      <style>{PRINT_CSS}</style>
+      <header className="border-b border-rule pb-3">
+        <p className="text-sm text-muted">Notchwise results report · {ctx.workspace.name}</p>
+        <h1 className="text-3xl">{s.name}</h1>
+        <p className="text-sm">{s.itemName} · {s.category} · {TASK_LABELS[s.task]} · prices in {s.currency} · data version {s.dataVersion} · generated {generated}</p>
+        <div className="print-hide mt-2"><PrintButton /></div>
+      </header>
+      {state.fit.status !== 'ready' ? (
+        <>
+          <meta httpEquiv="refresh" content="3" />
+          <p role="status" className="card p-4">{state.fit.message} This page reloads by itself.</p>
+        </>
+      ) : (
+        <>
+          <section>
+            <h2 className="text-xl">Data and rules</h2>
+            <p className="text-sm">Respondents {state.counts!.respondents.before} before rules, {state.counts!.respondents.after} after; trials {state.counts!.trials.before} before, {state.counts!.trials.after} after.</p>
+            <ul className="list-disc pl-5 text-sm">{describeRules(s.exclusionRules).map((r) => <li key={r}>{r}</li>)}</ul>
+            <p className="text-sm">Intervals: {state.fit.report.intervalMethod}.</p>
+          </section>
+          <BaseCurves report={state.fit.report} cells={state.cells!.cells} money={money} width={330} />
+          <WeberSection report={state.fit.report} currency={s.currency} money={money} width={420} />
+          <section className="print-avoid-break">
+            <h2 className="text-xl">Cautions</h2>
+            <ul className="list-disc pl-5 text-sm">{fitCautions(state.fit.report, isPoorFit(state.fit.report)).map((c) => <li key={c}>{c}</li>)}</ul>
+          </section>
+        </>
+      )}
+    </article>
+  );
+}

@@ -1,0 +1,5 @@
+'use client';
+
+export function PrintButton() {
+  return <button type="button" className="btn" onClick={() => window.print()}>Print or save as PDF</button>;
+}
