@@ -4,7 +4,7 @@ import { randomBytes } from 'node:crypto';
 import { ensureCluster, dropDatabase } from './postgres.mjs';
 import { DATA, ROOT, intFromEnv } from './project.mjs';
 import { run } from './run.mjs';
-import { bin, startService, startMailCatcher, startFakeStripe, waitForPort } from './services.mjs';
+import { bin, startService, stopService, startMailCatcher, startFakeStripe, waitForPort } from './services.mjs';
 
 export const TEST_PGPORT = intFromEnv('TEST_PGPORT', 54339);
 export const TEST_APP_PORT = intFromEnv('TEST_APP_PORT', 3100);

@@ -30,12 +30,15 @@ export function StudyTable({ slug, studies }: { slug: string; studies: StudySumm
     ],
     [slug],
   );
+  // A stable filter array: a fresh one each render makes the table recompute and reset in a loop.
+  const columnFilters = useMemo(() => (state ? [{ id: 'state', value: state }] : []), [state]);
   // The table instance is rebuilt on every render by design; nothing here relies on memoising it.
   // eslint-disable-next-line react-hooks/incompatible-library
   const table = useReactTable({
     data: studies,
     columns,
-    state: { sorting, globalFilter: search, columnFilters: state ? [{ id: 'state', value: state }] : [] },
+    state: { sorting, globalFilter: search, columnFilters },
+    autoResetPageIndex: false,
     onSortingChange: setSorting,
     globalFilterFn: 'includesString',
     getCoreRowModel: getCoreRowModel(),

@@ -13,6 +13,8 @@ import { BuilderRespondent } from './builder-respondent';
 import { BuilderFinish } from './builder-finish';
 import { BuilderSummary } from './builder-summary';
 
+const INVALID = 'Some fields need attention; they are marked in the form.';
+
 interface Props {
   slug: string;
   /** Editing an existing draft; absent for a new study. */
@@ -42,8 +44,10 @@ export function StudyBuilder({ slug, studyId, initial }: Props) {
         setStatus(err instanceof Error ? err.message : 'Could not save the study.');
       }
     },
-    () => setStatus('Some fields need attention; they are marked below.'),
+    () => setStatus(INVALID),
   );
+  // The "fix the marked fields" note goes away once nothing is marked any more.
+  const shown = status === INVALID && Object.keys(form.formState.errors).length === 0 ? null : status;
 
   return (
     <form onSubmit={onSubmit} noValidate className="grid gap-6 lg:grid-cols-[1fr_17rem]" aria-label="Study builder">
@@ -60,7 +64,7 @@ export function StudyBuilder({ slug, studyId, initial }: Props) {
         <button type="submit" className="btn btn-primary w-full" disabled={form.formState.isSubmitting}>
           {studyId ? 'Save draft' : 'Save as draft'}
         </button>
-        {status ? <p role="status" className={status === 'Saved.' ? 'text-sm text-moss' : 'field-error'}>{status}</p> : null}
+        {shown ? <p role="status" className={shown === 'Saved.' ? 'text-sm text-moss' : 'field-error'}>{shown}</p> : null}
         <p className="hint">A draft can be changed freely. Once launched, its design is frozen; duplicate it to change it.</p>
       </div>
     </form>
