@@ -24,3 +24,25 @@ export async function makeSimulatedStudy(workspaceSlug: string, opts: { state?: 
   });
   return { studyId, workspaceId: ws.id };
 }
+
+/** Runs the fit job for the study's current data version and rules (what the worker would do). */
+export async function fitNow(studyId: string, opts: { segment?: { questionId: string; answer: string } | null } = {}) {
+  const { fitCacheKey, runFitJob } = await import('@/lib/server/analysis');
+  const { Study } = await import('@/entities/study');
+  const { toStudyInfo } = await import('@/lib/server/study-data');
+  const db = await em();
+  const s = toStudyInfo(await db.findOneOrFail(Study, { id: studyId }, { refresh: true }));
+  const { cacheKey } = fitCacheKey(s, opts);
+  const { requestComputation } = await import('@/lib/server/analysis-cache');
+  await requestComputation(db, { studyId, kind: 'fit', cacheKey, dataVersion: s.dataVersion, queue: 'analysis', payload: { segment: opts.segment ?? null, target: null } });
+  await runFitJob({ studyId, kind: 'fit', cacheKey, dataVersion: s.dataVersion, segment: opts.segment ?? null, target: null });
+}
+
+/** A multipart body with one file field, as a browser sends it. */
+export async function multipart(text: string | Uint8Array, fields: Record<string, string> = {}) {
+  const fd = new FormData();
+  fd.set('file', new Blob([text as BlobPart], { type: 'text/csv' }), 'responses.csv');
+  for (const [k, v] of Object.entries(fields)) fd.set(k, v);
+  const r = new Response(fd);
+  return { rawBody: new Uint8Array(await r.arrayBuffer()), headers: { 'content-type': r.headers.get('content-type')! } };
+}
