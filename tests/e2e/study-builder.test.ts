@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { baseUrl, openBrowser, screenshot, signIn } from '../support/browser';
+import { TINY_PNG } from '../support/study-fixtures';
 
 const DEMO_PASSWORD = 'harbour-demo-2026';
 /** Server round trips on 2 shared cores can take a few seconds. */
@@ -29,6 +30,8 @@ describe('an analyst builds, launches and shares a study in Chromium', () => {
     await page.getByLabel('Study name').fill(name);
     await page.getByLabel('Item name').fill('Ground coffee, 500 g');
     await page.getByLabel('Item category').fill('Hot drinks');
+    await page.getByLabel('Item picture (optional)').setInputFiles({ name: 'coffee.png', mimeType: 'image/png', buffer: TINY_PNG });
+    await poll(() => page.getByAltText('The item as respondents will see it').count()).toBe(1);
     const before = { trials: await trials(), minutes: await minutes() };
     // Defaults: 3 base prices × 8 rungs × 4 repetitions = 96 test trials + 17 catch + 3 practice + 1 attention.
     expect(before.trials).toBe(117);
@@ -87,6 +90,14 @@ describe('an analyst builds, launches and shares a study in Chromium', () => {
     expect(await page.evaluate(() => navigator.clipboard.readText())).toBe(url);
     await poll(() => page.locator('img[alt^="QR code"]').evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0)).toBe(true);
     await screenshot(page, 'study-links');
+  });
+
+  it('previews the respondent screens without recording a respondent', async () => {
+    await page.goto(`${studyUrl}/preview`);
+    await poll(() => page.getByTestId('respondent-preview').count()).toBe(1);
+    await page.goto(studyUrl);
+    await poll(() => page.getByTestId('in-progress').textContent()).toBe('0');
+    expect(await page.getByTestId('completes').textContent()).toBe('0');
   });
 
   it('the study list finds it by search and by state', async () => {
