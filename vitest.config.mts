@@ -23,6 +23,8 @@ export default defineConfig({
           environment: 'node',
           globalSetup: ['tests/support/global-setup.ts'],
           setupFiles: ['tests/support/integration-setup.ts'],
+          // next-auth imports 'next/server' without an extension, which Node's ESM resolver refuses.
+          server: { deps: { inline: ['next-auth'] } },
           testTimeout: 60_000,
           hookTimeout: 120_000,
           fileParallelism: false,

@@ -18,3 +18,4 @@ export { AnalysisResult } from './analysis-result';
 export { PriceList } from './price-list';
 export { PriceListItem } from './price-list-item';
 export { PromoPlan } from './promo-plan';
+export { RateLimit } from './rate-limit';

@@ -21,6 +21,12 @@ export const envSchema = z.object({
   RUN_WORKER: envBool.default(true),
   /** bcrypt cost; 12 in production, lower only in tests. */
   BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(12),
+  /** Respondent starts per minute from one IP address (a venue's or a panel's NAT shares one). */
+  RATE_LIMIT_RESPONDENT_PER_MIN: z.coerce.number().int().positive().default(6000),
+  /** Respondent answers (and state/complete calls) per minute from one IP address. */
+  RATE_LIMIT_ANSWERS_PER_MIN: z.coerce.number().int().positive().default(120_000),
+  /** Answers per minute of one respondent (a person answers about one a second). */
+  RATE_LIMIT_ANSWERS_PER_RESPONDENT_PER_MIN: z.coerce.number().int().positive().default(600),
 });
 
 export type Env = z.infer<typeof envSchema>;

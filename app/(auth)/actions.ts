@@ -5,6 +5,7 @@ import { signUp } from '@/lib/server/accounts';
 import { actionResult } from '@/lib/server/actions';
 import { AppError } from '@/lib/server/errors';
 import { listWorkspacesByEmail } from '@/lib/server/membership';
+import { actionClientIp, limit } from '@/lib/server/rate-limit';
 import { signInSchema, signUpSchema } from '@/lib/schemas/auth.schema';
 import { safeNextPath } from '@/lib/safe-next';
 
@@ -22,6 +23,9 @@ async function startSession(email: string, password: string) {
 export async function signInAction(input: unknown, next?: string | null) {
   return actionResult(async () => {
     const data = signInSchema.parse(input);
+    const ip = await actionClientIp();
+    await limit('sign-in-ip', ip);
+    await limit('sign-in-email', `${ip}|${data.email.toLowerCase()}`);
     await startSession(data.email, data.password);
     const [first] = await listWorkspacesByEmail(data.email);
     return { redirectTo: safeNextPath(next) ?? (first ? `/w/${first.slug}` : '/') };
@@ -31,6 +35,7 @@ export async function signInAction(input: unknown, next?: string | null) {
 export async function signUpAction(input: unknown) {
   return actionResult(async () => {
     const data = signUpSchema.parse(input);
+    await limit('sign-up-ip', await actionClientIp());
     const { workspaceSlug } = await signUp(data);
     await startSession(data.email, data.password);
     return { redirectTo: `/w/${workspaceSlug}` };

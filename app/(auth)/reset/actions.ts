@@ -2,17 +2,25 @@
 import { actionResult } from '@/lib/server/actions';
 import { completePasswordReset, requestPasswordReset } from '@/lib/server/password-reset';
 import { listWorkspacesByEmail } from '@/lib/server/membership';
+import { actionClientIp, limit } from '@/lib/server/rate-limit';
 import { startSession } from '@/lib/server/start-session';
 import { newPasswordSchema, resetRequestSchema } from '@/lib/schemas/team.schema';
 
 export async function requestResetAction(input: unknown) {
-  return actionResult(async () => ({ message: await requestPasswordReset(resetRequestSchema.parse(input).email) }));
+  return actionResult(async () => {
+    const { email } = resetRequestSchema.parse(input);
+    const ip = await actionClientIp();
+    await limit('reset-ip', ip);
+    await limit('reset-email', email.toLowerCase());
+    return { message: await requestPasswordReset(email) };
+  });
 }
 
 /** Sets the new password (other sessions end) and signs this browser in fresh. */
 export async function completeResetAction(token: string, input: unknown) {
   return actionResult(async () => {
     const { password } = newPasswordSchema.parse(input);
+    await limit('reset-ip', await actionClientIp());
     const { email } = await completePasswordReset(token, password);
     await startSession(email, password);
     const [first] = await listWorkspacesByEmail(email);

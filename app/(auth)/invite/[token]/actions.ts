@@ -2,6 +2,7 @@
 import { actionResult } from '@/lib/server/actions';
 import { AppError } from '@/lib/server/errors';
 import { acceptInvitation, signUpWithInvitation } from '@/lib/server/invitations';
+import { actionClientIp, limit } from '@/lib/server/rate-limit';
 import { currentUser } from '@/lib/server/session';
 import { startSession } from '@/lib/server/start-session';
 import { inviteSignUpSchema } from '@/lib/schemas/team.schema';
@@ -10,6 +11,7 @@ export async function acceptInviteAction(token: string) {
   return actionResult(async () => {
     const user = await currentUser();
     if (!user) throw new AppError(401, 'unauthenticated', 'Sign in first.');
+    await limit('invite-ip', await actionClientIp());
     const { workspaceSlug } = await acceptInvitation(token, user);
     return { redirectTo: `/w/${workspaceSlug}` };
   });
@@ -18,6 +20,7 @@ export async function acceptInviteAction(token: string) {
 export async function inviteSignUpAction(token: string, input: unknown) {
   return actionResult(async () => {
     const data = inviteSignUpSchema.parse(input);
+    await limit('invite-ip', await actionClientIp());
     const { workspaceSlug, email } = await signUpWithInvitation(token, data);
     await startSession(email, data.password);
     return { redirectTo: `/w/${workspaceSlug}` };

@@ -1,6 +1,7 @@
 import { NextResponse, type NextRequest } from 'next/server';
 import { readJson } from '@/lib/server/api';
 import { AppError } from '@/lib/server/errors';
+import { clientIp, limit } from '@/lib/server/rate-limit';
 import { respondentRoute, resumeTokenFrom, setResumeCookie } from '@/lib/server/respondent-http';
 import { startRespondent, startSchema } from '@/lib/server/respondents';
 import { plainPage } from '@/lib/respondent/plain-page';
@@ -10,6 +11,7 @@ import { plainPage } from '@/lib/respondent/plain-page';
  * consent screen before its script has loaded) is answered with a redirect to the flow.
  */
 export const POST = respondentRoute(async (req: NextRequest, token: string) => {
+  await limit('respondent-start-ip', clientIp(req.headers));
   const secure = req.nextUrl.protocol === 'https:';
   const isForm = (req.headers.get('content-type') ?? '').includes('application/x-www-form-urlencoded');
   if (isForm) return formStart(req, token, secure);

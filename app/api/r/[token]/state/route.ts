@@ -1,12 +1,14 @@
 import { NextResponse, type NextRequest } from 'next/server';
 import { em } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
+import { clientIp, limit } from '@/lib/server/rate-limit';
 import { respondentRoute, resumeTokenFrom } from '@/lib/server/respondent-http';
 import { openLink } from '@/lib/server/respondent-links';
 import { findByResume, stateOf } from '@/lib/server/respondents';
 
 /** GET: the respondent's next screens (resume after closing the tab). */
 export const GET = respondentRoute(async (req: NextRequest, token: string) => {
+  await limit('respondent-ip', clientIp(req.headers));
   const db = await em();
   const link = await openLink(db, token);
   const r = await findByResume(db, link.studyId, resumeTokenFrom(req, link.studyId));
