@@ -1,5 +1,5 @@
 import { round, toCsv, type CsvValue } from '@/lib/csv';
-import { CAUTIONS_TITLE, planCautions } from './cautions';
+import { POOR_FIT_WARNING, planCautions } from './cautions';
 import type { FloorRow } from './floor-table';
 import type { PlanSummary } from './summary';
 
@@ -49,7 +49,7 @@ export function planCsv(currency: string, rows: readonly FloorRow[]): string {
   return toCsv(planCsvHeader(currency), body);
 }
 
-/** The side file that travels with the plan CSV: what it was built from, and the cautions. */
+/** The side file that travels with the plan CSV (so the table opens cleanly): what it was built from, and the cautions. */
 export function planAboutCsv(h: PlanExportHeader, generatedAt: string): string {
   const rows: CsvValue[][] = [
     ['Plan', h.plan.name],
@@ -64,9 +64,10 @@ export function planAboutCsv(h: PlanExportHeader, generatedAt: string): string {
     ['Tested base prices', h.testedBasePrices.join(' / ')],
     ['Generated at', generatedAt],
     ['Fit flagged as poor', h.poorFit ? 'yes' : 'no'],
-    ...planCautions(h.poorFit).map((c, i): CsvValue[] => [i === 0 ? CAUTIONS_TITLE : '', c]),
+    ...planCautions(h.poorFit).map((c): CsvValue[] => [c === POOR_FIT_WARNING ? 'Warning' : 'Caution', c]),
   ];
-  return toCsv(['About this plan', ''], rows);
+  // Field,Value rows, as the thresholds export's side file (lib/server/exports.ts) has them.
+  return toCsv(['Field', 'Value'], rows);
 }
 
 export function planJson(h: PlanExportHeader, summary: PlanSummary, rows: readonly FloorRow[], generatedAt: string) {

@@ -102,6 +102,8 @@ describe('plan exports', () => {
     expect(get('Fit version (study data version)')).toBe('7');
     expect(get('Target notice rate')).toBe('75 %');
     expect(get('Fit flagged as poor')).toBe('yes');
+    expect(rows[0]).toEqual(['Field', 'Value']);
+    expect(get('Warning')).toBe(POOR_FIT_WARNING);
     const texts = rows.map((r) => r[1]);
     expect(texts).toContain(POOR_FIT_WARNING);
     for (const c of PRICE_CLAIM_CAUTIONS) expect(texts).toContain(c);
