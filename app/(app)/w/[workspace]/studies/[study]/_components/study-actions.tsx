@@ -44,6 +44,14 @@ export function StudyActions({ slug, studyId, state }: { slug: string; studyId: 
       router.push(`/w/${slug}/studies/${copy.id}/edit`);
     });
 
+  const remove = () =>
+    run(async () => {
+      if (!window.confirm('Delete this draft? It has never been launched, so no answers are lost.')) return;
+      await fetchJson(api, { method: 'DELETE' });
+      router.push(`/w/${slug}`);
+      router.refresh();
+    });
+
   return (
     <>
       {allowedActions(state).map((a) => (
@@ -52,6 +60,7 @@ export function StudyActions({ slug, studyId, state }: { slug: string; studyId: 
         </button>
       ))}
       <button type="button" className="btn" disabled={busy} onClick={duplicate}>Duplicate</button>
+      {state === 'draft' ? <button type="button" className="btn btn-danger" disabled={busy} onClick={remove}>Delete draft</button> : null}
       {error ? <span className="field-error" role="alert">{error}</span> : null}
     </>
   );
