@@ -40,6 +40,8 @@ const tsx = bin('tsx');
 if ((await runLive(tsx, ['scripts/migrate.ts'], { cwd: ROOT, env })) !== 0) fail('Could not apply the migrations.', 'See the message above.');
 if ((await runLive(tsx, ['--conditions=react-server', 'scripts/seed.ts'], { cwd: ROOT, env })) !== 0) fail('Could not load the demo data.', 'See the message above.');
 
+log('building the respondent bundle (vite) ...');
+if ((await runLive(process.execPath, ['scripts/build-respondent.mjs'], { cwd: ROOT, env })) !== 0) fail('The respondent bundle did not build.', 'See the messages above.');
 log('building the app (next build) ...');
 if ((await runLive(bin('next'), ['build'], { cwd: ROOT, env })) !== 0) fail('The build failed.', 'See the messages above.');
 

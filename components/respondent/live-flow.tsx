@@ -1,8 +1,8 @@
 'use client';
 import { useState } from 'react';
-import type { FlowProps } from '@/components/respondent/respondent-flow';
-import { RespondentFlow } from '@/components/respondent/respondent-flow';
-import { liveDriver } from '@/components/respondent/live-driver';
+import type { FlowProps } from './respondent-flow';
+import { RespondentFlow } from './respondent-flow';
+import { liveDriver } from './live-driver';
 
 /** The flow against the real link: the driver (plain fetch) is made in the browser. */
 export function LiveFlow({ token, resumeToken, pid, ...rest }: Omit<FlowProps, 'driver' | 'formAction'> & { token: string; resumeToken: string | null; pid: string | null }) {
