@@ -31,6 +31,8 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
         {analyst && isEditable(study.state) ? <Link className="btn" href={`${base}/edit`}>Edit</Link> : null}
         <Link className="btn" href={`${base}/preview`}>Preview</Link>
         <Link className="btn" href={`${base}/links`}>Links</Link>
+        {study.state !== 'draft' ? <Link className="btn" href={`${base}/results`}>Results</Link> : null}
+        {analyst && (study.state === 'closed' || study.state === 'imported') ? <Link className="btn" href={`${base}/import`}>Import responses</Link> : null}
         {analyst ? <StudyActions slug={ctx.workspace.slug} studyId={study.id} state={study.state} /> : null}
       </nav>
       <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
