@@ -11,6 +11,15 @@ export const MODEL_LABELS: Record<AnalysisReport['preferredModel'], string> = {
 
 export const modelLabel = (m: AnalysisReport['preferredModel']) => MODEL_LABELS[m];
 
+export const MODEL_SHORT: Record<AnalysisReport['preferredModel'], string> = { free: 'Free', weber: 'Weber', constantAmount: 'Constant amount', power: 'Power' };
+
+/** Why the fit as a whole is flagged poor: the bases judged poor, or the preferred joint model's deviance. */
+export function poorFitReason(r: AnalysisReport, jointP: number | null): string {
+  const poor = r.bases.filter((b) => b.verdict === 'poor fit').map((b) => b.basePrice);
+  if (poor.length) return `the curve at base price${poor.length > 1 ? 's' : ''} ${poor.join(', ')} does not describe its data well`;
+  return `the preferred joint model (${MODEL_SHORT[r.preferredModel].toLowerCase()}) leaves more scatter than binomial noise allows (deviance p = ${jointP === null ? '—' : jointP < 0.001 ? '< 0.001' : jointP.toFixed(3)}); respondents differ more than one curve per price describes`;
+}
+
 const pct = (f: number) => `${(f * 100).toFixed(f < 0.1 ? 1 : 0)} %`;
 const num = (x: number, d = 2) => x.toFixed(d);
 

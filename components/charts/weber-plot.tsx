@@ -1,6 +1,6 @@
 'use client';
 import { useContext } from 'react';
-import { Axis, DataContext, GlyphSeries, Grid, LineSeries, XYChart } from '@visx/xychart';
+import { Axis, DataContext, GlyphSeries, LineSeries, XYChart } from '@visx/xychart';
 import type { AnalysisReport } from '@/lib/psychometrics/report-types';
 import { COLORS, chartTheme, formatNumber, logTicks } from './chart-theme';
 
@@ -51,7 +51,6 @@ export function WeberPlot({ report, currency, width = 560, height = 340 }: { rep
     <figure aria-label="Weber view">
       <XYChart width={width} height={height} margin={{ top: 16, right: 16, bottom: 46, left: 62 }} theme={chartTheme}
         xScale={{ type: 'log', domain: [xLo, xHi] }} yScale={{ type: 'log', domain: [yLo, yHi] }}>
-        <Grid numTicks={4} />
         <Axis orientation="bottom" label={`Base price (${currency}, log scale)`} tickValues={logTicks(xLo, xHi, [1, 2, 5])} tickFormat={(v) => formatNumber(Number(v))} />
         <Axis orientation="left" label={`Notice threshold (${currency}, log scale)`} tickValues={logTicks(yLo, yHi, [1, 2, 5])} tickFormat={(v) => formatNumber(Number(v))} />
         <Overlay report={report} refs={refs} lo={yLo} hi={yHi} />

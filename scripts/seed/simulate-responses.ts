@@ -23,7 +23,7 @@ export interface SimParams {
   /** Between-respondent spread of ln threshold (overdispersion, as real panels show). */
   alphaSd: number;
   segment?: { questionId: string; answers: { answer: string; share: number; alphaShift: number }[] };
-  /** Respondents who answer at random (failed attention check), speed through, or press one key. */
+  /** Respondents who fail the attention check, speed through at random, or press one key. */
   careless?: { inattentive: number; speeders: number; straightLiners: number };
   seed: string;
 }
@@ -62,7 +62,9 @@ export function simulateRespondents(p: SimParams): SimRespondent[] {
       const alpha = Math.log(p.refFraction) + (p.weberSlope - 1) * Math.log(s.basePrice / p.refPrice) + offset;
       const pYes = s.kind === 'catch' ? guess : guess + (1 - guess - p.lapse) * logistic(p.beta * (Math.log(s.discount) - alpha));
       let answer: 0 | 1 = rng.next() < pYes ? 1 : 0;
-      if (kind === 'inattentive' || kind === 'speeder') answer = rng.next() < 0.5 ? 1 : 0;
+      // Inattentive respondents answer the price screens plausibly but miss the attention check;
+      // speeders tap at random.
+      if (kind === 'speeder') answer = rng.next() < 0.5 ? 1 : 0;
       if (kind === 'straight') answer = 1;
       const ms = kind === 'speeder' ? 180 + rng.int(150) : Math.round(Math.exp(Math.log(1500) + 0.35 * rng.normal()));
       return { idx: idx + 1, kind: s.kind, basePrice: s.basePrice, discount: s.discount, answer, responseMs: ms };

@@ -4,7 +4,7 @@ import { exportUrl } from '@/lib/queries/results';
 
 type Question = { id: string; text: string };
 
-export function ExportLinks({ slug, studyId, questions }: { slug: string; studyId: string; questions: Question[] }) {
+export function ExportLinks({ slug, studyId, questions, ready }: { slug: string; studyId: string; questions: Question[]; ready: boolean }) {
   const [segment, setSegment] = useState('');
   const u = (f: string, seg = segment) => exportUrl(slug, studyId, f, seg || undefined);
   return (
@@ -19,14 +19,20 @@ export function ExportLinks({ slug, studyId, questions }: { slug: string; studyI
           </select>
         </label>
       ) : null}
+      {!ready ? <p className="hint mb-2">The thresholds and report files are ready once the fit is.</p> : null}
       <ul className="flex flex-wrap gap-2">
-        <li><a className="btn" href={u('thresholds.csv')} download data-testid="export-thresholds-csv">Thresholds (CSV)</a></li>
-        <li><a className="btn" href={u('thresholds-about.csv')} download>About the thresholds (CSV)</a></li>
-        <li><a className="btn" href={u('thresholds.json')} download>Thresholds (JSON)</a></li>
-        <li><a className="btn" href={u('report.json', '')} download>Full fit report (JSON)</a></li>
+        <li><FileLink ready={ready} href={u('thresholds.csv')} testId="export-thresholds-csv">Thresholds (CSV)</FileLink></li>
+        <li><FileLink ready={ready} href={u('thresholds-about.csv')}>About the thresholds (CSV)</FileLink></li>
+        <li><FileLink ready={ready} href={u('thresholds.json')}>Thresholds (JSON)</FileLink></li>
+        <li><FileLink ready={ready} href={u('report.json', '')}>Full fit report (JSON)</FileLink></li>
         <li><a className="btn" href={u('trials.csv', '')} download>Raw trials (CSV)</a></li>
       </ul>
       <p className="hint mt-2">The CSV table opens cleanly in a spreadsheet; its header block (rules in force, model, interval method, data version, cautions) is in the &ldquo;about&rdquo; file. A file still being computed answers &ldquo;try again in a few seconds&rdquo;.</p>
     </section>
   );
+}
+
+function FileLink({ ready, href, testId, children }: { ready: boolean; href: string; testId?: string; children: React.ReactNode }) {
+  if (!ready) return <span className="btn" aria-disabled="true" data-testid={testId} style={{ opacity: 0.55, cursor: 'not-allowed' }}>{children}</span>;
+  return <a className="btn" href={href} download data-testid={testId}>{children}</a>;
 }

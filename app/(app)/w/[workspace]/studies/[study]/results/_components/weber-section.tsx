@@ -1,7 +1,7 @@
 'use client';
 import type { AnalysisReport } from '@/lib/psychometrics/report-types';
 import { WeberPlot } from '@/components/charts/weber-plot';
-import { modelLabel, promotionSentence } from '@/lib/results-text';
+import { MODEL_SHORT, modelLabel, promotionSentence } from '@/lib/results-text';
 
 const MODELS = ['free', 'weber', 'constantAmount', 'power'] as const;
 const pv = (p: number | null) => (p === null ? '—' : p < 0.001 ? '< 0.001' : p.toFixed(3));
@@ -13,7 +13,7 @@ export function WeberSection({ report, currency, money, width }: { report: Analy
     <section aria-labelledby="weber-h" data-testid="weber-view" className="print-avoid-break">
       <h2 id="weber-h" className="mb-1 text-2xl">Weber view</h2>
       <p className="mb-3 max-w-prose text-base" data-testid="promotion-sentence">{promotionSentence(report, (x) => money.format(x))}</p>
-      <div className="grid gap-6 lg:grid-cols-[auto_1fr]">
+      <div className="grid gap-6 xl:grid-cols-[auto_1fr]">
         <div className="card p-4">
           <WeberPlot report={report} currency={currency} width={width} />
           <p className="text-sm">Weber slope <span className="num">{p.weberSlope === null ? '—' : p.weberSlope.toFixed(3)}</span>
@@ -27,7 +27,7 @@ export function WeberSection({ report, currency, money, width }: { report: Analy
             <tbody>
               {MODELS.map((m) => (
                 <tr key={m} className={m === report.preferredModel ? 'font-semibold' : ''}>
-                  <td>{modelLabel(m)}{m === report.preferredModel ? ' ← preferred' : ''}</td>
+                  <td title={modelLabel(m)}>{MODEL_SHORT[m]}{m === report.preferredModel ? ' (preferred)' : ''}<br /><span className="hint">{modelLabel(m).replace(/^[^(]*\(|\)$/g, '')}</span></td>
                   <td className="n">{report.models[m].logLik.toFixed(1)}</td>
                   <td className="n">{report.models[m].k}</td>
                   <td className="n">{report.models[m].aic.toFixed(1)}</td>
