@@ -29,6 +29,10 @@ export interface RespondentRow {
 }
 
 const FULL = () => new AppError(409, 'study_full', 'This study is full. Thank you for your interest.');
+const DONE = () => new AppError(409, 'already_taken_part', 'You have already taken part in this study. Thank you!');
+// A panel id is not a secret (panels often number their members): it never hands out another
+// respondent's resume token, plan or answers. The device that started keeps its resume token.
+const PID_IN_USE = () => new AppError(409, 'already_taken_part', 'This panel id has already started this study on another device or browser. Continue there to finish.');
 
 function toRow(r: Record<string, unknown>): RespondentRow {
   return {
@@ -45,9 +49,9 @@ export async function findByResume(db: EntityManager, studyId: string, resumeTok
   return rows[0] ? { ...toRow(rows[0]), resumeToken } : null;
 }
 
-async function findByPid(db: EntityManager, studyId: string, pid: string) {
-  const found = await db.getConnection().execute<Record<string, unknown>[]>(`${SELECT.replace('select ', 'select resume_token, ')} where study_id = ? and pid = ?`, [studyId, pid]);
-  return found[0] ? { ...toRow(found[0]), resumeToken: String(found[0].resume_token) } : null;
+async function findByPid(db: EntityManager, studyId: string, pid: string): Promise<{ state: string } | null> {
+  const found = await db.getConnection().execute<{ state: string }[]>('select state from respondent where study_id = ? and pid = ?', [studyId, pid]);
+  return found[0] ?? null;
 }
 
 /** Segment answers must cover every question with one of its options; nothing else is kept. */
@@ -83,9 +87,9 @@ export async function startRespondent(token: string, input: StartInput, resumeTo
   const hasAnswers = Object.keys(input.segmentAnswers).length > 0;
   const answers = hasAnswers ? validSegmentAnswers(link.design, input.segmentAnswers) : {};
 
-  let existing = await findByResume(db, link.studyId, resumeToken);
-  if (!existing && pid) existing = await findByPid(db, link.studyId, pid);
+  const existing = await findByResume(db, link.studyId, resumeToken);
   if (existing) return resume(db, link, existing, answers);
+  if (pid) await refuseKnownPid(db, link.studyId, pid);
 
   const seed = newSeed();
   const plan = planFor(link.design, seed);
@@ -102,17 +106,22 @@ export async function startRespondent(token: string, input: StartInput, resumeTo
       );
     });
   } catch (err) {
-    // Two starts with the same panel id at once: the unique (study, pid) lets one in; the other resumes it.
-    const again = pid && (err as { code?: string }).code === '23505' ? await findByPid(db, link.studyId, pid) : null;
-    if (again) return resume(db, link, again, answers);
+    // Two starts with the same panel id at once: the unique (study, pid) lets one in; the other is refused.
+    if (pid && (err as { code?: string }).code === '23505') await refuseKnownPid(db, link.studyId, pid);
     throw err;
   }
   const created = (await findByResume(db, link.studyId, fresh))!;
   return { ...(await stateOf(db, link, created)), resumeToken: fresh, studyId: link.studyId };
 }
 
+/** A start naming a panel id that already took part (or is taking part) without its resume token. */
+async function refuseKnownPid(db: EntityManager, studyId: string, pid: string) {
+  const known = await findByPid(db, studyId, pid);
+  if (known) throw known.state === 'completed' ? DONE() : PID_IN_USE();
+}
+
 async function resume(db: EntityManager, link: LinkInfo, r: RespondentRow & { resumeToken: string }, answers: Record<string, string>) {
-  if (r.state === 'completed' && r.pid) throw new AppError(409, 'already_taken_part', 'You have already taken part in this study. Thank you!');
+  if (r.state === 'completed' && r.pid) throw DONE();
   if (Object.keys(answers).length && needsQuestions(link.design, r) && r.answeredCount === 0) {
     await db.getConnection().execute('update respondent set segment_answers = ?::jsonb, last_seen_at = now() where id = ?', [JSON.stringify(answers), r.id]);
     r = { ...r, segmentAnswers: answers };
