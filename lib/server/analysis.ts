@@ -6,6 +6,7 @@ import { chiSquareP } from '@/lib/psychometrics/chi2';
 import type { AnalysisReport } from '@/lib/psychometrics/report-types';
 import type { Cell, CatchCell, Task } from '@/lib/psychometrics/types';
 import type { ExclusionCounts } from '@/lib/exclusions';
+import { poorFitReason } from '@/lib/results-text';
 import type { ExclusionRules } from '@/lib/schemas/exclusions.schema';
 import { hashKey, latestDone, requestComputation, runCached, type CacheRow, type JobData } from './analysis-cache';
 import { em } from './db';
@@ -47,11 +48,12 @@ export function fitCacheKey(study: Pick<StudyInfo, 'dataVersion' | 'exclusionRul
   return { optionsKey, cacheKey: hashKey({ v: study.dataVersion, optionsKey }) };
 }
 
+const preferredP = (r: AnalysisReport) => chiSquareP(r.models[r.preferredModel].deviance, r.models[r.preferredModel].devianceDf);
+
 /** Any base judged a poor fit, or the preferred joint model's deviance p below 0.05. */
 export function isPoorFit(report: AnalysisReport): boolean {
   if (report.bases.some((b) => b.verdict === 'poor fit')) return true;
-  const m = report.models[report.preferredModel];
-  const p = chiSquareP(m.deviance, m.devianceDf);
+  const p = preferredP(report);
   return p !== null && p < 0.05;
 }
 
@@ -63,6 +65,8 @@ export interface FitState {
   /** While a newer fit computes: the last finished one with the same options. */
   previous: { report: AnalysisReport; counts: ExclusionCounts; cells: Cell[]; catchCells: CatchCell[]; dataVersion: number } | null;
   job: { status: CacheRow<unknown>['status']; since: string } | null;
+  /** Plain words for the poor-fit banner, when the ready fit is flagged. */
+  poorFitWhy?: string | null;
 }
 
 /** The fit with what the results page shows around it (counts, job progress, the previous fit). */
@@ -82,6 +86,7 @@ export async function getFitState(ctx: WorkspaceContext, studyId: string, opts: 
     const r = row.result;
     return {
       ...base, counts: r.counts, cells: { cells: r.cells, catchCells: r.catchCells }, job: { status: 'done', since: row.updatedAt.toISOString() },
+      poorFitWhy: isPoorFit(r.report) ? poorFitReason(r.report, preferredP(r.report)) : null,
       fit: {
         status: 'ready', report: r.report, dataVersion: study.dataVersion, exclusionRules: study.exclusionRules,
         poorFit: isPoorFit(r.report), task: study.task, currency: study.currency, locale: study.locale,

@@ -2,8 +2,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { resultsQuery } from '@/lib/queries/results';
 import { EmptyState } from '@/components/ui/empty-state';
-import { chiSquareP } from '@/lib/psychometrics/chi2';
-import { poorFitReason } from '@/lib/results-text';
 import { BaseCurves } from './base-curves';
 import { WeberSection } from './weber-section';
 import { DataQualityPanel } from './data-quality-panel';
@@ -30,7 +28,7 @@ export function ResultsView({ slug, studyId, canEdit, segmentQuestions }: { slug
       {shown ? (
         <>
           {ready && s.fit.status === 'ready' && s.fit.poorFit ? (
-            <p className="card border-brick p-3 text-sm text-brick" role="note">⚠ Poor fit: {poorFitReason(s.fit.report, chiSquareP(s.fit.report.models[s.fit.report.preferredModel].deviance, s.fit.report.models[s.fit.report.preferredModel].devianceDf))}. Read the intervals with care before planning on these thresholds.</p>
+            <p className="card border-brick p-3 text-sm text-brick" role="note">⚠ Poor fit: {s.poorFitWhy}. Read the intervals with care before planning on these thresholds.</p>
           ) : null}
           <BaseCurves report={shown.report} cells={shown.cells} money={money} />
           <WeberSection report={shown.report} currency={s.study.currency} money={money} />
