@@ -12,7 +12,7 @@ import { COLORS, formatNumber, logTicks } from './chart-theme';
 // tested prices shaded and labelled. Plain (non-animated) visx pieces, drawn once.
 
 const W = 760, H = 320;
-const M = { top: 22, right: 18, bottom: 46, left: 56 };
+const M = { top: 34, right: 18, bottom: 46, left: 56 };
 
 export function PromoFloorChart({ data, currency }: { data: PromoChartData; currency: string }) {
   const prices = [...data.curve.map((c) => c.price), ...data.items.map((i) => i.price)];
@@ -50,7 +50,7 @@ export function PromoFloorChart({ data, currency }: { data: PromoChartData; curr
           label="Promo floor (% off)" stroke={COLORS.muted} tickStroke={COLORS.muted}
           tickLabelProps={{ fill: COLORS.muted, fontSize: 11, fontFamily: 'var(--font-mono), monospace', textAnchor: 'end', dx: -4, dy: 3 }} labelProps={{ fill: COLORS.ink, fontSize: 12, textAnchor: 'middle' }} />
       </Group>
-      <g transform={`translate(${M.left + 8}, ${H - 8})`} fontSize={11} fill={COLORS.ink}>
+      <g transform={`translate(${M.left + 8}, 16)`} fontSize={11} fill={COLORS.ink}>
         <line x1={0} x2={18} y1={-4} y2={-4} stroke={COLORS.teal} strokeWidth={2.2} /><text x={22} y={0}>model floor</text>
         <circle cx={112} cy={-4} r={2.6} fill={COLORS.amber} /><text x={118} y={0}>item at promo price</text>
         <path d="M252,-7.5 l3.5,3.5 l-3.5,3.5 l-3.5,-3.5 Z" fill="none" stroke={COLORS.brick} /><text x={260} y={0}>flagged item</text>

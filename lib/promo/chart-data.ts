@@ -9,7 +9,8 @@ export interface PromoChartData {
   /** Items' discount after the ending rule (a deterministic sample on big lists). */
   items: ChartPoint[];
   testedBasePrices: number[];
-  itemsShown: number;
+  /** Every step-th item is drawn (1 = all); items without a promo price are left out. */
+  step: number;
   itemsTotal: number;
 }
 
@@ -32,5 +33,5 @@ export function promoChartData(params: FloorParams, target: number | undefined, 
     const r = rows[i];
     if (r.discountAfterEnding !== null) items.push({ price: r.regularPrice, discount: r.discountAfterEnding, flagged: r.outsideRange || r.deeperThanMargin });
   }
-  return { curve, items, testedBasePrices: [...testedBasePrices].sort((x, y) => x - y), itemsShown: items.length, itemsTotal: rows.length };
+  return { curve, items, testedBasePrices: [...testedBasePrices].sort((x, y) => x - y), step, itemsTotal: rows.length };
 }

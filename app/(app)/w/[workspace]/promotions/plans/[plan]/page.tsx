@@ -43,16 +43,16 @@ export default async function PlanPage({ params }: { params: Promise<{ workspace
           <figure className="card p-4">
             <figcaption className="mb-2 text-sm text-muted">
               Promo floor against regular price. The line is the model’s floor; dots are items at their promo price
-              {chart.itemsShown < chart.itemsTotal ? ` (every ${Math.ceil(chart.itemsTotal / chart.itemsShown)}th of ${chart.itemsTotal.toLocaleString('en-GB')} items)` : ''}; ▽ marks the tested base prices.
+              {chart.step > 1 ? ` (one in ${chart.step} of ${chart.itemsTotal.toLocaleString('en-GB')} items)` : ''}; ▽ marks the tested base prices.
             </figcaption>
             <PromoFloorChart data={chart} currency={currency} />
           </figure>
-          <PlanTable slug={ctx.workspace.slug} planId={plan.id} currency={currency} locale={plan.fit.locale} total={summary.items} />
-        </div>
-        <div className="space-y-4">
           <PlanFacts plan={plan} />
-          <CautionsPanel />
         </div>
+        <CautionsPanel />
+      </div>
+      <div className="mt-8">
+        <PlanTable slug={ctx.workspace.slug} planId={plan.id} currency={currency} locale={plan.fit.locale} total={summary.items} />
       </div>
     </>
   );

@@ -10,8 +10,8 @@ const numeric = { numeric: true };
 export function planColumns(currency: string, locale: string) {
   const money = (v: number | null) => formatMoney(v, currency, locale);
   return [
-    col.accessor('sku', { header: 'SKU', cell: (c) => <span className="num">{c.getValue()}</span> }),
-    col.accessor('name', { header: 'Name' }),
+    col.accessor('sku', { header: 'SKU', cell: (c) => <span className="num whitespace-nowrap">{c.getValue()}</span> }),
+    col.accessor('name', { header: 'Name', cell: (c) => <span className="inline-block min-w-48">{c.getValue()}</span> }),
     col.accessor('category', { header: 'Category', cell: (c) => c.getValue() ?? '—' }),
     col.accessor('regularPrice', { header: `Regular price (${currency})`, cell: (c) => money(c.getValue()), meta: numeric }),
     col.accessor('floorFraction', { header: 'Promo floor (% off)', cell: (c) => formatPct(c.getValue()), meta: numeric }),
@@ -27,7 +27,7 @@ export function planColumns(currency: string, locale: string) {
       id: 'flags',
       header: 'Flags',
       cell: (c) => (
-        <span className="flex flex-wrap gap-1">
+        <span className="flex gap-1 whitespace-nowrap">
           {rowFlags(c.row.original).map((k) => (
             <span key={k} className={`pill ${k === 'outsideRange' ? 'text-amber' : 'text-brick'}`} title={FLAGS[k].explain}>
               <span aria-hidden>{FLAGS[k].mark}</span>{FLAGS[k].label}

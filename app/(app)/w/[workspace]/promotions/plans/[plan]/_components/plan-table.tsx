@@ -51,7 +51,7 @@ export function PlanTable({ slug, planId, currency, locale, total }: { slug: str
         </div>
       </div>
       {error ? <p role="alert" className="field-error">{error.message}</p> : null}
-      <div className="card overflow-x-auto">
+      <div className="card max-h-[36rem] overflow-auto">
         <table className="table" data-testid="plan-table" aria-busy={isFetching}>
           <thead>
             {table.getHeaderGroups().map((g) => (
@@ -60,7 +60,7 @@ export function PlanTable({ slug, planId, currency, locale, total }: { slug: str
                   const sorted = h.column.getIsSorted();
                   const numeric = (h.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
                   return (
-                    <th key={h.id} className={numeric ? 'n' : undefined} aria-sort={sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined}>
+                    <th key={h.id} className={`sticky top-0 z-10 bg-card ${numeric ? 'n' : ''}`} aria-sort={sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined}>
                       {h.column.getCanSort() ? (
                         <button type="button" className="inline-flex items-center gap-1 font-semibold" onClick={h.column.getToggleSortingHandler()}>
                           {flexRender(h.column.columnDef.header, h.getContext())}
@@ -77,7 +77,7 @@ export function PlanTable({ slug, planId, currency, locale, total }: { slug: str
             {table.getRowModel().rows.map((r) => (
               <tr key={r.original.sku}>
                 {r.getVisibleCells().map((c) => (
-                  <td key={c.id} className={(c.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? 'n' : undefined}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>
+                  <td key={c.id} className={(c.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? 'n whitespace-nowrap' : undefined}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>
                 ))}
               </tr>
             ))}
