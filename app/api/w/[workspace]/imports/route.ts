@@ -1,6 +1,6 @@
 import { workspaceRoute, zodIssues } from '@/lib/server/api';
 import { AppError } from '@/lib/server/errors';
-import { importNewStudy, readUpload } from '@/lib/server/imports';
+import { importNewStudy, importResponse, readUpload } from '@/lib/server/imports';
 import { importedStudySchema } from '@/lib/schemas/import.schema';
 
 /** Creates a study of state "imported" from a minimal design plus the uploaded responses (one transaction). */
@@ -10,5 +10,5 @@ export const POST = workspaceRoute('analyst', async (req, ctx) => {
   if (!design.success) throw new AppError(422, 'validation_failed', 'Some fields are not valid.', zodIssues(design.error));
   const dryRun = req.nextUrl.searchParams.get('dryRun') === '1';
   const result = await importNewStudy(ctx, design.data, text, dryRun);
-  return Response.json(result, { status: result.check.ok ? (dryRun ? 200 : 201) : 422 });
+  return importResponse(result, dryRun);
 });

@@ -1,5 +1,5 @@
 import { workspaceRoute } from '@/lib/server/api';
-import { importIntoStudy, readUpload } from '@/lib/server/imports';
+import { importIntoStudy, importResponse, readUpload } from '@/lib/server/imports';
 
 /**
  * Imports a CSV of responses into a closed or imported study (analysts and owners). With
@@ -10,5 +10,5 @@ export const POST = workspaceRoute<{ workspace: string; study: string }>('analys
   const { text } = await readUpload(req);
   const dryRun = req.nextUrl.searchParams.get('dryRun') === '1';
   const result = await importIntoStudy(ctx, study, text, dryRun);
-  return Response.json(result, { status: result.check.ok ? (dryRun ? 200 : 201) : 422 });
+  return importResponse(result, dryRun);
 });
