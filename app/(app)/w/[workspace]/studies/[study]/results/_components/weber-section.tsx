@@ -13,8 +13,8 @@ export function WeberSection({ report, currency, money, width }: { report: Analy
     <section aria-labelledby="weber-h" data-testid="weber-view" className="print-avoid-break">
       <h2 id="weber-h" className="mb-1 text-2xl">Weber view</h2>
       <p className="mb-3 max-w-prose text-base" data-testid="promotion-sentence">{promotionSentence(report, (x) => money.format(x))}</p>
-      <div className="grid gap-6 xl:grid-cols-[auto_1fr]">
-        <div className="card p-4">
+      <div className="space-y-6">
+        <div className="card inline-block p-4">
           <WeberPlot report={report} currency={currency} width={width} />
           <p className="text-sm">Weber slope <span className="num">{p.weberSlope === null ? '—' : p.weberSlope.toFixed(3)}</span>
             {p.weberSlopeCi ? <> (95 % interval <span className="num">{p.weberSlopeCi[0].toFixed(3)} – {p.weberSlopeCi[1].toFixed(3)}</span>)</> : null}
@@ -22,7 +22,7 @@ export function WeberSection({ report, currency, money, width }: { report: Analy
         </div>
         <div>
           <h3 className="mb-2 text-lg">Model comparison</h3>
-          <table className="table" data-testid="model-table">
+          <table className="table max-w-4xl" data-testid="model-table">
             <thead><tr><th>Model</th><th className="n">Log-likelihood</th><th className="n">Parameters</th><th className="n">AIC</th><th className="n">Δ AIC</th></tr></thead>
             <tbody>
               {MODELS.map((m) => (
