@@ -25,6 +25,8 @@ describe('a respondent completes a study on a phone', () => {
   });
 
   it('consent → segment question → practice → trials → thank you', async () => {
+    const scripts: string[] = [];
+    page.on('request', (r) => { if (r.resourceType() === 'script') scripts.push(new URL(r.url()).pathname); });
     await page.goto(`${baseUrl()}/r/${study.token}`);
     await page.waitForURL(/\/take-part/);
     await expect.poll(() => page.getByText('No names or e-mail addresses are stored.').count()).toBe(1);
@@ -57,6 +59,30 @@ describe('a respondent completes a study on a phone', () => {
     await page.getByTestId('thanks').waitFor();
     expect(trials).toBe(18); // 2 practice + 12 test + 3 catch + 1 attention
     expect(shot).toBe(true);
+    // The flow's own bundle only: no Next.js client runtime on the respondent pages.
+    expect(scripts.length).toBe(1);
+    expect(scripts[0]).toMatch(/^\/r-assets\/main-[\w-]+\.js$/);
+  });
+
+  it('before the script has loaded the consent form still starts; the flow resumes once it loads', async () => {
+    const { makeLiveStudy, testDesign } = await import('../support/respondent-fixtures');
+    const other = await makeLiveStudy('harbourline', { design: testDesign({ name: 'Pantry oil: slow script', viewMs: 400 }) });
+    const { context: c3, page: p3 } = await openBrowser({ phone: true });
+    try {
+      await p3.route('**/r-assets/*.js', (r) => r.abort());
+      const res = await p3.goto(`${baseUrl()}/r/${other.token}`);
+      expect(res?.headers()['content-security-policy']).toMatch(/script-src 'self'/);
+      await p3.getByRole('button', { name: 'I agree, start' }).click();
+      await p3.waitForURL(/\/take-part\?resume=/);
+      await p3.getByTestId('waiting').waitFor();
+      await p3.unroute('**/r-assets/*.js');
+      await p3.reload();
+      await p3.getByRole('button', { name: '3 or more', exact: true }).click();
+      await p3.getByTestId('trial').waitFor();
+      expect(await p3.getByTestId('progress').count()).toBe(1);
+    } finally {
+      await c3.close();
+    }
   });
 
   it('reopening the link after completing shows the thank-you page again', async () => {

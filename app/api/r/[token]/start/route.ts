@@ -26,11 +26,12 @@ export const POST = respondentRoute(async (req: NextRequest, token: string) => {
 async function formStart(req: NextRequest, token: string, secure: boolean) {
   const form = await req.formData();
   const pid = String(form.get('pid') ?? '').trim();
-  const flow = new URL(`/r/${encodeURIComponent(token)}/take-part`, req.nextUrl.origin);
   try {
     const out = await startRespondent(token, { consent: true, segmentAnswers: {}, ...(pid ? { pid } : {}) }, null);
-    flow.searchParams.set('resume', out.resumeToken);
-    const res = NextResponse.redirect(flow, 303);
+    // A relative Location: behind `next start -H 127.0.0.1` the request's origin reads as localhost,
+    // another origin (without the cookie just set) for a phone that came through 127.0.0.1.
+    const flow = `/r/${encodeURIComponent(token)}/take-part?resume=${encodeURIComponent(out.resumeToken)}`;
+    const res = new NextResponse(null, { status: 303, headers: { location: flow } });
     setResumeCookie(res, out.studyId, out.resumeToken, secure);
     return res;
   } catch (err) {
