@@ -15,7 +15,7 @@ export const PRICE_ENDINGS = ['exact', 'ends-99', 'ends-49', 'whole'] as const;
 export const PRICE_ENDING_LABELS: Record<(typeof PRICE_ENDINGS)[number], string> = {
   exact: 'Exact (to the cent)',
   'ends-99': 'Ends in .99',
-  'ends-49': 'Ends in .49 or .99',
+  'ends-49': 'Ends in .49',
   whole: 'Whole units',
 };
 

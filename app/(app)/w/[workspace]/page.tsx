@@ -18,7 +18,10 @@ export default async function StudiesPage({ params }: { params: Promise<{ worksp
     <>
       <PageTitle title="Studies">
         {canBuild ? (
-          <Link href={`/w/${ctx.workspace.slug}/studies/new`} className="btn btn-primary">New study</Link>
+          <>
+            <Link href={`/w/${ctx.workspace.slug}/studies/import`} className="btn">Import responses</Link>
+            <Link href={`/w/${ctx.workspace.slug}/studies/new`} className="btn btn-primary">New study</Link>
+          </>
         ) : null}
       </PageTitle>
       {studies.length === 0 ? (
