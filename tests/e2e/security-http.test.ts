@@ -1,0 +1,130 @@
+import { randomInt } from 'node:crypto';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { baseUrl, openBrowser } from '../support/browser';
+
+// Against the built app over real HTTP: the security headers it serves, the Auth.js cookie
+// flags of a credentials sign-in, and an old session refused after a password reset.
+
+const ip = () => `10.77.${randomInt(1, 250)}.${randomInt(1, 250)}`;
+const cookiePair = (setCookie: string) => setCookie.split(';')[0];
+
+/** Signs in the way a non-browser client does: CSRF token, then the credentials callback. */
+async function httpSignIn(email: string, password: string) {
+  const from = ip();
+  const csrf = await fetch(`${baseUrl()}/api/auth/csrf`, { headers: { 'x-forwarded-for': from } });
+  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+  const jar = csrf.headers.getSetCookie().map(cookiePair).join('; ');
+  const res = await fetch(`${baseUrl()}/api/auth/callback/credentials`, {
+    method: 'POST',
+    redirect: 'manual',
+    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: jar, 'x-forwarded-for': from },
+    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: baseUrl() }),
+  });
+  const session = res.headers.getSetCookie().find((c) => /authjs\.session-token=/.test(c));
+  return { res, csrfCookies: csrf.headers.getSetCookie(), session };
+}
+
+const me = (cookie: string) => fetch(`${baseUrl()}/api/me`, { headers: { cookie } });
+
+/** The reset link from the e-mail maildev caught. */
+async function resetLink(address: string): Promise<string> {
+  const until = Date.now() + 15_000;
+  for (;;) {
+    const mails = (await (await fetch(`${inject('mailApiUrl')}/api/email`)).json()) as { to: { address: string }[]; text: string }[];
+    const link = mails.find((m) => m.to.some((t) => t.address === address))?.text.match(/https?:\/\/\S+\/reset\/[\w-]+/)?.[0];
+    if (link) return link;
+    if (Date.now() > until) throw new Error(`no reset e-mail for ${address}`);
+    await new Promise((r) => setTimeout(r, 250));
+  }
+}
+
+describe('security over HTTP', () => {
+  let context: BrowserContext;
+  let page: Page;
+  const email = `cookie-${Date.now()}@test.example`;
+  const first = 'first-password-123';
+  const second = 'second-password-456';
+
+  /** Anything the browser refused under the Content-Security-Policy (must stay empty). */
+  const blocked: string[] = [];
+  beforeAll(async () => {
+    ({ context, page } = await openBrowser());
+    page.on('console', (m) => {
+      if (/Content Security Policy|Refused to/i.test(m.text())) blocked.push(m.text());
+    });
+    await page.goto(`${baseUrl()}/sign-up`);
+    await page.getByLabel('Your name').fill('Cookie Check');
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill(first);
+    await page.getByLabel('Workspace name').fill(`Cookie lab ${Date.now()}`);
+    await page.getByRole('button', { name: 'Open workspace' }).click();
+    await page.waitForURL(/\/w\//);
+  });
+  afterAll(async () => {
+    await context?.close();
+  });
+
+  it('pages, API routes and the respondent document carry CSP, frame-ancestors none, nosniff and a referrer policy', async () => {
+    for (const p of ['/sign-in', '/api/me', '/r/not-a-real-link-token/take-part']) {
+      const res = await fetch(`${baseUrl()}${p}`, { redirect: 'manual' });
+      const csp = res.headers.get('content-security-policy') ?? '';
+      expect(csp, p).toContain("default-src 'self'");
+      expect(csp, p).toContain("frame-ancestors 'none'");
+      expect(csp, p).toContain("object-src 'none'");
+      expect(csp, p).toMatch(/img-src 'self' data: blob:/); // QR codes are data: URLs
+      expect(csp, p).toMatch(/form-action 'self' \S+/); // and the checkout page
+      expect(res.headers.get('x-content-type-options'), p).toBe('nosniff');
+      expect(res.headers.get('referrer-policy'), p).toBe('strict-origin-when-cross-origin');
+      expect(res.headers.get('x-frame-options'), p).toBe('DENY');
+      expect(res.headers.get('x-powered-by'), p).toBeNull();
+    }
+  });
+
+  it('a credentials sign-in sets an HttpOnly, SameSite=Lax session cookie (not Secure on this plain-HTTP test address)', async () => {
+    const { res, session, csrfCookies } = await httpSignIn(email, first);
+    expect(res.status).toBe(302);
+    expect(session).toBeTruthy();
+    expect(session).toMatch(/;\s*HttpOnly/i);
+    expect(session).toMatch(/;\s*SameSite=Lax/i);
+    expect(session).toMatch(/;\s*Path=\//i);
+    // APP_URL is http:// here and SECURE_COOKIES unset: no Secure flag, no __Secure- prefix
+    // (the integration test auth-cookies.test.ts checks the https case).
+    expect(session).not.toMatch(/;\s*Secure/i);
+    for (const c of csrfCookies) expect(c).toMatch(/;\s*HttpOnly/i);
+    expect((await me(cookiePair(session!))).status).toBe(200);
+  });
+
+  it('a wrong password sets no session cookie', async () => {
+    const { session } = await httpSignIn(email, 'not-the-password-1');
+    expect(session).toBeUndefined();
+  });
+
+  it("after a password reset the old session's cookie gets 401 from /api/me; the new password signs in", async () => {
+    const old = cookiePair((await httpSignIn(email, first)).session!);
+    expect((await me(old)).status).toBe(200);
+
+    const { context: other, page: p2 } = await openBrowser();
+    try {
+      await p2.goto(`${baseUrl()}/reset`);
+      await p2.getByLabel('E-mail').fill(email);
+      await p2.getByRole('button', { name: 'Send the link' }).click();
+      await p2.goto(await resetLink(email));
+      await p2.getByLabel('New password').fill(second);
+      await p2.getByLabel('The same again').fill(second);
+      await p2.getByRole('button', { name: 'Save the new password' }).click();
+      await p2.waitForURL(/\/w\//);
+    } finally {
+      await other.close();
+    }
+
+    expect((await me(old)).status).toBe(401);
+    await page.goto(`${baseUrl()}/sign-in`);
+    expect(blocked).toEqual([]);
+    // The browser signed in before the reset is signed out too.
+    expect((await page.request.get(`${baseUrl()}/api/me`)).status()).toBe(401);
+    expect((await httpSignIn(email, first)).session).toBeUndefined();
+    const fresh = (await httpSignIn(email, second)).session;
+    expect((await me(cookiePair(fresh!))).status).toBe(200);
+  });
+});
