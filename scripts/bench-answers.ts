@@ -3,12 +3,13 @@
 // a production build (`next start`), against a private database; then, in the same run, the
 // same number of single-row inserts of the trial row shape go straight through `pg` into a
 // scratch copy of the trial table with the same concurrency: the machine's ceiling.
+import os from 'node:os';
 import path from 'node:path';
 import { randomUUID } from 'node:crypto';
 import pg from 'pg';
 import { DATA } from './lib/project.mjs';
 import { startFakeStripe, stopService } from './lib/services.mjs';
-import { appEnv, ensureBuild, freshDatabase, startApp, stopApp, WEBHOOK_SECRET } from './load/app';
+import { appEnv, ensureBuild, freshDatabase, groupCpuSeconds, startApp, stopApp, WEBHOOK_SECRET } from './load/app';
 import { createLoadStudy, storedFacts } from './load/study';
 import { newStats, percentile, request, runRespondent, runRespondents } from './load/respondent-client';
 
@@ -22,6 +23,12 @@ const PORT = arg('port', Number(process.env.LOAD_APP_PORT ?? 3901));
 const PG_PORT = Number(process.env.TEST_PGPORT ?? 54339);
 const POOL_MAX = Number(process.env.DB_POOL_MAX ?? 10);
 const log = (s: string) => process.stdout.write(`[bench:answers] ${s}\n`);
+
+/** Transactions committed in this database so far (every autocommit statement is one). */
+async function commits(pool: pg.Pool): Promise<number> {
+  await pool.query('select pg_stat_clear_snapshot()');
+  return Number((await pool.query('select xact_commit from pg_stat_database where datname = current_database()')).rows[0].xact_commit);
+}
 
 async function rawInserts(pool: pg.Pool, rows: number, concurrency: number, studyId: string) {
   await pool.query('drop table if exists trial_bench_scratch');
@@ -61,9 +68,13 @@ async function main() {
     const before = await storedFacts(pool, study);
 
     const stats = newStats();
+    const cpu0 = groupCpuSeconds(app);
+    const tx0 = await commits(pool);
     const t = performance.now();
     const { failures } = await runRespondents(RESPONDENTS, CONCURRENCY, () => runRespondent({ bases: [base], linkToken: study.linkToken, stats, giveUpMs: 10_000 }));
     const seconds = (performance.now() - t) / 1000;
+    const appCpu = groupCpuSeconds(app) - cpu0;
+    const statements = (await commits(pool)) - tx0;
     const after = await storedFacts(pool, study);
 
     const answersPerS = stats.answersAcked / seconds;
@@ -72,6 +83,9 @@ async function main() {
     const errors = Object.values(stats.errors).reduce((a, b) => a + b, 0) + failures.length;
     log(`${RESPONDENTS} respondents (${CONCURRENCY} at once), ${stats.answersAcked} answers + ${RESPONDENTS} starts + ${stats.completes} completes in ${seconds.toFixed(2)} s`);
     log(`answer request latency: p50 ${p50.toFixed(1)} ms, p95 ${p95.toFixed(1)} ms, p99 ${p99.toFixed(1)} ms, max ${(ms.at(-1) ?? 0).toFixed(1)} ms`);
+    const requests = stats.answersAcked + RESPONDENTS + stats.completes;
+    log(`app CPU: ${appCpu.toFixed(1)} s over ${seconds.toFixed(1)} s wall (${(appCpu / seconds * 100).toFixed(0)} % of one core; ${(appCpu * 1000 / requests).toFixed(2)} ms per request); load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')}`);
+    log(`database: ${statements} committed statements/transactions for ${requests} requests (${(statements / requests).toFixed(2)} per request; rate-limit counters included)`);
     log(`errors: ${errors}${errors ? ` ${JSON.stringify(stats.errors)} ${failures.slice(0, 3).map((f) => f.message).join('; ')}` : ''}`);
     const stored = after.trials - before.trials;
     log(`stored: ${stored} trials for ${stats.answersAcked} acknowledged answers, ${after.duplicates} duplicates, seats used ${after.seatsUsed} = completes ${after.completes}, balance ${after.balance}`);

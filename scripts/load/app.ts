@@ -74,11 +74,14 @@ export function appEnv(databaseUrl: string, opts: { stripePort: number; smtpPort
 export async function startApp(env: Record<string, string>, port: number, name = `app:${port}`): Promise<ChildProcess> {
   if (await portInUse(port)) throw new Error(`port ${port} is already in use`);
   const appUrl = `http://127.0.0.1:${port}`;
-  const child = startService(name, bin('next'), ['start', '-H', '127.0.0.1', '-p', String(port)], {
+  // LOAD_APP_NODE_ARGS (e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof") profiles the app only.
+  const nodeArgs = (process.env.LOAD_APP_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  const child = startService(name, process.execPath, [...nodeArgs, path.join(ROOT, 'node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(port)], {
     env: { ...process.env, ...env, APP_URL: appUrl, AUTH_URL: appUrl, NODE_ENV: 'production', NEXT_DIST_DIR: DIST_DIR },
     quiet: process.env.LOAD_VERBOSE !== '1',
   });
-  await waitForPort(port, { timeoutMs: 90_000 });
+  const exited = new Promise<never>((_, reject) => child.once('exit', (code) => reject(new Error(`${name} exited (${code}) before it answered`))));
+  await Promise.race([waitForPort(port, { timeoutMs: 90_000 }), exited]);
   await waitHttp(appUrl);
   return child;
 }
@@ -96,6 +99,21 @@ export async function waitHttp(base: string, timeoutMs = 60_000): Promise<void> 
     if (Date.now() > until) throw new Error(`${base} did not answer within ${timeoutMs} ms`);
     await new Promise((r) => setTimeout(r, 200));
   }
+}
+
+/** CPU seconds (user + system) used so far by every process in the instance's process group. */
+export function groupCpuSeconds(child: ChildProcess): number {
+  let ticks = 0;
+  for (const pid of readdirSync('/proc').filter((d) => /^\d+$/.test(d))) {
+    try {
+      // Fields after the ")" of the command name: state ppid pgrp ... utime(12) stime(13).
+      const f = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
+      if (Number(f[2]) === child.pid) ticks += Number(f[11]) + Number(f[12]);
+    } catch {
+      // the process ended meanwhile
+    }
+  }
+  return ticks / 100; // USER_HZ
 }
 
 /** Stops an instance and its next-server child (its process group). */

@@ -5,7 +5,7 @@ import type pg from 'pg';
 import { trialsPerRespondent } from '@/lib/schemas/study.schema';
 import { startApp, stopApp } from '../../scripts/load/app';
 import { request } from '../../scripts/load/respondent-client';
-import { createLoadStudy, type LoadStudy } from '../../scripts/load/study';
+import { createLoadStudy, loadDesign, type LoadStudy } from '../../scripts/load/study';
 import { crowd, expectNothingLost, faultsPool } from './support/respondents';
 
 const bases = inject('appPorts').map((p) => `http://127.0.0.1:${p}`);
@@ -18,7 +18,7 @@ describe('two `next start` instances against one database, respondents alternati
     // The same environment (one AUTH_SECRET, one DATABASE_URL) on both, as behind a load balancer.
     apps = await Promise.all(inject('appPorts').map((p) => startApp(inject('faultsEnv'), p)));
     pool = faultsPool();
-    study = await createLoadStudy(pool, { seats: 300, name: 'Faults: two instances (simulated)' });
+    study = await createLoadStudy(pool, { design: loadDesign(1), seats: 300, name: 'Faults: two instances (simulated)' });
   });
   afterAll(async () => {
     await pool?.end();
