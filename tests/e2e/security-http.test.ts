@@ -95,6 +95,21 @@ describe('security over HTTP', () => {
     expect((await me(cookiePair(session!))).status).toBe(200);
   });
 
+  it('hammering the credentials callback from one address: 429 with Retry-After after ten tries', async () => {
+    const from = ip();
+    const target = `nobody-${Date.now()}@test.example`;
+    const post = () => fetch(`${baseUrl()}/api/auth/callback/credentials`, {
+      method: 'POST', redirect: 'manual',
+      headers: { 'content-type': 'application/x-www-form-urlencoded', 'x-forwarded-for': from },
+      body: new URLSearchParams({ email: target, password: 'guess-0000000' }),
+    });
+    for (let i = 0; i < 10; i++) expect((await post()).status).not.toBe(429);
+    const res = await post();
+    expect(res.status).toBe(429);
+    expect(Number(res.headers.get('retry-after'))).toBeGreaterThan(0);
+    expect((await res.json()).error.message).toMatch(/Too many attempts/);
+  });
+
   it('a wrong password sets no session cookie', async () => {
     const { session } = await httpSignIn(email, 'not-the-password-1');
     expect(session).toBeUndefined();
