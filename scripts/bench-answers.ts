@@ -1,4 +1,4 @@
-// npm run bench:answers [-- --respondents 200 --port 3901]
+// npm run bench:answers [-- --respondents 200 --port 3901 --instances 1]
 // N simulated respondents complete a live study concurrently through the real HTTP routes of
 // a production build (`next start`), against a private database; then, in the same run, the
 // same number of single-row inserts of the trial row shape go straight through `pg` into a
@@ -21,6 +21,8 @@ const RESPONDENTS = arg('respondents', 200);
 const CONCURRENCY = arg('concurrency', RESPONDENTS);
 const PORT = arg('port', Number(process.env.LOAD_APP_PORT ?? 3901));
 const PG_PORT = Number(process.env.TEST_PGPORT ?? 54339);
+/** Several instances behind a round-robin "balancer": each request goes to the next one. */
+const INSTANCES = arg('instances', 1);
 const POOL_MAX = Number(process.env.DB_POOL_MAX ?? 10);
 const log = (s: string) => process.stdout.write(`[bench:answers] ${s}\n`);
 
@@ -58,22 +60,23 @@ async function main() {
   const stripePort = Number(process.env.TEST_STRIPE_PORT ?? 3905);
   const env = appEnv(url, { stripePort, smtpPort: Number(process.env.TEST_SMTP_PORT ?? 3903) });
   const stripe = startFakeStripe({ port: stripePort, webhookUrl: `http://127.0.0.1:${PORT}/api/stripe/webhook`, webhookSecret: WEBHOOK_SECRET, quiet: true });
-  const app = await startApp(env, PORT);
-  const base = `http://127.0.0.1:${PORT}`;
+  const apps = await Promise.all(Array.from({ length: INSTANCES }, (_, i) => startApp(env, PORT + i)));
+  const bases = apps.map((_, i) => `http://127.0.0.1:${PORT + i}`);
+  const base = bases[0];
   try {
     const study = await createLoadStudy(pool, { seats: RESPONDENTS * 2 });
     // Warm-up: compile the routes' code paths and fill the pools before measuring.
     const warm = newStats();
-    await runRespondents(Math.min(20, RESPONDENTS), 20, () => runRespondent({ bases: [base], linkToken: study.linkToken, stats: warm }));
+    await runRespondents(Math.min(20, RESPONDENTS), 20, () => runRespondent({ bases, linkToken: study.linkToken, stats: warm }));
     const before = await storedFacts(pool, study);
 
     const stats = newStats();
-    const cpu0 = groupCpuSeconds(app);
+    const cpu0 = apps.reduce((a, app) => a + groupCpuSeconds(app), 0);
     const tx0 = await commits(pool);
     const t = performance.now();
-    const { failures } = await runRespondents(RESPONDENTS, CONCURRENCY, () => runRespondent({ bases: [base], linkToken: study.linkToken, stats, giveUpMs: 10_000 }));
+    const { failures } = await runRespondents(RESPONDENTS, CONCURRENCY, () => runRespondent({ bases, linkToken: study.linkToken, stats, giveUpMs: 10_000 }));
     const seconds = (performance.now() - t) / 1000;
-    const appCpu = groupCpuSeconds(app) - cpu0;
+    const appCpu = apps.reduce((a, app) => a + groupCpuSeconds(app), 0) - cpu0;
     const statements = (await commits(pool)) - tx0;
     const after = await storedFacts(pool, study);
 
@@ -81,7 +84,7 @@ async function main() {
     const ms = [...stats.answerMs].sort((a, b) => a - b);
     const [p50, p95, p99] = [50, 95, 99].map((p) => percentile(ms, p));
     const errors = Object.values(stats.errors).reduce((a, b) => a + b, 0) + failures.length;
-    log(`${RESPONDENTS} respondents (${CONCURRENCY} at once), ${stats.answersAcked} answers + ${RESPONDENTS} starts + ${stats.completes} completes in ${seconds.toFixed(2)} s`);
+    log(`${INSTANCES} instance(s); ${RESPONDENTS} respondents (${CONCURRENCY} at once), ${stats.answersAcked} answers + ${RESPONDENTS} starts + ${stats.completes} completes in ${seconds.toFixed(2)} s`);
     log(`answer request latency: p50 ${p50.toFixed(1)} ms, p95 ${p95.toFixed(1)} ms, p99 ${p99.toFixed(1)} ms, max ${(ms.at(-1) ?? 0).toFixed(1)} ms`);
     const requests = stats.answersAcked + RESPONDENTS + stats.completes;
     log(`app CPU: ${appCpu.toFixed(1)} s over ${seconds.toFixed(1)} s wall (${(appCpu / seconds * 100).toFixed(0)} % of one core; ${(appCpu * 1000 / requests).toFixed(2)} ms per request); load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')}`);
@@ -97,7 +100,7 @@ async function main() {
     if (probe.status !== 404) throw new Error(`the app stopped answering (${probe.status})`);
     process.stdout.write(`bench:answers answers_per_s=${answersPerS.toFixed(0)} p99_ms=${p99.toFixed(1)} raw_inserts_per_s=${raw.toFixed(0)} ratio=${(answersPerS / raw).toFixed(2)}\n`);
   } finally {
-    await stopApp(app);
+    await Promise.all(apps.map((app) => stopApp(app)));
     stopService(stripe);
     await pool.end();
   }
