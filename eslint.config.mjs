@@ -5,7 +5,7 @@ const config = [
   ...nextVitals,
   ...nextTs,
   {
-    ignores: ['node_modules/**', '.next/**', '.next-*/**', '.next-test*/**', '.data/**', '.test-output/**', 'next-env.d.ts', 'migrations/**'],
+    ignores: ['node_modules/**', '.next/**', '.next-*/**', '.next-test*/**', '.data/**', '.test-output/**', 'next-env.d.ts', 'migrations/**', '.respondent-dist/**'],
   },
 ];
 
