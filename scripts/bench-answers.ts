@@ -3,12 +3,14 @@
 // a production build (`next start`), against a private database; then, in the same run, the
 // same number of single-row inserts of the trial row shape go straight through `pg` into a
 // scratch copy of the trial table with the same concurrency: the machine's ceiling.
+import type { ChildProcess } from 'node:child_process';
+import { execFile } from 'node:child_process';
 import os from 'node:os';
 import path from 'node:path';
 import { randomUUID } from 'node:crypto';
 import pg from 'pg';
 import { DATA } from './lib/project.mjs';
-import { startFakeStripe, stopService } from './lib/services.mjs';
+import { bin, startFakeStripe, stopService } from './lib/services.mjs';
 import { appEnv, ensureBuild, freshDatabase, groupCpuSeconds, startApp, stopApp, WEBHOOK_SECRET } from './load/app';
 import { createLoadStudy, storedFacts } from './load/study';
 import { newStats, percentile, request, runRespondent, runRespondents } from './load/respondent-client';
@@ -51,6 +53,17 @@ async function rawInserts(pool: pg.Pool, rows: number, concurrency: number, stud
   const s = (performance.now() - t) / 1000;
   await pool.query('drop table trial_bench_scratch');
   return rows / s;
+}
+
+/** The framework's own cost: a route that reads no database (`/api/me` signed out → 401), by autocannon. */
+async function frameworkFloor(app: ChildProcess, base: string): Promise<string> {
+  const cannon = (seconds: number) => new Promise<string>((resolve, reject) =>
+    execFile(bin('autocannon'), ['-c', '50', '-d', String(seconds), '-j', `${base}/api/me`], { maxBuffer: 16 * 1024 * 1024 }, (err, out) => (err ? reject(err) : resolve(out))));
+  await cannon(2);
+  const c0 = groupCpuSeconds(app);
+  const j = JSON.parse(await cannon(8)) as { requests: { average: number; total: number }; latency: { p50: number; p99: number }; non2xx: number };
+  const cpu = groupCpuSeconds(app) - c0;
+  return `framework floor, GET /api/me signed out (no database, autocannon -c 50 -d 8): ${j.requests.average.toFixed(0)} req/s, p50 ${j.latency.p50} ms, p99 ${j.latency.p99} ms, app CPU ${((cpu * 1000) / j.requests.total).toFixed(2)} ms per request`;
 }
 
 async function main() {
@@ -96,6 +109,7 @@ async function main() {
 
     const raw = await rawInserts(pool, stats.answersAcked, CONCURRENCY, study.studyId);
     log(`raw single-row inserts through pg (pool of ${POOL_MAX}, ${CONCURRENCY} callers): ${raw.toFixed(0)}/s`);
+    log(await frameworkFloor(apps[0], base));
     const probe = await request(base, 'GET', '/api/r/not-a-real-link/state');
     if (probe.status !== 404) throw new Error(`the app stopped answering (${probe.status})`);
     process.stdout.write(`bench:answers answers_per_s=${answersPerS.toFixed(0)} p99_ms=${p99.toFixed(1)} raw_inserts_per_s=${raw.toFixed(0)} ratio=${(answersPerS / raw).toFixed(2)}\n`);
