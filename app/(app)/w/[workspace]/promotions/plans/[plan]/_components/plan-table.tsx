@@ -87,7 +87,7 @@ export function PlanTable({ slug, planId, currency, locale, total }: { slug: str
       </div>
       <nav aria-label="Pages" className="flex flex-wrap items-center gap-3 text-sm">
         <button type="button" className="btn !min-h-0 !py-1" onClick={() => setPage((p) => Math.max(0, p - 1))} disabled={page === 0}>← Previous</button>
-        <span className="num" role="status">Page {page + 1} of {pages} · {matched.toLocaleString('en-GB')} of {total.toLocaleString('en-GB')} items{isFetching ? ' · loading…' : ''}</span>
+        <span className="num" role="status">Page {page + 1} of {pages} · {matched.toLocaleString('en-GB')} matching of {total.toLocaleString('en-GB')} items{isFetching ? ' · loading…' : ''}</span>
         <button type="button" className="btn !min-h-0 !py-1" onClick={() => setPage((p) => Math.min(pages - 1, p + 1))} disabled={page >= pages - 1}>Next →</button>
       </nav>
     </section>
