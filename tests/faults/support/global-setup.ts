@@ -2,6 +2,7 @@
 // Stripe stand-in. Each test file starts (and kills) its own `next start` instances.
 import type { TestProject } from 'vitest/node';
 import type { ChildProcess } from 'node:child_process';
+import { stopCluster } from '../../../scripts/lib/postgres.mjs';
 import { startFakeStripe, stopService, waitForPort } from '../../../scripts/lib/services.mjs';
 import { appEnv, ensureBuild, freshDatabase, WEBHOOK_SECRET } from '../../../scripts/load/app';
 import { FAULTS_PGPORT, FAULTS_ROOT } from './cluster';
@@ -20,7 +21,11 @@ export default async function setup(project: TestProject) {
   project.provide('faultsEnv', env);
   project.provide('appPorts', APP_PORTS);
   project.provide('stripeUrl', `http://127.0.0.1:${STRIPE_PORT}`);
-  return () => { if (stripe) stopService(stripe); };
+  return () => {
+    if (stripe) stopService(stripe);
+    // The private cluster is this tier's alone: nothing else needs it running afterwards.
+    stopCluster({ root: FAULTS_ROOT });
+  };
 }
 
 declare module 'vitest' {
