@@ -5,7 +5,7 @@ import { describeRules } from '@/lib/schemas/exclusions.schema';
 import { fitCautions, modelLabel } from '@/lib/results-text';
 import { getFitState, isPoorFit, type FitState, type Segment } from './analysis';
 import { em } from './db';
-import { AppError } from './errors';
+import { AppError, notFoundError } from './errors';
 import type { WorkspaceContext } from './membership';
 import { findStudy, respondentRows, screen } from './study-data';
 
@@ -130,4 +130,18 @@ export async function trialsCsv(ctx: WorkspaceContext, studyId: string): Promise
     r.rid, r.source ?? '', ...qs.map((q) => r.seg?.[q.id] ?? ''), r.att === null ? '' : r.att,
     Number(r.base_price), Number(r.discount), r.kind, Number(r.answer), Number(r.response_ms), (excluded.get(r.rid) ?? []).join(' '),
   ]));
+}
+
+/**
+ * One export download as both the app and the token API serve it: an unknown file is a 404,
+ * a fit still being computed a 202 with Retry-After.
+ */
+export async function exportDownload(ctx: WorkspaceContext, studyId: string, file: string, segmentQuestion: string | null): Promise<Response> {
+  if (!(EXPORT_FILES as readonly string[]).includes(file)) throw notFoundError('That export');
+  try {
+    return await exportFile(ctx, studyId, file as ExportFile, { segmentQuestion });
+  } catch (err) {
+    if (err instanceof ExportPending) return Response.json({ status: 'pending', message: err.message }, { status: 202, headers: { 'retry-after': '3' } });
+    throw err;
+  }
 }
