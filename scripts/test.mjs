@@ -7,7 +7,7 @@ import { ensureChromiumInstalled } from './lib/system-packages.mjs';
 import { ROOT } from './lib/project.mjs';
 import { log, runLive } from './lib/run.mjs';
 import { bin, stopAll } from './lib/services.mjs';
-import { prepareTestDatabase, testEnv, buildTestApp, startTestApp } from './lib/test-env.mjs';
+import { prepareTestDatabase, testEnv, buildTestApp, startTestApp, TEST_DIST_DIR } from './lib/test-env.mjs';
 
 const t0 = Date.now();
 const OUT = path.join(ROOT, '.test-output');
@@ -70,6 +70,26 @@ if (ready) {
     // A file that failed to load has no tests to count; count it as a failure.
     const brokenFiles = r.testResults.filter((f) => f.status === 'failed' && f.assertionResults.length === 0).length;
     totals.failed += brokenFiles;
+    return code === 0;
+  });
+}
+
+if (ready) {
+  // The fault tier (docs/reliability.md → Faults): its own private cluster and ports, on the
+  // build made above (about 2 minutes on a quiet 2-core machine).
+  const report = path.join(OUT, 'faults.json');
+  await step('faults: PostgreSQL restart, app killed, two instances, webhooks replayed', async () => {
+    const code = await runLive(bin('vitest'), ['run', '--config', 'vitest.faults.config.mts', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`], {
+      cwd: ROOT,
+      env: { ...process.env, NODE_ENV: 'test', LOAD_DIST_DIR: TEST_DIST_DIR, LOAD_BUILD: 'skip' },
+    });
+    if (!existsSync(report)) {
+      totals.failed += 1;
+      return false;
+    }
+    const r = JSON.parse(readFileSync(report, 'utf8'));
+    totals.passed += r.numPassedTests;
+    totals.failed += r.numFailedTests + r.testResults.filter((f) => f.status === 'failed' && f.assertionResults.length === 0).length;
     return code === 0;
   });
 }

@@ -8,14 +8,14 @@ import { appEnv, ensureBuild, freshDatabase, WEBHOOK_SECRET } from '../../../scr
 import { FAULTS_PGPORT, FAULTS_ROOT } from './cluster';
 
 export const APP_PORTS = [Number(process.env.FAULTS_APP_PORT ?? 3901), Number(process.env.FAULTS_APP_PORT_2 ?? 3902)];
-const STRIPE_PORT = Number(process.env.TEST_STRIPE_PORT ?? 3905);
+const STRIPE_PORT = Number(process.env.FAULTS_STRIPE_PORT ?? 3905);
 
 let stripe: ChildProcess | undefined;
 
 export default async function setup(project: TestProject) {
   ensureBuild((s) => process.stdout.write(`[faults] ${s}\n`));
   const url = await freshDatabase({ root: FAULTS_ROOT, port: FAULTS_PGPORT, database: process.env.FAULTS_DB_NAME ?? 'nw_faults' });
-  const env = appEnv(url, { stripePort: STRIPE_PORT, smtpPort: Number(process.env.TEST_SMTP_PORT ?? 3903) });
+  const env = appEnv(url, { stripePort: STRIPE_PORT, smtpPort: Number(process.env.FAULTS_SMTP_PORT ?? 3903) });
   stripe = startFakeStripe({ port: STRIPE_PORT, webhookUrl: `http://127.0.0.1:${APP_PORTS[0]}/api/stripe/webhook`, webhookSecret: WEBHOOK_SECRET, quiet: true, delayMs: 0 });
   await waitForPort(STRIPE_PORT);
   project.provide('faultsEnv', env);
