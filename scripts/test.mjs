@@ -39,6 +39,8 @@ await ensureDeps(ROOT);
 await ensureChromiumInstalled();
 process.env.NEXT_TELEMETRY_DISABLED = '1';
 
+// next-env.d.ts is written by the last build and may point at a build folder that is gone.
+rmSync(path.join(ROOT, 'next-env.d.ts'), { force: true });
 await step('typecheck (tsc)', async () => check((await runLive(bin('tsc'), ['--noEmit', '-p', '.'], { cwd: ROOT })) === 0));
 await step('lint (eslint, Next.js config)', async () => check((await runLive(bin('eslint'), ['.', '--max-warnings=0'], { cwd: ROOT })) === 0));
 
