@@ -28,7 +28,10 @@ export function LedgerTable({ entries }: { entries: BillingOverview['entries'] }
             <tr key={e.id}>
               <td className="whitespace-nowrap">{when(e.createdAt)}</td>
               <td className={e.delta >= 0 ? 'n text-moss' : 'n text-brick'}>{e.delta >= 0 ? `+${e.delta}` : `−${Math.abs(e.delta)}`}</td>
-              <td>{REASONS[e.reason] ?? e.reason}{e.note ? <span className="text-muted"> · {e.note}</span> : null}</td>
+              <td>
+                {REASONS[e.reason] ?? e.reason}
+                {e.note && e.note !== REASONS[e.reason] ? <span className="text-muted"> · {e.note}</span> : null}
+              </td>
               <td className="num max-w-[18rem] truncate text-xs text-muted" title={e.reference}>{e.reference}</td>
             </tr>
           ))}
