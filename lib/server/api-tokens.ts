@@ -1,5 +1,4 @@
 import 'server-only';
-import { createHash, randomBytes } from 'node:crypto';
 import type { NextRequest } from 'next/server';
 import { ApiToken, type IApiToken } from '@/entities/api-token';
 import { Membership } from '@/entities/membership';
@@ -8,6 +7,8 @@ import { toErrorResponse } from './api';
 import { recordAudit } from './audit';
 import { em } from './db';
 import { AppError, notFoundError } from './errors';
+import { requireUuid } from './ids';
+import { hashToken, randomToken } from './tokens';
 import type { WorkspaceContext } from './membership';
 
 // Personal access tokens for the read-only export API (/api/v1). The token is shown once; only
@@ -16,8 +17,6 @@ import type { WorkspaceContext } from './membership';
 // viewer, and only while the user is still a member.
 
 const PREFIX_LENGTH = 11;
-
-export const hashToken = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex');
 
 export interface ApiTokenDto { id: string; name: string; prefix: string; createdAt: string; lastUsedAt: string | null; revokedAt: string | null }
 
@@ -34,7 +33,7 @@ export async function listApiTokens(ctx: WorkspaceContext): Promise<ApiTokenDto[
 
 export async function createApiToken(ctx: WorkspaceContext, name: string): Promise<ApiTokenDto & { token: string }> {
   const db = await em();
-  const token = `nw_${randomBytes(32).toString('base64url')}`;
+  const token = `nw_${randomToken()}`;
   const row = db.create(ApiToken, { workspace: ctx.workspace.id, user: ctx.user.id, name, tokenHash: hashToken(token), prefix: token.slice(0, PREFIX_LENGTH) });
   await db.flush();
   await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'api_token.created', target: row.prefix, detail: { name } });
@@ -43,7 +42,7 @@ export async function createApiToken(ctx: WorkspaceContext, name: string): Promi
 
 /** Revokes one of the user's own tokens (owners may revoke any token of the workspace). Idempotent. */
 export async function revokeApiToken(ctx: WorkspaceContext, id: string): Promise<ApiTokenDto> {
-  if (!/^[0-9a-f-]{36}$/i.test(id)) throw notFoundError('That token');
+  requireUuid(id, 'That token');
   const db = await em();
   const where = ctx.role === 'owner' ? { id, workspace: ctx.workspace.id } : { id, workspace: ctx.workspace.id, user: ctx.user.id };
   const row = await db.findOne(ApiToken, where);

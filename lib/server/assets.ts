@@ -3,7 +3,7 @@ import { StudyAsset } from '@/entities/study-asset';
 import { em } from './db';
 import { AppError } from './errors';
 import { recordAudit } from './audit';
-import { isUuid } from './studies';
+import { isUuid } from './ids';
 import type { WorkspaceContext } from './membership';
 
 export const MAX_PICTURE_BYTES = 512 * 1024;

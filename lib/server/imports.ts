@@ -11,6 +11,7 @@ import { DEFAULT_CONSENT } from '@/lib/schemas/study.schema';
 import { recordAudit } from './audit';
 import { em } from './db';
 import { AppError, notFoundError } from './errors';
+import { requireUuid } from './ids';
 import type { WorkspaceContext } from './membership';
 
 // Response import: parse (papaparse), validate every row (zod), and only when the whole file is
@@ -82,7 +83,7 @@ export function checkCsv(text: string, opts: { allowedBasePrices?: number[]; exi
 }
 
 async function loadTarget(ctx: WorkspaceContext, studyId: string) {
-  if (!/^[0-9a-f-]{36}$/i.test(studyId)) throw notFoundError('That study');
+  requireUuid(studyId, 'That study');
   const db = await em();
   const s = await db.findOne(Study, { id: studyId, workspace: ctx.workspace.id });
   if (!s) throw notFoundError('That study');

@@ -7,6 +7,7 @@ import type { PlanItem } from '@/lib/promo/floor-table';
 import { recordAudit } from './audit';
 import { em } from './db';
 import { AppError, notFoundError } from './errors';
+import { requireUuid } from './ids';
 import type { WorkspaceContext } from './membership';
 import { zodIssues } from './api';
 
@@ -107,7 +108,7 @@ function toDto(p: IPriceList): PriceListDto {
 }
 
 async function findList(db: EntityManager, ctx: WorkspaceContext, id: string) {
-  if (!/^[0-9a-f-]{36}$/i.test(id)) throw notFoundError('That price list');
+  requireUuid(id, 'That price list');
   const p = await db.findOne(PriceList, { id, workspace: ctx.workspace.id }, { populate: ['createdBy'] });
   if (!p) throw notFoundError('That price list');
   return p;

@@ -11,6 +11,7 @@ import { getStudyFit } from './analysis';
 import { recordAudit } from './audit';
 import { em } from './db';
 import { AppError, notFoundError } from './errors';
+import { isUuid } from './ids';
 import type { WorkspaceContext } from './membership';
 
 /** What a plan stores about its fit (PromoPlan.fit): enough to recompute every floor. */
@@ -39,7 +40,6 @@ export interface PromoPlanDto {
   priceList: { id: string; name: string; currency: string; itemCount: number };
 }
 
-const isUuid = (v: string) => /^[0-9a-f-]{36}$/i.test(v);
 
 function toDto(p: IPromoPlan): PromoPlanDto {
   return {

@@ -6,11 +6,10 @@ import type { StudyDesign } from '@/lib/schemas/study.schema';
 import { isEditable, type StudyStateName } from '@/lib/study-states';
 import { em } from './db';
 import { AppError, notFoundError } from './errors';
+import { isUuid } from './ids';
 import { recordAudit } from './audit';
 import type { WorkspaceContext } from './membership';
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-export const isUuid = (v: string) => UUID.test(v);
 
 export interface StudyDetail {
   id: string;

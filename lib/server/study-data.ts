@@ -6,6 +6,7 @@ import type { ExclusionRuleId, ExclusionRules } from '@/lib/schemas/exclusions.s
 import { rulesOrDefault } from '@/lib/schemas/exclusions.schema';
 import type { Cell, CatchCell, Task } from '@/lib/psychometrics/types';
 import { notFoundError } from './errors';
+import { requireUuid } from './ids';
 
 // Trials → the engine's cells, after the study's exclusion rules. Aggregation happens in SQL
 // (GROUP BY base price and discount) so the cost stays with the design, not the respondents.
@@ -53,7 +54,7 @@ export function toStudyInfo(s: Pick<IStudy, 'id' | 'workspace' | 'name' | 'state
 
 /** The study if it belongs to the workspace; a foreign or missing id is a 404. */
 export async function findStudy(db: EntityManager, workspaceId: string, studyId: string): Promise<StudyInfo> {
-  if (!/^[0-9a-f-]{36}$/i.test(studyId)) throw notFoundError('That study');
+  requireUuid(studyId, 'That study');
   const s = await db.findOne(Study, { id: studyId, workspace: workspaceId });
   if (!s) throw notFoundError('That study');
   return toStudyInfo(s);

@@ -1,5 +1,4 @@
 import 'server-only';
-import { randomBytes } from 'node:crypto';
 import { RespondentLink } from '@/entities/respondent-link';
 import type { z } from 'zod';
 import type { studyLinkSchema } from '@/lib/schemas/study-link.schema';
@@ -7,7 +6,9 @@ import { em } from './db';
 import { env } from './env';
 import { AppError, notFoundError } from './errors';
 import { recordAudit } from './audit';
-import { isUuid, loadStudy } from './studies';
+import { isUuid } from './ids';
+import { loadStudy } from './studies';
+import { randomToken } from './tokens';
 import type { WorkspaceContext } from './membership';
 
 export interface StudyLinkDto {
@@ -23,7 +24,7 @@ export interface StudyLinkDto {
 }
 
 /** 32 random bytes, base64url: 256 bits, far beyond guessing. */
-export const newLinkToken = () => randomBytes(32).toString('base64url');
+export const newLinkToken = randomToken;
 export const linkUrl = (token: string) => `${env().APP_URL.replace(/\/$/, '')}/r/${token}`;
 
 function toDto(l: { id: string; source: string; token: string; quota?: number | null; acceptsPid: boolean; closedAt?: Date | null; createdAt: Date }, counts?: { completes: number; started: number }): StudyLinkDto {
