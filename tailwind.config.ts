@@ -2,7 +2,7 @@ import type { Config } from 'tailwindcss';
 
 // Palette roles from DESIGN.md → Look and feel. Never colour alone: pair with a label or shape.
 export default {
-  content: ['./app/**/*.{ts,tsx}', './components/**/*.{ts,tsx}', './lib/**/*.{ts,tsx}'],
+  content: ['./app/**/*.{ts,tsx}', './components/**/*.{ts,tsx}', './lib/**/*.{ts,tsx}', './respondent/**/*.{ts,tsx}'],
   theme: {
     extend: {
       colors: {

@@ -1,8 +1,8 @@
 import Link from 'next/link';
 import { connection } from 'next/server';
 import { redirect } from 'next/navigation';
-import { currentUser } from '@/lib/server/session';
-import { listWorkspaces } from '@/lib/server/membership';
+import { currentUser } from '@/lib/server/team/session';
+import { listWorkspaces } from '@/lib/server/team/membership';
 
 export default async function Home() {
   await connection();

@@ -1,5 +1,5 @@
 // Builds the respondent pages' own client bundle with vite, outside the Next.js App Router
-// runtime: one script (React + the screens in components/respondent) and one stylesheet with
+// runtime: one script (React + the screens in respondent/client) and one stylesheet with
 // the fonts it uses, content-hashed, into .respondent-dist/ (git-ignored). The route handler
 // /r/[token]/take-part reads .respondent-dist/.vite/manifest.json to link them, and
 // /r-assets/[file] serves them. Run by `npm start`, the test build and `npm run build:respondent`.
@@ -31,7 +31,7 @@ export async function buildRespondent({ quiet = false } = {}) {
       cssCodeSplit: false,
       modulePreload: false,
       rolldownOptions: {
-        input: path.join(ROOT, 'components/respondent/standalone/main.tsx'),
+        input: path.join(ROOT, 'respondent/client/main.tsx'),
         // 'use client' marks the screens for Next's preview page; it means nothing to this bundle.
         onwarn(warning, warn) {
           if (warning.code === 'MODULE_LEVEL_DIRECTIVE') return;

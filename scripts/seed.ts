@@ -1,5 +1,5 @@
 // `npm run db:seed`: loads the demo data. Idempotent: running it again changes nothing.
-import { orm } from '@/lib/server/db';
+import { orm } from '@/lib/server/db/orm';
 import { seedAccounts } from './seed/accounts';
 import { seedDemoPriceList } from './seed/demo-price-list';
 import { seedDemoStudy } from './seed/demo-study';

@@ -1,9 +1,9 @@
 // The job worker (`tsx --conditions=react-server scripts/worker.ts`): fits, segment comparisons
 // and planner runs from the pg-boss queues. Run several for more throughput; a job whose worker
 // dies expires and is retried by another, so a restart loses nothing.
-import { orm } from '@/lib/server/db';
-import { startWorkers } from '@/lib/server/job-handlers';
-import { stopBoss } from '@/lib/server/jobs';
+import { orm } from '@/lib/server/db/orm';
+import { startWorkers } from '@/lib/server/platform/job-handlers';
+import { stopBoss } from '@/lib/server/platform/jobs';
 
 const log = (m: string) => process.stdout.write(`[worker] ${m}\n`);
 

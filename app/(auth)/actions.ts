@@ -1,11 +1,11 @@
 'use server';
 import { AuthError } from 'next-auth';
-import { signIn, signOut } from '@/lib/server/auth';
-import { signUp } from '@/lib/server/accounts';
-import { actionResult } from '@/lib/server/actions';
-import { AppError } from '@/lib/server/errors';
-import { listWorkspacesByEmail } from '@/lib/server/membership';
-import { actionClientIp, limit } from '@/lib/server/rate-limit';
+import { signIn, signOut } from '@/lib/server/team/auth';
+import { signUp } from '@/lib/server/team/accounts';
+import { actionResult } from '@/lib/server/http/action';
+import { AppError } from '@/lib/server/http/errors';
+import { listWorkspacesByEmail } from '@/lib/server/team/membership';
+import { actionClientIp, limit } from '@/lib/server/platform/rate-limit';
 import { signInSchema, signUpSchema } from '@/lib/schemas/auth.schema';
 import { safeNextPath } from '@/lib/safe-next';
 

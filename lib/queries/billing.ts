@@ -1,5 +1,5 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { BillingOverview, CheckoutStatus } from '@/lib/server/billing';
+import type { BillingOverview, CheckoutStatus } from '@/lib/server/billing/checkout';
 import { fetchJson } from '@/lib/fetch-json';
 
 export const billingQuery = (slug: string) =>

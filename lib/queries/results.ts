@@ -1,8 +1,8 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { FitState } from '@/lib/server/analysis';
-import type { getExclusions } from '@/lib/server/exclusion-rules';
-import type { SegmentState } from '@/lib/server/segment-analysis';
-import type { PlannerState } from '@/lib/server/planner-analysis';
+import type { FitState } from '@/lib/server/analysis/study-fit';
+import type { getExclusions } from '@/lib/server/analysis/exclusions';
+import type { SegmentState } from '@/lib/server/analysis/segments';
+import type { PlannerState } from '@/lib/server/analysis/planner';
 import { fetchJson } from '@/lib/fetch-json';
 
 const base = (slug: string, study: string) => `/api/w/${encodeURIComponent(slug)}/studies/${encodeURIComponent(study)}`;

@@ -1,6 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { FieldworkDto } from '@/lib/server/fieldwork';
-import type { StudyLinkDto } from '@/lib/server/study-links';
+import type { FieldworkDto } from '@/lib/server/studies/fieldwork';
+import type { StudyLinkDto } from '@/lib/server/studies/respondent-links';
 import { fetchJson } from '@/lib/fetch-json';
 
 const base = (slug: string, study: string) => `/api/w/${encodeURIComponent(slug)}/studies/${study}`;

@@ -4,8 +4,8 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { User } from '@/entities/user';
 import { Workspace } from '@/entities/workspace';
 import { Membership } from '@/entities/membership';
-import { hashPassword } from '@/lib/server/passwords';
-import { addWelcomeSeats } from '@/lib/server/seats';
+import { hashPassword } from '@/lib/server/team/passwords';
+import { addWelcomeSeats } from '@/lib/server/billing/seat-ledger';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../lib/project.mjs';
 import type { Role } from '@/lib/roles';
 

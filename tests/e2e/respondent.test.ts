@@ -20,7 +20,7 @@ describe('a respondent completes a study on a phone', () => {
   });
   afterAll(async () => {
     await context?.close();
-    const { orm } = await import('@/lib/server/db');
+    const { orm } = await import('@/lib/server/db/orm');
     await (await orm()).close(true);
   });
 

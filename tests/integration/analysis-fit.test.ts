@@ -1,8 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { fitCacheKey, getFitState, getStudyFit, listFittableStudies, runFitJob } from '@/lib/server/analysis';
-import { authorise } from '@/lib/server/membership';
-import { em } from '@/lib/server/db';
-import { findStudy } from '@/lib/server/study-data';
+import { fitCacheKey, getFitState, getStudyFit, listFittableStudies, runFitJob } from '@/lib/server/analysis/study-fit';
+import { authorise } from '@/lib/server/team/membership';
+import { em } from '@/lib/server/db/orm';
+import { findStudy } from '@/lib/server/analysis/cells';
 import { makeWorkspace, signInAs } from '../support/factories';
 import { makeSimulatedStudy } from '../support/studies';
 

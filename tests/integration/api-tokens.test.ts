@@ -3,7 +3,7 @@ import { GET as list, POST as create } from '@/app/api/w/[workspace]/tokens/rout
 import { DELETE as revoke } from '@/app/api/w/[workspace]/tokens/[token]/route';
 import { GET as v1Studies } from '@/app/api/v1/studies/route';
 import { GET as v1File } from '@/app/api/v1/studies/[study]/[file]/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { fitNow, makeSimulatedStudy } from '../support/studies';
 

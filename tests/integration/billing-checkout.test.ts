@@ -4,7 +4,7 @@ import { POST as checkout } from '@/app/api/w/[workspace]/billing/checkout/route
 import { GET as status } from '@/app/api/w/[workspace]/billing/checkout/[session]/route';
 import { GET as overview } from '@/app/api/w/[workspace]/billing/route';
 import { POST as webhook } from '@/app/api/stripe/webhook/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { Purchase } from '@/entities/purchase';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 

@@ -4,7 +4,7 @@ import { startStandIns, completeCheckout, waitForMail, mailsTo } from '../suppor
 import { POST as checkout } from '@/app/api/w/[workspace]/billing/checkout/route';
 import { POST as webhook } from '@/app/api/stripe/webhook/route';
 import { GET as overview } from '@/app/api/w/[workspace]/billing/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { Purchase } from '@/entities/purchase';
 import { AuditEvent } from '@/entities/audit-event';
 import { WebhookEvent } from '@/entities/webhook-event';

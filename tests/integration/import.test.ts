@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { POST as importInto } from '@/app/api/w/[workspace]/studies/[study]/import/route';
 import { POST as importNew } from '@/app/api/w/[workspace]/imports/route';
 import { GET as exportGet } from '@/app/api/w/[workspace]/studies/[study]/exports/[file]/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { makeSimulatedStudy, multipart } from '../support/studies';
 

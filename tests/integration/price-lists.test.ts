@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { GET as listGET, POST as storePOST } from '@/app/api/w/[workspace]/price-lists/route';
 import { POST as previewPOST } from '@/app/api/w/[workspace]/price-lists/preview/route';
 import { DELETE as itemDELETE, GET as itemGET } from '@/app/api/w/[workspace]/price-lists/[list]/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { callRoute, makeMember, makeWorkspace, signInAs, uid } from '../support/factories';
 
 const HEADER = 'sku,name,regular_price,unit_cost,category';

@@ -5,10 +5,10 @@ import { GET as listPlans, POST as createPlan } from '@/app/api/w/[workspace]/pr
 import { DELETE as deletePlan, GET as getPlan } from '@/app/api/w/[workspace]/promo-plans/[plan]/route';
 import { GET as getRows } from '@/app/api/w/[workspace]/promo-plans/[plan]/rows/route';
 import { GET as getExport } from '@/app/api/w/[workspace]/promo-plans/[plan]/export/route';
-import { fitCacheKey, getStudyFit, runFitJob } from '@/lib/server/analysis';
-import { authorise } from '@/lib/server/membership';
-import { em } from '@/lib/server/db';
-import { findStudy } from '@/lib/server/study-data';
+import { fitCacheKey, getStudyFit, runFitJob } from '@/lib/server/analysis/study-fit';
+import { authorise } from '@/lib/server/team/membership';
+import { em } from '@/lib/server/db/orm';
+import { findStudy } from '@/lib/server/analysis/cells';
 import { makeFloorCalculator } from '@/lib/psychometrics/promo-floor';
 import { PRICE_CLAIM_CAUTIONS } from '@/lib/promo/cautions';
 import { demoPriceListCsv } from '@/scripts/seed/demo-price-list';

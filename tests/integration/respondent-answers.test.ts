@@ -3,7 +3,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { makeWorkspace } from '../support/factories';
 import { makeLiveStudy, trialRows } from '../support/respondent-fixtures';
 import { answerAll, answerRes, completeRes, startOk, startRes, stateRes, type Started } from '../support/respondent-client';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 
 describe('respondent answers: stored once, validated against the plan', () => {
   let token: string;

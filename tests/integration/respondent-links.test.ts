@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { GET as entry } from '@/app/(respondent)/r/[token]/route';
 import { GET as picture } from '@/app/api/r/[token]/picture/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { callRoute, makeWorkspace } from '../support/factories';
 import { makeLiveStudy, testDesign } from '../support/respondent-fixtures';
 import { answerRes, startOk, startRes } from '../support/respondent-client';

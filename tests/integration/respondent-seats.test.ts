@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { makeWorkspace } from '../support/factories';
 import { balanceOf, makeLiveStudy, setBalance, testDesign } from '../support/respondent-fixtures';
 import { answerAll, completeRes, startOk, startRes } from '../support/respondent-client';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 
 // A short plan keeps twenty respondents quick.
 const short = () => testDesign({ basePrices: [9.99], ladder: [0.05, 0.2], catchShare: 0, practiceTrials: 0, attentionCheck: { enabled: false }, segmentQuestions: [] });

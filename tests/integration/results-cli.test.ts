@@ -6,7 +6,7 @@ import Papa from 'papaparse';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { GET as exportGet } from '@/app/api/w/[workspace]/studies/[study]/exports/[file]/route';
 import { GET as resultsGet } from '@/app/api/w/[workspace]/studies/[study]/results/route';
-import type { FitState } from '@/lib/server/analysis';
+import type { FitState } from '@/lib/server/analysis/study-fit';
 import type { AnalysisReport } from '@/lib/psychometrics/report-types';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { fitNow, makeSimulatedStudy } from '../support/studies';

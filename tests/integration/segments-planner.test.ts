@@ -1,8 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { GET as segmentsGet } from '@/app/api/w/[workspace]/studies/[study]/results/segments/route';
 import { GET as plannerGet } from '@/app/api/w/[workspace]/studies/[study]/planner/route';
-import { em } from '@/lib/server/db';
-import { handleJob } from '@/lib/server/job-handlers';
+import { em } from '@/lib/server/db/orm';
+import { handleJob } from '@/lib/server/platform/job-handlers';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { fitNow, makeSimulatedStudy } from '../support/studies';
 

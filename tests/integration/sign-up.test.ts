@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { em } from '@/lib/server/db';
-import { signUp } from '@/lib/server/accounts';
-import { seatBalance, WELCOME_SEATS } from '@/lib/server/seats';
+import { em } from '@/lib/server/db/orm';
+import { signUp } from '@/lib/server/team/accounts';
+import { seatBalance, WELCOME_SEATS } from '@/lib/server/billing/seat-ledger';
 import { User } from '@/entities/user';
 import { Workspace } from '@/entities/workspace';
 import { Membership } from '@/entities/membership';
-import { AppError } from '@/lib/server/errors';
+import { AppError } from '@/lib/server/http/errors';
 import { uid } from '../support/factories';
 
 const input = (email: string) => ({ name: 'Ada Analyst', email, password: 'long-enough-password', workspaceName: `Pricing ${uid()}` });

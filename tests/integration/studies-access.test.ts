@@ -9,7 +9,7 @@ import * as link from '@/app/api/w/[workspace]/studies/[study]/links/[link]/rout
 import * as qr from '@/app/api/w/[workspace]/studies/[study]/links/[link]/qr/route';
 import * as fieldwork from '@/app/api/w/[workspace]/studies/[study]/fieldwork/route';
 import * as assets from '@/app/api/w/[workspace]/assets/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { Study } from '@/entities/study';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { validDesign } from '../support/study-fixtures';

@@ -3,9 +3,9 @@ import { NextRequest } from 'next/server';
 import { POST as uploadPOST } from '@/app/api/w/[workspace]/assets/route';
 import { GET as assetGET } from '@/app/api/assets/[id]/route';
 import { POST as createPOST } from '@/app/api/w/[workspace]/studies/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { StudyAsset } from '@/entities/study-asset';
-import { MAX_PICTURE_BYTES } from '@/lib/server/assets';
+import { MAX_PICTURE_BYTES } from '@/lib/server/studies/assets';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { TINY_PNG, validDesign } from '../support/study-fixtures';
 

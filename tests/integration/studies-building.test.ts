@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { GET as listGET, POST as createPOST } from '@/app/api/w/[workspace]/studies/route';
 import { GET as oneGET, PATCH as onePATCH, DELETE as oneDELETE } from '@/app/api/w/[workspace]/studies/[study]/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { Study } from '@/entities/study';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { validDesign } from '../support/study-fixtures';

@@ -3,7 +3,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { POST as createPOST } from '@/app/api/w/[workspace]/studies/route';
 import { POST as linksPOST } from '@/app/api/w/[workspace]/studies/[study]/links/route';
 import { GET as fieldworkGET } from '@/app/api/w/[workspace]/studies/[study]/fieldwork/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { Respondent } from '@/entities/respondent';
 import { Trial } from '@/entities/trial';
 import { Workspace } from '@/entities/workspace';

@@ -3,7 +3,7 @@ import { POST as createPOST } from '@/app/api/w/[workspace]/studies/route';
 import { GET as oneGET, PATCH as onePATCH, DELETE as oneDELETE } from '@/app/api/w/[workspace]/studies/[study]/route';
 import { POST as statePOST } from '@/app/api/w/[workspace]/studies/[study]/state/route';
 import { POST as dupPOST } from '@/app/api/w/[workspace]/studies/[study]/duplicate/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { AuditEvent } from '@/entities/audit-event';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { validDesign } from '../support/study-fixtures';

@@ -4,7 +4,7 @@ import { POST as statePOST } from '@/app/api/w/[workspace]/studies/[study]/state
 import { GET as linksGET, POST as linksPOST } from '@/app/api/w/[workspace]/studies/[study]/links/route';
 import { PATCH as linkPATCH } from '@/app/api/w/[workspace]/studies/[study]/links/[link]/route';
 import { GET as qrGET } from '@/app/api/w/[workspace]/studies/[study]/links/[link]/qr/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { RespondentLink } from '@/entities/respondent-link';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { validDesign } from '../support/study-fixtures';

@@ -2,12 +2,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startStandIns, waitForMail } from '../support/stand-ins';
 import { GET as pending, POST as invite } from '@/app/api/w/[workspace]/invitations/route';
 import { DELETE as revoke } from '@/app/api/w/[workspace]/invitations/[invitation]/route';
-import { acceptInvitation, describeInvitation, signUpWithInvitation } from '@/lib/server/invitations';
-import { em } from '@/lib/server/db';
+import { acceptInvitation, describeInvitation, signUpWithInvitation } from '@/lib/server/team/invitations';
+import { em } from '@/lib/server/db/orm';
 import { Invitation } from '@/entities/invitation';
 import { Membership } from '@/entities/membership';
 import { AuditEvent } from '@/entities/audit-event';
-import { hashToken } from '@/lib/server/tokens';
+import { hashToken } from '@/lib/server/platform/tokens';
 import { callRoute, makeMember, makeWorkspace, signInAs, uid } from '../support/factories';
 
 let stop: () => void;

@@ -2,11 +2,11 @@ import { describe, expect, it } from 'vitest';
 import { GET as list } from '@/app/api/w/[workspace]/team/route';
 import { PATCH, DELETE } from '@/app/api/w/[workspace]/team/[member]/route';
 import { GET as audit } from '@/app/api/w/[workspace]/audit/route';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { Membership } from '@/entities/membership';
 import { AuditEvent } from '@/entities/audit-event';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
-import type { SessionUser } from '@/lib/server/session';
+import type { SessionUser } from '@/lib/server/team/session';
 
 async function membershipOf(slug: string, user: SessionUser) {
   const db = await em();

@@ -1,10 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startStandIns, waitForMail, mailsTo } from '../support/stand-ins';
-import { completePasswordReset, requestPasswordReset, resetTokenUsable, RESET_ANSWER } from '@/lib/server/password-reset';
-import { em } from '@/lib/server/db';
+import { completePasswordReset, requestPasswordReset, resetTokenUsable, RESET_ANSWER } from '@/lib/server/team/password-reset';
+import { em } from '@/lib/server/db/orm';
 import { User } from '@/entities/user';
 import { PasswordReset } from '@/entities/password-reset';
-import { verifyPassword } from '@/lib/server/passwords';
+import { verifyPassword } from '@/lib/server/team/passwords';
 import { makeWorkspace, uid } from '../support/factories';
 
 let stop: () => void;

@@ -7,7 +7,7 @@ vi.mock('next/headers', () => ({
   cookies: async () => ({ get: () => undefined, getAll: () => [], has: () => false, set: () => undefined, delete: () => undefined }),
 }));
 
-import { AppError } from '@/lib/server/errors';
+import { AppError } from '@/lib/server/http/errors';
 import { callRoute, signInAs } from '../support/factories';
 import { loadActions, loadRoutes, parameterNames, type HttpMethod, type RouteModule } from '../support/route-tree';
 import { countsOf, makeTenantFixture, type TenantFixture } from '../support/tenant-fixture';

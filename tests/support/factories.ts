@@ -1,14 +1,14 @@
 // Test data: every test makes its own users and workspaces with unique names (data isolated per test).
 import { randomUUID } from 'node:crypto';
 import { NextRequest } from 'next/server';
-import { em } from '@/lib/server/db';
-import { signUp } from '@/lib/server/accounts';
+import { em } from '@/lib/server/db/orm';
+import { signUp } from '@/lib/server/team/accounts';
 import { User } from '@/entities/user';
 import { Membership } from '@/entities/membership';
 import { Workspace } from '@/entities/workspace';
 import type { Role } from '@/lib/roles';
-import type { SessionUser } from '@/lib/server/session';
-import { hashPassword } from '@/lib/server/passwords';
+import type { SessionUser } from '@/lib/server/team/session';
+import { hashPassword } from '@/lib/server/team/passwords';
 
 export const uid = () => randomUUID().slice(0, 8);
 

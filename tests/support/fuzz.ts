@@ -1,7 +1,7 @@
 // Shared pieces of the property-based fuzz tests (fast-check).
 import fc from 'fast-check';
 import { expect } from 'vitest';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 
 /** Values of the wrong type, out of range, or awkward: what a hostile client sends in a field. */
 export const hostileValue: fc.Arbitrary<unknown> = fc.oneof(

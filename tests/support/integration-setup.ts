@@ -10,6 +10,6 @@ process.env.SMTP_PORT ??= '2025';
  * them directly and say who is signed in with `signInAs(user)` from ./factories (null =
  * signed out); the real Auth.js cookie path is covered by the end-to-end tier.
  */
-vi.mock('@/lib/server/session', () => ({
+vi.mock('@/lib/server/team/session', () => ({
   currentUser: async () => (globalThis as { __testUser?: unknown }).__testUser ?? null,
 }));

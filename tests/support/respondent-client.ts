@@ -4,7 +4,7 @@ import { POST as start } from '@/app/api/r/[token]/start/route';
 import { POST as answer } from '@/app/api/r/[token]/answer/route';
 import { POST as complete } from '@/app/api/r/[token]/complete/route';
 import { GET as state } from '@/app/api/r/[token]/state/route';
-import type { FlowState, PublicTrial } from '@/lib/respondent/types';
+import type { FlowState, PublicTrial } from '@/respondent/shared/types';
 import { callRoute } from './factories';
 
 export type Started = FlowState & { resumeToken: string };

@@ -1,6 +1,6 @@
 // Live studies with a respondent link, made directly through the data layer for respondent tests.
 import { randomBytes } from 'node:crypto';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { studyDesignSchema, type StudyDesign, type StudyDesignInput } from '@/lib/schemas/study.schema';
 import { Study } from '@/entities/study';
 import { RespondentLink } from '@/entities/respondent-link';

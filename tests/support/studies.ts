@@ -1,6 +1,6 @@
 // Test studies with simulated responses, inserted straight into the tables.
 import { randomUUID } from 'node:crypto';
-import { em } from '@/lib/server/db';
+import { em } from '@/lib/server/db/orm';
 import { DEMO_DESIGN, DEMO_SIM } from '@/scripts/seed/demo-study';
 import { insertRespondents, simulateRespondents, type SimParams } from '@/scripts/seed/simulate-responses';
 
@@ -27,13 +27,13 @@ export async function makeSimulatedStudy(workspaceSlug: string, opts: { state?: 
 
 /** Runs the fit job for the study's current data version and rules (what the worker would do). */
 export async function fitNow(studyId: string, opts: { segment?: { questionId: string; answer: string } | null } = {}) {
-  const { fitCacheKey, runFitJob } = await import('@/lib/server/analysis');
+  const { fitCacheKey, runFitJob } = await import('@/lib/server/analysis/study-fit');
   const { Study } = await import('@/entities/study');
-  const { toStudyInfo } = await import('@/lib/server/study-data');
+  const { toStudyInfo } = await import('@/lib/server/analysis/cells');
   const db = await em();
   const s = toStudyInfo(await db.findOneOrFail(Study, { id: studyId }, { refresh: true }));
   const { cacheKey } = fitCacheKey(s, opts);
-  const { requestComputation } = await import('@/lib/server/analysis-cache');
+  const { requestComputation } = await import('@/lib/server/analysis/cache');
   await requestComputation(db, { studyId, kind: 'fit', cacheKey, dataVersion: s.dataVersion, queue: 'analysis', payload: { segment: opts.segment ?? null, target: null } });
   await runFitJob({ studyId, kind: 'fit', cacheKey, dataVersion: s.dataVersion, segment: opts.segment ?? null, target: null });
 }

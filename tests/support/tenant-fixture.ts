@@ -2,10 +2,10 @@
 // unrelated workspace B, for the route-tree isolation tests.
 import { POST as storeList } from '@/app/api/w/[workspace]/price-lists/route';
 import { POST as createPlan } from '@/app/api/w/[workspace]/promo-plans/route';
-import { em } from '@/lib/server/db';
-import { authorise } from '@/lib/server/membership';
-import { createApiToken } from '@/lib/server/api-tokens';
-import { newToken } from '@/lib/server/tokens';
+import { em } from '@/lib/server/db/orm';
+import { authorise } from '@/lib/server/team/membership';
+import { createApiToken } from '@/lib/server/team/access-tokens';
+import { newToken } from '@/lib/server/platform/tokens';
 import { Invitation } from '@/entities/invitation';
 import { Purchase } from '@/entities/purchase';
 import { demoPriceListCsv } from '@/scripts/seed/demo-price-list';

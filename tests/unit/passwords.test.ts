@@ -5,7 +5,7 @@ process.env.DATABASE_URL ??= 'postgresql://x@127.0.0.1:1/x';
 process.env.AUTH_SECRET ??= 'unit-tests-secret-0123456789abcdefghijkl';
 
 describe('password hashing', async () => {
-  const { hashPassword, verifyPassword } = await import('@/lib/server/passwords');
+  const { hashPassword, verifyPassword } = await import('@/lib/server/team/passwords');
   it('stores a salted bcrypt hash, never the password', async () => {
     const a = await hashPassword('correct horse battery');
     const b = await hashPassword('correct horse battery');

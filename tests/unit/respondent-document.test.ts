@@ -1,9 +1,9 @@
 import { createElement } from 'react';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
-import { ConsentScreen } from '@/components/respondent/consent-screen';
-import { bootJson, type RespondentBoot } from '@/lib/respondent/boot';
-import { consentHtml } from '@/lib/respondent/consent-html';
+import { ConsentScreen } from '@/respondent/client/consent-screen';
+import { bootJson, type RespondentBoot } from '@/respondent/shared/boot';
+import { consentHtml } from '@/respondent/server/consent-html';
 
 // The take-part document's consent form is plain HTML; the live flow then renders ConsentScreen
 // over it. Both must be the same markup, or the page would change under the respondent's thumb.

@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { studyDesignSchema, trialsPerRespondent, type StudyDesignInput } from '@/lib/schemas/study.schema';
-import { generatePlan } from '@/lib/respondent/plan';
-import { nextAdaptiveTrial, type AnsweredTrial } from '@/lib/respondent/adaptive';
-import { expectedTrial } from '@/lib/respondent/screens';
-import { shownDiscount, shownPrice, formatPrice } from '@/lib/respondent/price';
+import { generatePlan } from '@/respondent/shared/plan';
+import { nextAdaptiveTrial, type AnsweredTrial } from '@/respondent/shared/adaptive';
+import { expectedTrial } from '@/respondent/shared/screens';
+import { shownDiscount, shownPrice, formatPrice } from '@/respondent/shared/price';
 import { applyPriceEnding } from '@/lib/psychometrics/promo-floor';
-import type { FixedPlan, AdaptivePlan } from '@/lib/respondent/types';
+import type { FixedPlan, AdaptivePlan } from '@/respondent/shared/types';
 
 const design = (over: Partial<StudyDesignInput> = {}) => studyDesignSchema.parse({
   name: 'Plan test', itemName: 'Coffee beans', category: 'Pantry', currency: 'EUR', locale: 'de-DE', task: 'pick',

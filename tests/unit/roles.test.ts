@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { hasRole, ROLES, roleRank } from '@/lib/roles';
-import { checkMembership } from '@/lib/server/membership';
-import { AppError } from '@/lib/server/errors';
+import { checkMembership } from '@/lib/server/team/membership';
+import { AppError } from '@/lib/server/http/errors';
 
 const user = { id: 'u1', email: 'a@b.example', name: 'A' };
 const ws = { id: 'w1', slug: 'acme', name: 'Acme' };

@@ -3,7 +3,7 @@ import { parseLadder } from '@/app/(app)/w/[workspace]/studies/_components/ladde
 import { summarise } from '@/app/(app)/w/[workspace]/studies/_components/builder-summary';
 import { studyDesignSchema, trialsPerRespondent, estimatedMinutes } from '@/lib/schemas/study.schema';
 import { allowedActions } from '@/lib/study-states';
-import { sniffPicture } from '@/lib/server/assets';
+import { sniffPicture } from '@/lib/server/studies/assets';
 import { validDesign, TINY_PNG } from '../support/study-fixtures';
 
 describe('builder helpers', () => {

@@ -1,9 +1,9 @@
 'use server';
-import { actionResult } from '@/lib/server/actions';
-import { completePasswordReset, requestPasswordReset } from '@/lib/server/password-reset';
-import { listWorkspacesByEmail } from '@/lib/server/membership';
-import { actionClientIp, limit } from '@/lib/server/rate-limit';
-import { startSession } from '@/lib/server/start-session';
+import { actionResult } from '@/lib/server/http/action';
+import { completePasswordReset, requestPasswordReset } from '@/lib/server/team/password-reset';
+import { listWorkspacesByEmail } from '@/lib/server/team/membership';
+import { actionClientIp, limit } from '@/lib/server/platform/rate-limit';
+import { startSession } from '@/lib/server/team/start-session';
 import { newPasswordSchema, resetRequestSchema } from '@/lib/schemas/team.schema';
 
 export async function requestResetAction(input: unknown) {

@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
-import { userRoute } from '@/lib/server/api';
-import { listWorkspaces } from '@/lib/server/membership';
+import { userRoute } from '@/lib/server/http/route';
+import { listWorkspaces } from '@/lib/server/team/membership';
 
 export const GET = userRoute(async (_req, user) => {
   const workspaces = await listWorkspaces(user.id);

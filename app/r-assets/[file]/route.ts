@@ -1,7 +1,7 @@
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import type { NextRequest } from 'next/server';
-import { RESPONDENT_DIST } from '@/lib/server/respondent-document';
+import { RESPONDENT_DIST } from '@/respondent/server/document';
 
 const TYPES: Record<string, string> = {
   js: 'text/javascript; charset=utf-8',

@@ -1,5 +1,5 @@
 import Link from 'next/link';
-import { requireRole } from '@/lib/server/guards';
+import { requireRole } from '@/lib/server/http/page-guard';
 import { ROLE_LABELS } from '@/lib/roles';
 import { WorkspaceSwitcher } from '@/components/shell/workspace-switcher';
 import { SectionNav } from '@/components/shell/section-nav';

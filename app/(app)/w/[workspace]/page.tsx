@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { requireRole } from '@/lib/server/guards';
-import { listStudies } from '@/lib/server/studies';
+import { requireRole } from '@/lib/server/http/page-guard';
+import { listStudies } from '@/lib/server/studies/studies';
 import { hasRole } from '@/lib/roles';
 import { PageTitle } from '@/components/ui/page-title';
 import { EmptyState } from '@/components/ui/empty-state';

@@ -1,10 +1,10 @@
 'use server';
-import { actionResult } from '@/lib/server/actions';
-import { AppError } from '@/lib/server/errors';
-import { acceptInvitation, signUpWithInvitation } from '@/lib/server/invitations';
-import { actionClientIp, limit } from '@/lib/server/rate-limit';
-import { currentUser } from '@/lib/server/session';
-import { startSession } from '@/lib/server/start-session';
+import { actionResult } from '@/lib/server/http/action';
+import { AppError } from '@/lib/server/http/errors';
+import { acceptInvitation, signUpWithInvitation } from '@/lib/server/team/invitations';
+import { actionClientIp, limit } from '@/lib/server/platform/rate-limit';
+import { currentUser } from '@/lib/server/team/session';
+import { startSession } from '@/lib/server/team/start-session';
 import { inviteSignUpSchema } from '@/lib/schemas/team.schema';
 
 export async function acceptInviteAction(token: string) {

@@ -1,8 +1,8 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { connection } from 'next/server';
-import { describeInvitation, REFUSED } from '@/lib/server/invitations';
-import { currentUser } from '@/lib/server/session';
+import { describeInvitation, REFUSED } from '@/lib/server/team/invitations';
+import { currentUser } from '@/lib/server/team/session';
 import { ROLE_LABELS } from '@/lib/roles';
 import { signOutAction } from '../../actions';
 import { JoinButton } from './join-button';

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { connection } from 'next/server';
-import { resetTokenUsable, RESET_REFUSED } from '@/lib/server/password-reset';
+import { resetTokenUsable, RESET_REFUSED } from '@/lib/server/team/password-reset';
 import { NewPasswordForm } from './new-password-form';
 
 export const metadata: Metadata = { title: 'Choose a new password' };

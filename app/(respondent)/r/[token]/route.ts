@@ -1,7 +1,7 @@
 import type { NextRequest } from 'next/server';
-import { em } from '@/lib/server/db';
-import { linkRefusal, loadLink } from '@/lib/server/respondent-links';
-import { plainPage } from '@/lib/respondent/plain-page';
+import { em } from '@/lib/server/db/orm';
+import { linkRefusal, loadLink } from '@/respondent/server/link';
+import { plainPage } from '@/respondent/server/plain-page';
 
 /**
  * The shared link. Unknown, closed or paused links answer here with a plain page and a real

@@ -1,5 +1,5 @@
-import { jsonError } from '@/lib/server/api';
-import { readPicture } from '@/lib/server/assets';
+import { jsonError } from '@/lib/server/http/route';
+import { readPicture } from '@/lib/server/studies/assets';
 
 /** Public: the respondent page shows the picture. Ids are random UUIDs and an upload never changes. */
 export async function GET(_req: Request, { params }: { params: Promise<{ id: string }> }) {

@@ -1,7 +1,7 @@
 import type { NextRequest } from 'next/server';
-import { handlers } from '@/lib/server/auth';
-import { toErrorResponse } from '@/lib/server/api';
-import { clientIp, limit } from '@/lib/server/rate-limit';
+import { handlers } from '@/lib/server/team/auth';
+import { toErrorResponse } from '@/lib/server/http/route';
+import { clientIp, limit } from '@/lib/server/platform/rate-limit';
 
 export const { GET } = handlers;
 

@@ -1,6 +1,6 @@
 import { NextResponse, type NextRequest } from 'next/server';
-import { toErrorResponse } from '@/lib/server/api';
-import { applyStripeEvent, verifyStripeEvent } from '@/lib/server/billing-webhook';
+import { toErrorResponse } from '@/lib/server/http/route';
+import { applyStripeEvent, verifyStripeEvent } from '@/lib/server/billing/webhook';
 
 /** Stripe's webhook: the raw body is verified against the signing secret before anything else. */
 export async function POST(req: NextRequest) {

@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/api';
-import { getWorkspaceSettings, updateWorkspaceSettings } from '@/lib/server/workspaces';
+import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { getWorkspaceSettings, updateWorkspaceSettings } from '@/lib/server/team/workspaces';
 import { workspaceSettingsSchema } from '@/lib/schemas/workspace.schema';
 
 export const GET = workspaceRoute('viewer', async (_req, ctx) => NextResponse.json(await getWorkspaceSettings(ctx)));

@@ -2,7 +2,7 @@
 import { useMemo, useState } from 'react';
 import Link from 'next/link';
 import { createColumnHelper, flexRender, getCoreRowModel, getFilteredRowModel, getSortedRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
-import type { StudySummary } from '@/lib/server/studies';
+import type { StudySummary } from '@/lib/server/studies/studies';
 import { TASK_LABELS } from '@/lib/schemas/study.schema';
 import { STUDY_STATE_LABELS, type StudyStateName } from '@/lib/study-states';
 import { StudyStatePill } from '@/components/studies/study-state-pill';

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import { connection } from 'next/server';
-import { requireRole } from '@/lib/server/guards';
-import { billingOverview } from '@/lib/server/billing';
+import { requireRole } from '@/lib/server/http/page-guard';
+import { billingOverview } from '@/lib/server/billing/checkout';
 import { BUNDLES } from '@/lib/billing-bundles';
 import { PageTitle } from '@/components/ui/page-title';
 import { BundleCard } from './_components/bundle-card';

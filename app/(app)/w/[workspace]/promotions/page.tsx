@@ -1,9 +1,9 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { requireRole } from '@/lib/server/guards';
+import { requireRole } from '@/lib/server/http/page-guard';
 import { hasRole } from '@/lib/roles';
-import { listPriceLists } from '@/lib/server/price-lists';
-import { listPromoPlans } from '@/lib/server/promo-plans';
+import { listPriceLists } from '@/lib/server/promotions/price-lists';
+import { listPromoPlans } from '@/lib/server/promotions/plans';
 import { FLOOR_MODEL_SHORT } from '@/lib/promo/model-choice';
 import { formatTarget } from '@/lib/promo/format';
 import { PRICE_ENDING_LABELS } from '@/lib/schemas/study.schema';

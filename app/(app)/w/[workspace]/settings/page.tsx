@@ -1,9 +1,9 @@
 import type { Metadata } from 'next';
-import { requireRole } from '@/lib/server/guards';
-import { getWorkspaceSettings } from '@/lib/server/workspaces';
-import { listApiTokens } from '@/lib/server/api-tokens';
+import { requireRole } from '@/lib/server/http/page-guard';
+import { getWorkspaceSettings } from '@/lib/server/team/workspaces';
+import { listApiTokens } from '@/lib/server/team/access-tokens';
 import { PageTitle } from '@/components/ui/page-title';
-import { env } from '@/lib/server/env';
+import { env } from '@/lib/server/platform/env';
 import { SettingsForm } from './settings-form';
 import { AccessTokens } from './_components/access-tokens';
 

@@ -1,8 +1,8 @@
 import type { Metadata } from 'next';
 import { connection } from 'next/server';
-import { requireRole } from '@/lib/server/guards';
-import { listMembers } from '@/lib/server/team';
-import { listPendingInvitations } from '@/lib/server/invitations';
+import { requireRole } from '@/lib/server/http/page-guard';
+import { listMembers } from '@/lib/server/team/members';
+import { listPendingInvitations } from '@/lib/server/team/invitations';
 import { PageTitle } from '@/components/ui/page-title';
 import { MembersTable } from './_components/members-table';
 import { InviteForm } from './_components/invite-form';

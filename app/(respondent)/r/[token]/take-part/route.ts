@@ -1,11 +1,11 @@
 import type { NextRequest } from 'next/server';
-import { em } from '@/lib/server/db';
-import { linkRefusal, loadLink, resumeCookieName } from '@/lib/server/respondent-links';
-import { findByResume, stateOf } from '@/lib/server/respondents';
-import { openForNewRespondents } from '@/lib/server/seat-use';
-import { noticeHtml, respondentDocument, WAITING_HTML } from '@/lib/server/respondent-document';
-import { consentHtml } from '@/lib/respondent/consent-html';
-import { flowStudy } from '@/lib/respondent/screens';
+import { em } from '@/lib/server/db/orm';
+import { linkRefusal, loadLink, resumeCookieName } from '@/respondent/server/link';
+import { findByResume, stateOf } from '@/respondent/server/respondents';
+import { openForNewRespondents } from '@/lib/server/billing/seat-holds';
+import { noticeHtml, respondentDocument, WAITING_HTML } from '@/respondent/server/document';
+import { consentHtml } from '@/respondent/server/consent-html';
+import { flowStudy } from '@/respondent/shared/screens';
 
 const TITLE = 'Price survey';
 

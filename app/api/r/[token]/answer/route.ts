@@ -1,9 +1,9 @@
 import { NextResponse, type NextRequest } from 'next/server';
-import { readJson } from '@/lib/server/api';
-import { em } from '@/lib/server/db';
-import { answerSchema, recordAnswer } from '@/lib/server/respondent-answers';
-import { clientIp, limit } from '@/lib/server/rate-limit';
-import { respondentRoute, resumeTokenFrom } from '@/lib/server/respondent-http';
+import { readJson } from '@/lib/server/http/route';
+import { em } from '@/lib/server/db/orm';
+import { answerSchema, recordAnswer } from '@/respondent/server/answers';
+import { clientIp, limit } from '@/lib/server/platform/rate-limit';
+import { respondentRoute, resumeTokenFrom } from '@/respondent/server/http';
 
 /** POST {clientId, idx, answer, responseMs}: stores one answer, idempotent on the client id. */
 export const POST = respondentRoute(async (req: NextRequest, token: string) => {

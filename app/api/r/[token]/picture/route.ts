@@ -1,7 +1,7 @@
 import type { NextRequest } from 'next/server';
-import { em } from '@/lib/server/db';
-import { AppError } from '@/lib/server/errors';
-import { loadLink } from '@/lib/server/respondent-links';
+import { em } from '@/lib/server/db/orm';
+import { AppError } from '@/lib/server/http/errors';
+import { loadLink } from '@/respondent/server/link';
 
 /** GET: the study's item picture, for the trial screens (only through a known link). */
 export async function GET(_req: NextRequest, ctx: { params: Promise<{ token: string }> }) {

@@ -1,10 +1,10 @@
 import { NextResponse, type NextRequest } from 'next/server';
-import { readJson } from '@/lib/server/api';
-import { AppError } from '@/lib/server/errors';
-import { clientIp, limit } from '@/lib/server/rate-limit';
-import { respondentRoute, resumeTokenFrom, setResumeCookie } from '@/lib/server/respondent-http';
-import { startRespondent, startSchema } from '@/lib/server/respondents';
-import { plainPage } from '@/lib/respondent/plain-page';
+import { readJson } from '@/lib/server/http/route';
+import { AppError } from '@/lib/server/http/errors';
+import { clientIp, limit } from '@/lib/server/platform/rate-limit';
+import { respondentRoute, resumeTokenFrom, setResumeCookie } from '@/respondent/server/http';
+import { startRespondent, startSchema } from '@/respondent/server/respondents';
+import { plainPage } from '@/respondent/server/plain-page';
 
 /**
  * POST: agree and start (or resume). JSON from the page's script; a plain form post (the

@@ -1,10 +1,10 @@
 import { NextResponse, type NextRequest } from 'next/server';
-import { em } from '@/lib/server/db';
-import { AppError } from '@/lib/server/errors';
-import { clientIp, limit } from '@/lib/server/rate-limit';
-import { respondentRoute, resumeTokenFrom } from '@/lib/server/respondent-http';
-import { openLink } from '@/lib/server/respondent-links';
-import { findByResume, stateOf } from '@/lib/server/respondents';
+import { em } from '@/lib/server/db/orm';
+import { AppError } from '@/lib/server/http/errors';
+import { clientIp, limit } from '@/lib/server/platform/rate-limit';
+import { respondentRoute, resumeTokenFrom } from '@/respondent/server/http';
+import { openLink } from '@/respondent/server/link';
+import { findByResume, stateOf } from '@/respondent/server/respondents';
 
 /** GET: the respondent's next screens (resume after closing the tab). */
 export const GET = respondentRoute(async (req: NextRequest, token: string) => {

@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/api';
-import { AppError } from '@/lib/server/errors';
-import { checkUploadLength, savePicture } from '@/lib/server/assets';
+import { workspaceRoute } from '@/lib/server/http/route';
+import { AppError } from '@/lib/server/http/errors';
+import { checkUploadLength, savePicture } from '@/lib/server/studies/assets';
 
 /** Item picture upload: multipart/form-data with one field "file". */
 export const POST = workspaceRoute('analyst', async (req, ctx) => {

@@ -1,6 +1,6 @@
-import { workspaceRoute, zodIssues } from '@/lib/server/api';
-import { AppError } from '@/lib/server/errors';
-import { importNewStudy, importResponse, readUpload } from '@/lib/server/imports';
+import { workspaceRoute, zodIssues } from '@/lib/server/http/route';
+import { AppError } from '@/lib/server/http/errors';
+import { importNewStudy, importResponse, readUpload } from '@/lib/server/studies/response-import';
 import { importedStudySchema } from '@/lib/schemas/import.schema';
 
 /** Creates a study of state "imported" from a minimal design plus the uploaded responses (one transaction). */

@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/api';
-import { inviteMember, listPendingInvitations } from '@/lib/server/invitations';
+import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { inviteMember, listPendingInvitations } from '@/lib/server/team/invitations';
 import { inviteSchema } from '@/lib/schemas/team.schema';
 
 export const GET = workspaceRoute('owner', async (_req, ctx) => NextResponse.json({ invitations: await listPendingInvitations(ctx) }));

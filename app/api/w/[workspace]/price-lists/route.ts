@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/api';
-import { createPriceList, listPriceLists, parseMeta, readCsvUpload } from '@/lib/server/price-lists';
+import { workspaceRoute } from '@/lib/server/http/route';
+import { createPriceList, listPriceLists, parseMeta, readCsvUpload } from '@/lib/server/promotions/price-lists';
 
 export const GET = workspaceRoute('viewer', async (_req, ctx) => NextResponse.json({ priceLists: await listPriceLists(ctx) }));
 

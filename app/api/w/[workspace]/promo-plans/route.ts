@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/api';
+import { readJson, workspaceRoute } from '@/lib/server/http/route';
 import { promoPlanCreateSchema } from '@/lib/schemas/promo-plan.schema';
-import { createPromoPlan, listPromoPlans } from '@/lib/server/promo-plans';
+import { createPromoPlan, listPromoPlans } from '@/lib/server/promotions/plans';
 
 export const GET = workspaceRoute('viewer', async (_req, ctx) => NextResponse.json({ plans: await listPromoPlans(ctx) }));
 

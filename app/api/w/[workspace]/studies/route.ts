@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/api';
-import { createStudy, listStudies } from '@/lib/server/studies';
+import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { createStudy, listStudies } from '@/lib/server/studies/studies';
 import { studyDesignSchema } from '@/lib/schemas/study.schema';
 
 export const GET = workspaceRoute('viewer', async (_req, ctx) => NextResponse.json({ studies: await listStudies(ctx) }));

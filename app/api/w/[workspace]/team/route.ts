@@ -1,5 +1,5 @@
 import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/api';
-import { listMembers } from '@/lib/server/team';
+import { workspaceRoute } from '@/lib/server/http/route';
+import { listMembers } from '@/lib/server/team/members';
 
 export const GET = workspaceRoute('viewer', async (_req, ctx) => NextResponse.json({ members: await listMembers(ctx) }));

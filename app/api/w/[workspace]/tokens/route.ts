@@ -1,5 +1,5 @@
-import { readJson, workspaceRoute } from '@/lib/server/api';
-import { createApiToken, listApiTokens } from '@/lib/server/api-tokens';
+import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { createApiToken, listApiTokens } from '@/lib/server/team/access-tokens';
 import { apiTokenCreateSchema } from '@/lib/schemas/api-token.schema';
 
 /** The signed-in analyst's own access tokens in this workspace. */

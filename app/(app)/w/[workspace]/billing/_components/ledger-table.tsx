@@ -1,4 +1,4 @@
-import type { BillingOverview } from '@/lib/server/billing';
+import type { BillingOverview } from '@/lib/server/billing/checkout';
 import { EmptyState } from '@/components/ui/empty-state';
 
 const REASONS: Record<string, string> = {

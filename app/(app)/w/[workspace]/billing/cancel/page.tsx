@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { requireRole } from '@/lib/server/guards';
+import { requireRole } from '@/lib/server/http/page-guard';
 import { PageTitle } from '@/components/ui/page-title';
 
 export const metadata: Metadata = { title: 'Payment cancelled' };

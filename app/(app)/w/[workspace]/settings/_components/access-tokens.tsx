@@ -4,7 +4,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiTokenCreateSchema, type ApiTokenCreate } from '@/lib/schemas/api-token.schema';
-import type { ApiTokenDto } from '@/lib/server/api-tokens';
+import type { ApiTokenDto } from '@/lib/server/team/access-tokens';
 import { TextField } from '@/components/ui/text-field';
 import { ApiRequestError, fetchJson } from '@/lib/fetch-json';
 

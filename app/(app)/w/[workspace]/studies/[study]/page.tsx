@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { requireRole } from '@/lib/server/guards';
-import { pageStudy } from '@/lib/server/study-pages';
+import { requireRole } from '@/lib/server/http/page-guard';
+import { pageStudy } from '@/lib/server/http/not-found';
 import { hasRole } from '@/lib/roles';
 import { isEditable } from '@/lib/study-states';
 import { PageTitle } from '@/components/ui/page-title';

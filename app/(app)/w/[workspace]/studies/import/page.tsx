@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import { PageTitle } from '@/components/ui/page-title';
-import { requireRole } from '@/lib/server/guards';
+import { requireRole } from '@/lib/server/http/page-guard';
 import { ImportForm } from '../[study]/import/_components/import-form';
 
 export const metadata: Metadata = { title: 'Import responses into a new study' };

@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import { requireRole } from '@/lib/server/guards';
+import { requireRole } from '@/lib/server/http/page-guard';
 import { newStudyDefaults, randomSeed } from '@/lib/study-defaults';
 import { PageTitle } from '@/components/ui/page-title';
 import { StudyBuilder } from '../_components/study-builder';

@@ -3,7 +3,7 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { fetchJson } from '@/lib/fetch-json';
 import { ROLES, ROLE_LABELS, type Role } from '@/lib/roles';
-import type { MemberRow } from '@/lib/server/team';
+import type { MemberRow } from '@/lib/server/team/members';
 import { day } from './dates';
 
 export function MembersTable({ slug, members, canManage }: { slug: string; members: MemberRow[]; canManage: boolean }) {

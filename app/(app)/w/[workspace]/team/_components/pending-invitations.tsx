@@ -3,7 +3,7 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { fetchJson } from '@/lib/fetch-json';
 import { ROLE_LABELS } from '@/lib/roles';
-import type { PendingInvitation } from '@/lib/server/invitations';
+import type { PendingInvitation } from '@/lib/server/team/invitations';
 import { day } from './dates';
 
 export function PendingInvitations({ slug, invitations }: { slug: string; invitations: PendingInvitation[] }) {

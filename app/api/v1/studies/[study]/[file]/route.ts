@@ -1,5 +1,5 @@
-import { tokenRoute } from '@/lib/server/api-tokens';
-import { exportDownload } from '@/lib/server/exports';
+import { tokenRoute } from '@/lib/server/team/access-tokens';
+import { exportDownload } from '@/lib/server/analysis/exports';
 
 /** thresholds.csv | thresholds-about.csv | thresholds.json | report.json | trials.csv, as in the app. */
 export const GET = tokenRoute<{ study: string; file: string }>(async (req, ctx, { study, file }) =>

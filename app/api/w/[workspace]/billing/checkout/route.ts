@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/api';
-import { createCheckout } from '@/lib/server/billing';
+import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { createCheckout } from '@/lib/server/billing/checkout';
 import { checkoutSchema } from '@/lib/schemas/billing.schema';
 
 /** Owner only: opens a Stripe Checkout Session; the client then goes to its `url`. */

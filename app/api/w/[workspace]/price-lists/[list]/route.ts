@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/api';
-import { deletePriceList, getPriceList } from '@/lib/server/price-lists';
+import { workspaceRoute } from '@/lib/server/http/route';
+import { deletePriceList, getPriceList } from '@/lib/server/promotions/price-lists';
 
 type Params = { workspace: string; list: string };
 

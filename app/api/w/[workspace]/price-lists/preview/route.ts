@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/api';
+import { workspaceRoute } from '@/lib/server/http/route';
 import { parsePriceList } from '@/lib/promo/parse-price-list';
-import { previewDto, readCsvUpload } from '@/lib/server/price-lists';
+import { previewDto, readCsvUpload } from '@/lib/server/promotions/price-lists';
 
 /** The preview step: the first rows and every error, nothing stored. */
 export const POST = workspaceRoute('analyst', async (req) => {

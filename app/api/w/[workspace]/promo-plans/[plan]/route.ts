@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/api';
-import { deletePromoPlan } from '@/lib/server/promo-plans';
-import { planTable } from '@/lib/server/promo-table';
+import { workspaceRoute } from '@/lib/server/http/route';
+import { deletePromoPlan } from '@/lib/server/promotions/plans';
+import { planTable } from '@/lib/server/promotions/plan-table';
 
 type Params = { workspace: string; plan: string };
 

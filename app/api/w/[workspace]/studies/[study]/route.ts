@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/api';
-import { deleteStudy, getStudy, updateStudy } from '@/lib/server/studies';
+import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { deleteStudy, getStudy, updateStudy } from '@/lib/server/studies/studies';
 import { studyDesignSchema } from '@/lib/schemas/study.schema';
 
 type P = { workspace: string; study: string };

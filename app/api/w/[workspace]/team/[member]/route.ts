@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
-import { requireUuid } from '@/lib/server/ids';
-import { readJson, workspaceRoute } from '@/lib/server/api';
-import { changeRole, removeMember } from '@/lib/server/team';
+import { requireUuid } from '@/lib/server/platform/ids';
+import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { changeRole, removeMember } from '@/lib/server/team/members';
 import { changeRoleSchema } from '@/lib/schemas/team.schema';
 
 type P = { workspace: string; member: string };

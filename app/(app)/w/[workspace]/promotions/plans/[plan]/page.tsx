@@ -1,9 +1,9 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
-import { requireRole } from '@/lib/server/guards';
-import { AppError } from '@/lib/server/errors';
-import { planTable } from '@/lib/server/promo-table';
+import { requireRole } from '@/lib/server/http/page-guard';
+import { AppError } from '@/lib/server/http/errors';
+import { planTable } from '@/lib/server/promotions/plan-table';
 import { hasRole } from '@/lib/roles';
 import { PageTitle } from '@/components/ui/page-title';
 import { PromoFloorChart } from '@/components/charts/promo-floor-chart';

@@ -1,8 +1,8 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { requireRole } from '@/lib/server/guards';
-import { listFittableStudies } from '@/lib/server/analysis';
-import { listPriceLists } from '@/lib/server/price-lists';
+import { requireRole } from '@/lib/server/http/page-guard';
+import { listFittableStudies } from '@/lib/server/analysis/study-fit';
+import { listPriceLists } from '@/lib/server/promotions/price-lists';
 import { PageTitle } from '@/components/ui/page-title';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PlanForm } from './_components/plan-form';

@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { requireRole } from '@/lib/server/guards';
+import { requireRole } from '@/lib/server/http/page-guard';
 import { PageTitle } from '@/components/ui/page-title';
 import { PRICE_LIST_MAX_ROWS } from '@/lib/schemas/price-list.schema';
 import { UploadForm } from './_components/upload-form';

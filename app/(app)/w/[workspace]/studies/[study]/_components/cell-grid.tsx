@@ -1,4 +1,4 @@
-import type { FieldworkDto } from '@/lib/server/fieldwork';
+import type { FieldworkDto } from '@/lib/server/studies/fieldwork';
 
 /** Answers per cell: base prices down, rungs across; catch and off-ladder trials in their own columns. */
 export function CellGrid({ data }: { data: FieldworkDto }) {

@@ -1,4 +1,4 @@
-import type { StudyDetail } from '@/lib/server/studies';
+import type { StudyDetail } from '@/lib/server/studies/studies';
 import { estimatedMinutes, PRICE_ENDING_LABELS, STAIRCASE_RULE_LABELS, TASK_LABELS, trialsPerRespondent } from '@/lib/schemas/study.schema';
 
 const dt = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });

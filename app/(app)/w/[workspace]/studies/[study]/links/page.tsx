@@ -1,8 +1,8 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { requireRole } from '@/lib/server/guards';
-import { pageStudy } from '@/lib/server/study-pages';
-import { listLinks } from '@/lib/server/study-links';
+import { requireRole } from '@/lib/server/http/page-guard';
+import { pageStudy } from '@/lib/server/http/not-found';
+import { listLinks } from '@/lib/server/studies/respondent-links';
 import { hasRole } from '@/lib/roles';
 import { PageTitle } from '@/components/ui/page-title';
 import { StudyStatePill } from '@/components/studies/study-state-pill';

@@ -1,10 +1,10 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { requireRole } from '@/lib/server/guards';
-import { pageStudy } from '@/lib/server/study-pages';
-import { getWorkspaceSettings } from '@/lib/server/workspaces';
+import { requireRole } from '@/lib/server/http/page-guard';
+import { pageStudy } from '@/lib/server/http/not-found';
+import { getWorkspaceSettings } from '@/lib/server/team/workspaces';
 import { PageTitle } from '@/components/ui/page-title';
-import { RespondentPreview } from '@/components/respondent/respondent-preview';
+import { RespondentPreview } from '@/respondent/client/respondent-preview';
 
 export const metadata: Metadata = { title: 'Preview' };
 

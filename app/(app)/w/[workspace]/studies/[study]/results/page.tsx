@@ -3,10 +3,10 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { connection } from 'next/server';
 import { PageTitle } from '@/components/ui/page-title';
-import { requireRole } from '@/lib/server/guards';
-import { em } from '@/lib/server/db';
-import { AppError } from '@/lib/server/errors';
-import { findStudy } from '@/lib/server/study-data';
+import { requireRole } from '@/lib/server/http/page-guard';
+import { em } from '@/lib/server/db/orm';
+import { AppError } from '@/lib/server/http/errors';
+import { findStudy } from '@/lib/server/analysis/cells';
 import { hasRole } from '@/lib/roles';
 import { ResultsView } from './_components/results-view';
 

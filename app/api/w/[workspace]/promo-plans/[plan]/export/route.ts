@@ -1,6 +1,6 @@
-import { workspaceRoute } from '@/lib/server/api';
-import { AppError } from '@/lib/server/errors';
-import { EXPORT_FORMATS, exportPlan, type ExportFormat } from '@/lib/server/promo-export';
+import { workspaceRoute } from '@/lib/server/http/route';
+import { AppError } from '@/lib/server/http/errors';
+import { EXPORT_FORMATS, exportPlan, type ExportFormat } from '@/lib/server/promotions/plan-export';
 
 type Params = { workspace: string; plan: string };
 

@@ -1,8 +1,8 @@
 import { NextResponse } from 'next/server';
-import { workspaceRoute, zodIssues } from '@/lib/server/api';
-import { AppError } from '@/lib/server/errors';
+import { workspaceRoute, zodIssues } from '@/lib/server/http/route';
+import { AppError } from '@/lib/server/http/errors';
 import { queryRows, rowQuerySchema } from '@/lib/promo/query-rows';
-import { planTable } from '@/lib/server/promo-table';
+import { planTable } from '@/lib/server/promotions/plan-table';
 
 type Params = { workspace: string; plan: string };
 export type PlanRowsResponse = ReturnType<typeof queryRows> & { page: number; pageSize: number };

@@ -1,6 +1,6 @@
-import { readJson, workspaceRoute } from '@/lib/server/api';
+import { readJson, workspaceRoute } from '@/lib/server/http/route';
 import { exclusionRulesSchema } from '@/lib/schemas/exclusions.schema';
-import { getExclusions, saveExclusionRules } from '@/lib/server/exclusion-rules';
+import { getExclusions, saveExclusionRules } from '@/lib/server/analysis/exclusions';
 
 /** The rules in force and the respondents and trials they keep. */
 export const GET = workspaceRoute<{ workspace: string; study: string }>('viewer', async (_req, ctx, { study }) =>

@@ -1,5 +1,5 @@
-import { workspaceRoute } from '@/lib/server/api';
-import { importIntoStudy, importResponse, readUpload } from '@/lib/server/imports';
+import { workspaceRoute } from '@/lib/server/http/route';
+import { importIntoStudy, importResponse, readUpload } from '@/lib/server/studies/response-import';
 
 /**
  * Imports a CSV of responses into a closed or imported study (analysts and owners). With

@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/api';
-import { createLink, listLinks } from '@/lib/server/study-links';
+import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { createLink, listLinks } from '@/lib/server/studies/respondent-links';
 import { studyLinkSchema } from '@/lib/schemas/study-link.schema';
 
 type P = { workspace: string; study: string };

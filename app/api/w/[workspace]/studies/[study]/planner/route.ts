@@ -1,6 +1,6 @@
-import { workspaceRoute } from '@/lib/server/api';
-import { AppError } from '@/lib/server/errors';
-import { getPlan } from '@/lib/server/planner-analysis';
+import { workspaceRoute } from '@/lib/server/http/route';
+import { AppError } from '@/lib/server/http/errors';
+import { getPlan } from '@/lib/server/analysis/planner';
 import { plannerInputSchema } from '@/lib/schemas/results.schema';
 
 /** How many completes bring each threshold's interval under the chosen width (queued as a job). */

@@ -1,7 +1,7 @@
-import { workspaceRoute } from '@/lib/server/api';
-import { getFitState } from '@/lib/server/analysis';
+import { workspaceRoute } from '@/lib/server/http/route';
+import { getFitState } from '@/lib/server/analysis/study-fit';
 import { resultsQuerySchema } from '@/lib/schemas/results.schema';
-import { AppError } from '@/lib/server/errors';
+import { AppError } from '@/lib/server/http/errors';
 
 /** The fit of a study (ready, pending with progress, or empty) with its exclusion counts. */
 export const GET = workspaceRoute<{ workspace: string; study: string }>('viewer', async (req, ctx, { study }) => {

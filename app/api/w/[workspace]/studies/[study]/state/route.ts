@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/api';
-import { changeStudyState } from '@/lib/server/study-state';
+import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { changeStudyState } from '@/lib/server/studies/lifecycle';
 import { studyStateChangeSchema } from '@/lib/schemas/study-link.schema';
 
 export const POST = workspaceRoute<{ workspace: string; study: string }>('analyst', async (req, ctx, p) => {

@@ -1,4 +1,4 @@
-import type { PromoPlanDto } from '@/lib/server/promo-plans';
+import type { PromoPlanDto } from '@/lib/server/promotions/plans';
 import { FLOOR_MODEL_SHORT } from '@/lib/promo/model-choice';
 import { formatTarget } from '@/lib/promo/format';
 import { PRICE_ENDING_LABELS } from '@/lib/schemas/study.schema';

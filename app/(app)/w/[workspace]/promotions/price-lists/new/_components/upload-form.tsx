@@ -6,7 +6,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { priceListMetaSchema, PRICE_LIST_MAX_BYTES, type PriceListMeta } from '@/lib/schemas/price-list.schema';
 import { CURRENCIES } from '@/lib/schemas/study.schema';
 import { TextField } from '@/components/ui/text-field';
-import type { PriceListPreview } from '@/lib/server/price-lists';
+import type { PriceListPreview } from '@/lib/server/promotions/price-lists';
 import { UploadPreview } from './upload-preview';
 
 async function post(url: string, form: FormData) {

@@ -1,4 +1,4 @@
-import type { PriceListPreview } from '@/lib/server/price-lists';
+import type { PriceListPreview } from '@/lib/server/promotions/price-lists';
 
 export function UploadPreview({ preview }: { preview: PriceListPreview }) {
   return (

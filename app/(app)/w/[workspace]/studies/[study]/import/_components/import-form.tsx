@@ -6,7 +6,7 @@ import { useRouter } from 'next/navigation';
 import { importedStudySchema, IMPORT_MAX_BYTES, type ImportedStudyInput } from '@/lib/schemas/import.schema';
 import { CURRENCIES, TASKS, TASK_LABELS } from '@/lib/schemas/study.schema';
 import { TextField } from '@/components/ui/text-field';
-import type { ImportCheck } from '@/lib/server/imports';
+import type { ImportCheck } from '@/lib/server/studies/response-import';
 
 type Result = { check: ImportCheck; imported: { studyId: string; respondents: number; trials: number } | null };
 

@@ -2,7 +2,7 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { linksQuery, studyApi } from '@/lib/queries/studies';
 import { fetchJson } from '@/lib/fetch-json';
-import type { StudyLinkDto } from '@/lib/server/study-links';
+import type { StudyLinkDto } from '@/lib/server/studies/respondent-links';
 import { CopyButton } from './copy-button';
 import { NewLinkForm } from './new-link-form';
 

@@ -1,9 +1,9 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
 import { connection } from 'next/server';
-import { requireRole } from '@/lib/server/guards';
-import { AppError } from '@/lib/server/errors';
-import { getFitState, isPoorFit } from '@/lib/server/analysis';
+import { requireRole } from '@/lib/server/http/page-guard';
+import { AppError } from '@/lib/server/http/errors';
+import { getFitState, isPoorFit } from '@/lib/server/analysis/study-fit';
 import { describeRules } from '@/lib/schemas/exclusions.schema';
 import { fitCautions } from '@/lib/results-text';
 import { TASK_LABELS } from '@/lib/schemas/study.schema';

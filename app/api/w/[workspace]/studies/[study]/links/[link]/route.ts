@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/api';
-import { closeLink } from '@/lib/server/study-links';
+import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { closeLink } from '@/lib/server/studies/respondent-links';
 import { studyLinkPatchSchema } from '@/lib/schemas/study-link.schema';
 
 export const PATCH = workspaceRoute<{ workspace: string; study: string; link: string }>('analyst', async (req, ctx, p) => {

@@ -1,6 +1,6 @@
-import { workspaceRoute } from '@/lib/server/api';
-import { AppError } from '@/lib/server/errors';
-import { getSegmentComparison } from '@/lib/server/segment-analysis';
+import { workspaceRoute } from '@/lib/server/http/route';
+import { AppError } from '@/lib/server/http/errors';
+import { getSegmentComparison } from '@/lib/server/analysis/segments';
 
 /** Thresholds and Weber slope per answer group of one segment question, with the LR test. */
 export const GET = workspaceRoute<{ workspace: string; study: string }>('viewer', async (req, ctx, { study }) => {

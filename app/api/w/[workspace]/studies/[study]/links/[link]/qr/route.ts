@@ -1,6 +1,6 @@
 import QRCode from 'qrcode';
-import { workspaceRoute } from '@/lib/server/api';
-import { linkUrlFor } from '@/lib/server/study-links';
+import { workspaceRoute } from '@/lib/server/http/route';
+import { linkUrlFor } from '@/lib/server/studies/respondent-links';
 
 /** A PNG QR code of the link's URL, for printed material (medium error correction survives small smudges). */
 export const GET = workspaceRoute<{ workspace: string; study: string; link: string }>('viewer', async (_req, ctx, p) => {

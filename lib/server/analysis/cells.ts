@@ -1,0 +1,163 @@
+import 'server-only';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { Study, type IStudy } from '@/entities/study';
+import { brokenRules, emptyCounts, type ExclusionCounts, type RespondentQuality } from '@/lib/exclusions';
+import type { ExclusionRuleId, ExclusionRules } from '@/lib/schemas/exclusions.schema';
+import { rulesOrDefault } from '@/lib/schemas/exclusions.schema';
+import type { Cell, CatchCell, Task } from '@/lib/psychometrics/types';
+import { notFoundError } from '@/lib/server/http/errors';
+import { requireUuid } from '@/lib/server/platform/ids';
+
+// Trials → the engine's cells, after the study's exclusion rules. Aggregation happens in SQL
+// (GROUP BY base price and discount) so the cost stays with the design, not the respondents.
+// Only finished respondents count: completed ones and imported ones (drop-outs are fieldwork
+// information, not data for the fit).
+
+export interface StudyInfo {
+  id: string;
+  workspaceId: string;
+  name: string;
+  state: string;
+  task: Task;
+  currency: string;
+  locale: string;
+  itemName: string;
+  category: string;
+  basePrices: number[];
+  ladder: number[];
+  repetitions: number;
+  segmentQuestions: { id: string; text: string; options: string[] }[];
+  exclusionRules: ExclusionRules;
+  dataVersion: number;
+  closedAt: Date | null;
+  updatedAt: Date;
+}
+
+type Design = {
+  task?: Task; currency?: string; locale?: string; itemName?: string; category?: string;
+  basePrices?: number[]; ladder?: number[]; repetitions?: number;
+  segmentQuestions?: { id: string; text: string; options: string[] }[];
+};
+
+export function toStudyInfo(s: Pick<IStudy, 'id' | 'workspace' | 'name' | 'state' | 'design' | 'exclusionRules' | 'dataVersion' | 'closedAt' | 'updatedAt'>): StudyInfo {
+  const d = s.design as Design;
+  return {
+    id: s.id, workspaceId: s.workspace.id, name: s.name, state: s.state,
+    task: d.task ?? 'spot', currency: d.currency ?? 'EUR', locale: d.locale ?? 'en-GB',
+    itemName: d.itemName ?? '', category: d.category ?? '',
+    basePrices: [...(d.basePrices ?? [])].sort((a, b) => a - b), ladder: [...(d.ladder ?? [])].sort((a, b) => a - b),
+    repetitions: d.repetitions ?? 1, segmentQuestions: d.segmentQuestions ?? [],
+    exclusionRules: rulesOrDefault(s.exclusionRules), dataVersion: s.dataVersion,
+    closedAt: s.closedAt ?? null, updatedAt: s.updatedAt,
+  };
+}
+
+/** The study if it belongs to the workspace; a foreign or missing id is a 404. */
+export async function findStudy(db: EntityManager, workspaceId: string, studyId: string): Promise<StudyInfo> {
+  requireUuid(studyId, 'That study');
+  const s = await db.findOne(Study, { id: studyId, workspace: workspaceId });
+  if (!s) throw notFoundError('That study');
+  return toStudyInfo(s);
+}
+
+export interface RespondentRow extends RespondentQuality {
+  id: string;
+  segmentAnswers: Record<string, string>;
+  trials: number;
+}
+
+/** Per finished respondent: what the exclusion rules judge. A response time of 0 means not recorded (imports). */
+export async function respondentRows(db: EntityManager, studyId: string): Promise<RespondentRow[]> {
+  const rows: Record<string, unknown>[] = await db.execute(
+    `select r.id, r.segment_answers, r.attention_passed,
+            count(t.id) filter (where t.kind = 'catch')::int as catch_n,
+            coalesce(sum(t.answer) filter (where t.kind = 'catch'), 0)::int as catch_k,
+            count(t.id) filter (where t.kind = 'test')::int as test_n,
+            coalesce(sum(t.answer) filter (where t.kind = 'test'), 0)::int as test_k,
+            percentile_cont(0.5) within group (order by t.response_ms) filter (where t.kind in ('test', 'catch') and t.response_ms > 0) as median_ms
+       from respondent r left join trial t on t.respondent_id = r.id and t.kind in ('test', 'catch')
+      where r.study_id = ? and r.state in ('completed', 'imported')
+      group by r.id order by r.started_at, r.id`,
+    [studyId],
+  );
+  return rows.map((r) => ({
+    id: String(r.id),
+    segmentAnswers: (r.segment_answers ?? {}) as Record<string, string>,
+    attentionPassed: r.attention_passed as boolean | null,
+    catchTrials: Number(r.catch_n), catchYes: Number(r.catch_k),
+    testTrials: Number(r.test_n), testYes: Number(r.test_k),
+    medianMs: r.median_ms === null ? null : Number(r.median_ms),
+    trials: Number(r.catch_n) + Number(r.test_n),
+  }));
+}
+
+export interface Screened {
+  counts: ExclusionCounts;
+  /** Respondent id → the rules broken (only excluded respondents are present). */
+  excluded: Map<string, ExclusionRuleId[]>;
+  kept: RespondentRow[];
+}
+
+export function screen(rows: RespondentRow[], rules: ExclusionRules): Screened {
+  const counts = emptyCounts();
+  const excluded = new Map<string, ExclusionRuleId[]>();
+  const kept: RespondentRow[] = [];
+  const allOn: ExclusionRules = {
+    falseAlarms: { ...rules.falseAlarms, enabled: true }, attention: { enabled: true },
+    speeders: { ...rules.speeders, enabled: true }, straightLining: { enabled: true },
+  };
+  for (const r of rows) {
+    counts.respondents.before++;
+    counts.trials.before += r.trials;
+    // byRule counts every rule, on or off, so the panel shows what switching a rule on would do.
+    for (const id of brokenRules(r, allOn)) counts.byRule[id]++;
+    const broken = brokenRules(r, rules);
+    if (broken.length) { excluded.set(r.id, broken); continue; }
+    kept.push(r);
+    counts.respondents.after++;
+    counts.trials.after += r.trials;
+  }
+  return { counts, excluded, kept };
+}
+
+export interface CellData { cells: Cell[]; catchCells: CatchCell[] }
+
+/**
+ * Cells from the kept respondents, optionally only those who gave `answer` to segment
+ * question `questionId`. Discount-0 trials and kind 'catch' both count as catch trials.
+ */
+export async function loadCells(db: EntityManager, studyId: string, keptIds: string[], segment?: { questionId: string; answer: string } | null): Promise<CellData> {
+  if (!keptIds.length) return { cells: [], catchCells: [] };
+  const params: unknown[] = [studyId, JSON.stringify(keptIds)];
+  let segmentSql = '';
+  if (segment) { segmentSql = 'and r.segment_answers ->> ? = ?'; params.push(segment.questionId, segment.answer); }
+  const rows: { base_price: number; discount: number; catch: boolean; n: number; k: number }[] = await db.execute(
+    `select t.base_price, t.discount, (t.kind = 'catch' or t.discount = 0) as catch, count(*)::int as n, sum(t.answer)::int as k
+       from trial t join respondent r on r.id = t.respondent_id
+      where t.study_id = ? and t.kind in ('test', 'catch')
+        and r.id::text in (select jsonb_array_elements_text(?::jsonb)) ${segmentSql}
+      group by 1, 2, 3 order by 1, 2`,
+    params,
+  );
+  const cells: Cell[] = [];
+  const catchMap = new Map<number, CatchCell>();
+  for (const r of rows) {
+    const basePrice = Number(r.base_price);
+    if (r.catch) {
+      const c = catchMap.get(basePrice) ?? { basePrice, n: 0, k: 0 };
+      c.n += Number(r.n); c.k += Number(r.k);
+      catchMap.set(basePrice, c);
+    } else cells.push({ basePrice, discount: Number(r.discount), n: Number(r.n), k: Number(r.k) });
+  }
+  return { cells, catchCells: [...catchMap.values()] };
+}
+
+/** Whether any finished respondent answered a test trial (cheap check before queueing a fit). */
+export async function hasAnsweredTests(db: EntityManager, studyId: string): Promise<boolean> {
+  const rows: { ok: boolean }[] = await db.execute(
+    `select exists (select 1 from trial t join respondent r on r.id = t.respondent_id
+       where t.study_id = ? and t.kind = 'test' and r.state in ('completed', 'imported')) as ok`,
+    [studyId],
+  );
+  return Boolean(rows[0]?.ok);
+}

@@ -1,0 +1,29 @@
+import 'server-only';
+import { Study } from '@/entities/study';
+import type { ExclusionRules } from '@/lib/schemas/exclusions.schema';
+import { recordAudit } from '@/lib/server/team/audit';
+import { em } from '@/lib/server/db/orm';
+import { notFoundError } from '@/lib/server/http/errors';
+import type { WorkspaceContext } from '@/lib/server/team/membership';
+import { findStudy, respondentRows, screen } from './cells';
+
+export async function getExclusions(ctx: WorkspaceContext, studyId: string) {
+  const db = await em();
+  const study = await findStudy(db, ctx.workspace.id, studyId);
+  const { counts } = screen(await respondentRows(db, study.id), study.exclusionRules);
+  return { rules: study.exclusionRules, counts, dataVersion: study.dataVersion };
+}
+
+/**
+ * Rules are part of every fit's cache key, so saving them needs no data-version bump: the
+ * next results request finds no cached fit for the new rules and queues one.
+ */
+export async function saveExclusionRules(ctx: WorkspaceContext, studyId: string, rules: ExclusionRules) {
+  const db = await em();
+  const s = await db.findOne(Study, { id: studyId, workspace: ctx.workspace.id });
+  if (!s) throw notFoundError('That study');
+  s.exclusionRules = rules;
+  await db.flush();
+  await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.exclusions_changed', target: s.id, detail: { rules } });
+  return getExclusions(ctx, studyId);
+}

@@ -1,0 +1,58 @@
+import 'server-only';
+import { compareGroups } from '@/lib/psychometrics/segments';
+import { PsychometricsInputError } from '@/lib/psychometrics/errors';
+import { hashKey, requestComputation, runCached, type JobData } from './cache';
+import { FIT_SEED, loadFitInput } from './study-fit';
+import { em } from '@/lib/server/db/orm';
+import { AppError } from '@/lib/server/http/errors';
+import type { WorkspaceContext } from '@/lib/server/team/membership';
+import { findStudy, hasAnsweredTests, loadCells } from './cells';
+
+// Segment comparison: each answer group of one segment question fitted on its own (power
+// model), then one shared model on all groups; the likelihood-ratio test asks whether they differ.
+
+export const SEGMENT_BOOTSTRAP = 200;
+
+export type SegmentResult = ReturnType<typeof compareGroups> & { respondents: Record<string, number>; skipped: string[] };
+
+export type SegmentState =
+  | { status: 'ready'; result: SegmentResult; questionText: string }
+  | { status: 'pending'; message: string }
+  | { status: 'empty'; message: string };
+
+export async function getSegmentComparison(ctx: WorkspaceContext, studyId: string, questionId: string): Promise<SegmentState> {
+  const db = await em();
+  const study = await findStudy(db, ctx.workspace.id, studyId);
+  const q = study.segmentQuestions.find((x) => x.id === questionId);
+  if (!q) throw new AppError(422, 'validation_failed', 'This study has no such segment question.');
+  if (!(await hasAnsweredTests(db, study.id))) return { status: 'empty', message: 'No finished respondent has answered a test trial yet.' };
+  const cacheKey = hashKey({ v: study.dataVersion, rules: study.exclusionRules, questionId, b: SEGMENT_BOOTSTRAP, seed: FIT_SEED });
+  const row = await requestComputation<SegmentResult>(db, {
+    studyId: study.id, kind: 'segments', cacheKey, dataVersion: study.dataVersion, queue: 'analysis', payload: { questionId },
+  });
+  if (row.status === 'done' && row.result) return { status: 'ready', result: row.result, questionText: q.text };
+  if (row.status === 'failed') return { status: 'empty', message: row.error ?? 'The comparison could not be computed.' };
+  return { status: 'pending', message: 'Fitting each answer group and the shared model…' };
+}
+
+export async function runSegmentsJob(data: JobData & { questionId: string }, lastAttempt = true) {
+  await runCached(data, lastAttempt, async (db) => {
+    const loaded = await loadFitInput(db, data.studyId, data.dataVersion, null);
+    if (loaded === 'obsolete') return 'obsolete';
+    const q = loaded.study.segmentQuestions.find((x) => x.id === data.questionId);
+    if (!q) throw new PsychometricsInputError('the segment question no longer exists');
+    const groups = [];
+    const respondents: Record<string, number> = {};
+    const skipped: string[] = [];
+    for (const answer of q.options) {
+      const ids = loaded.kept.filter((r) => r.segmentAnswers[q.id] === answer).map((r) => r.id);
+      respondents[answer] = ids.length;
+      const cells = await loadCells(db, data.studyId, ids);
+      if (!cells.cells.length) { skipped.push(answer); continue; }
+      groups.push({ label: answer, cells: cells.cells, catchCells: loaded.study.task === 'spot' ? cells.catchCells : [] });
+    }
+    if (groups.length < 2) throw new PsychometricsInputError('fewer than two answer groups have data, so there is nothing to compare');
+    const result = compareGroups(groups, { task: loaded.study.task, bootstrap: SEGMENT_BOOTSTRAP, seed: FIT_SEED });
+    return { ...result, respondents, skipped } as SegmentResult;
+  });
+}

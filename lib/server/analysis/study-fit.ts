@@ -1,0 +1,157 @@
+import 'server-only';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { Study } from '@/entities/study';
+import { analyse } from '@/lib/psychometrics/analyse';
+import { chiSquareP } from '@/lib/psychometrics/chi2';
+import type { AnalysisReport } from '@/lib/psychometrics/report-types';
+import type { Cell, CatchCell, Task } from '@/lib/psychometrics/types';
+import type { ExclusionCounts } from '@/lib/exclusions';
+import { poorFitReason } from '@/lib/results-text';
+import type { ExclusionRules } from '@/lib/schemas/exclusions.schema';
+import { hashKey, latestDone, requestComputation, runCached, type CacheRow, type JobData } from './cache';
+import { em } from '@/lib/server/db/orm';
+import type { WorkspaceContext } from '@/lib/server/team/membership';
+import { findStudy, hasAnsweredTests, loadCells, respondentRows, screen, toStudyInfo, type StudyInfo } from './cells';
+
+// The fitted study: per-base fits and the joint Weber models with bootstrap intervals, computed
+// by the 'analysis' job and cached per data version, exclusion rules and options.
+
+/** Fixed so a study's numbers are reproducible (and equal the CLI's with --seed 1 --bootstrap 1000). */
+export const FIT_BOOTSTRAP = 1000;
+export const FIT_SEED = 1;
+
+export type Segment = { questionId: string; answer: string };
+
+export type StudyFit =
+  | { status: 'ready'; report: AnalysisReport; dataVersion: number; exclusionRules: ExclusionRules; poorFit: boolean; task: Task; currency: string; locale: string; basePrices: number[]; segment: Segment | null }
+  | { status: 'pending'; message: string }
+  | { status: 'empty'; message: string };
+
+export interface FitResult extends Record<string, unknown> {
+  report: AnalysisReport;
+  counts: ExclusionCounts;
+  /** The observed counts the fit used (the notice rates drawn as dots). */
+  cells: Cell[];
+  catchCells: CatchCell[];
+  optionsKey: string;
+  computedMs: number;
+}
+
+export interface FitOptions { segment?: Segment | null; target?: number }
+
+function optionsKeyOf(rules: ExclusionRules, opts: FitOptions): string {
+  return hashKey({ rules, segment: opts.segment ?? null, target: opts.target ?? null, bootstrap: FIT_BOOTSTRAP, seed: FIT_SEED });
+}
+
+export function fitCacheKey(study: Pick<StudyInfo, 'dataVersion' | 'exclusionRules'>, opts: FitOptions) {
+  const optionsKey = optionsKeyOf(study.exclusionRules, opts);
+  return { optionsKey, cacheKey: hashKey({ v: study.dataVersion, optionsKey }) };
+}
+
+const preferredP = (r: AnalysisReport) => chiSquareP(r.models[r.preferredModel].deviance, r.models[r.preferredModel].devianceDf);
+
+/** Any base judged a poor fit, or the preferred joint model's deviance p below 0.05. */
+export function isPoorFit(report: AnalysisReport): boolean {
+  if (report.bases.some((b) => b.verdict === 'poor fit')) return true;
+  const p = preferredP(report);
+  return p !== null && p < 0.05;
+}
+
+export interface FitState {
+  study: StudyInfo;
+  fit: StudyFit;
+  counts: ExclusionCounts | null;
+  cells: { cells: Cell[]; catchCells: CatchCell[] } | null;
+  /** While a newer fit computes: the last finished one with the same options. */
+  previous: { report: AnalysisReport; counts: ExclusionCounts; cells: Cell[]; catchCells: CatchCell[]; dataVersion: number } | null;
+  job: { status: CacheRow<unknown>['status']; since: string } | null;
+  /** Plain words for the poor-fit banner, when the ready fit is flagged. */
+  poorFitWhy?: string | null;
+}
+
+/** The fit with what the results page shows around it (counts, job progress, the previous fit). */
+export async function getFitState(ctx: WorkspaceContext, studyId: string, opts: FitOptions = {}): Promise<FitState> {
+  const db = await em();
+  const study = await findStudy(db, ctx.workspace.id, studyId);
+  const { cacheKey, optionsKey } = fitCacheKey(study, opts);
+  const base = { study, counts: null, cells: null, previous: null, job: null };
+  if (!(await hasAnsweredTests(db, study.id))) {
+    return { ...base, fit: { status: 'empty', message: 'No finished respondent has answered a test trial yet.' } };
+  }
+  const row = await requestComputation<FitResult>(db, {
+    studyId: study.id, kind: 'fit', cacheKey, dataVersion: study.dataVersion, queue: 'analysis',
+    payload: { segment: opts.segment ?? null, target: opts.target ?? null },
+  });
+  if (row.status === 'done' && row.result) {
+    const r = row.result;
+    return {
+      ...base, counts: r.counts, cells: { cells: r.cells, catchCells: r.catchCells }, job: { status: 'done', since: row.updatedAt.toISOString() },
+      poorFitWhy: isPoorFit(r.report) ? poorFitReason(r.report, preferredP(r.report)) : null,
+      fit: {
+        status: 'ready', report: r.report, dataVersion: study.dataVersion, exclusionRules: study.exclusionRules,
+        poorFit: isPoorFit(r.report), task: study.task, currency: study.currency, locale: study.locale,
+        basePrices: r.report.bases.map((b) => b.basePrice), segment: opts.segment ?? null,
+      },
+    };
+  }
+  const job = { status: row.status, since: row.updatedAt.toISOString() };
+  if (row.status === 'failed') return { ...base, job, fit: { status: 'empty', message: row.error ?? 'The fit could not be computed.' } };
+  const prev = await latestDone<FitResult>(db, study.id, 'fit', optionsKey);
+  return {
+    ...base, job,
+    previous: prev ? { report: prev.result.report, counts: prev.result.counts, cells: prev.result.cells, catchCells: prev.result.catchCells, dataVersion: prev.dataVersion } : null,
+    fit: { status: 'pending', message: row.status === 'running' ? 'Fitting the curves and bootstrapping the intervals…' : 'The fit is queued and starts in a moment…' },
+  };
+}
+
+export async function getStudyFit(ctx: WorkspaceContext, studyId: string, opts: FitOptions = {}): Promise<StudyFit> {
+  return (await getFitState(ctx, studyId, opts)).fit;
+}
+
+/** Job handler of kind 'fit' (also called directly by tests). */
+export async function runFitJob(data: JobData & { segment: Segment | null; target: number | null }, lastAttempt = true): Promise<void> {
+  await runCached(data, lastAttempt, async (db) => {
+    const started = Date.now();
+    const loaded = await loadFitInput(db, data.studyId, data.dataVersion, data.segment);
+    if (loaded === 'obsolete') return 'obsolete';
+    const { study, cells, catchCells, counts } = loaded;
+    const report = analyse({
+      cells, catchCells: study.task === 'spot' ? catchCells : [], task: study.task,
+      target: data.target ?? undefined, bootstrap: FIT_BOOTSTRAP, seed: FIT_SEED,
+    });
+    if (study.task !== 'spot' && catchCells.length) report.warnings.push(`catch trials ignored: the ${study.task} task does not estimate a guess rate from them`);
+    const result: FitResult = { report, counts, cells, catchCells, optionsKey: optionsKeyOf(study.exclusionRules, { segment: data.segment, target: data.target ?? undefined }), computedMs: Date.now() - started };
+    return result;
+  });
+}
+
+/** Study, screened cells and counts at exactly `dataVersion`, or 'obsolete' when the data moved on. */
+export async function loadFitInput(db: EntityManager, studyId: string, dataVersion: number, segment: Segment | null) {
+  const s = await db.findOne(Study, { id: studyId }, { refresh: true });
+  if (!s || s.dataVersion !== dataVersion) return 'obsolete' as const;
+  const study = toStudyInfo(s);
+  const rows = await respondentRows(db, studyId);
+  const { counts, kept } = screen(rows, study.exclusionRules);
+  const inSegment = segment ? kept.filter((r) => r.segmentAnswers[segment.questionId] === segment.answer) : kept;
+  const { cells, catchCells } = await loadCells(db, studyId, inSegment.map((r) => r.id));
+  const again = await db.findOne(Study, { id: studyId }, { refresh: true, fields: ['dataVersion'] });
+  if (!again || again.dataVersion !== dataVersion) return 'obsolete' as const;
+  return { study, cells, catchCells, counts, kept };
+}
+
+/** Studies with answered test trials, for pickers (promotion plans, exports). */
+export async function listFittableStudies(ctx: WorkspaceContext) {
+  const db = await em();
+  const rows: { id: string }[] = await db.execute(
+    `select s.id from study s where s.workspace_id = ? and exists (
+       select 1 from trial t join respondent r on r.id = t.respondent_id
+        where t.study_id = s.id and t.kind = 'test' and r.state in ('completed', 'imported'))`,
+    [ctx.workspace.id],
+  );
+  if (!rows.length) return [];
+  const studies = await db.find(Study, { id: { $in: rows.map((r) => r.id) }, workspace: ctx.workspace.id }, { orderBy: { name: 'asc' } });
+  return studies.map((s) => {
+    const i = toStudyInfo(s);
+    return { id: i.id, name: i.name, state: i.state, task: i.task, currency: i.currency, basePrices: i.basePrices, segmentQuestions: i.segmentQuestions };
+  });
+}

@@ -1,0 +1,94 @@
+import 'server-only';
+import { randomUUID } from 'node:crypto';
+import { LockMode } from '@mikro-orm/postgresql';
+import type Stripe from 'stripe';
+import { Purchase } from '@/entities/purchase';
+import { findBundle, formatMoney } from '@/lib/billing-bundles';
+import { recordAudit } from '@/lib/server/team/audit';
+import { em } from '@/lib/server/db/orm';
+import { env } from '@/lib/server/platform/env';
+import { AppError } from '@/lib/server/http/errors';
+import { composeMail, sendMail } from '@/lib/server/platform/mail';
+import { seatBalance } from './seat-ledger';
+import { stripe } from './stripe';
+
+/** The event, if Stripe's signature over the raw body checks out; else a 400. */
+export function verifyStripeEvent(rawBody: string, signature: string | null): Stripe.Event {
+  if (!signature) throw new AppError(400, 'bad_request', 'Missing Stripe-Signature header.');
+  try {
+    return stripe().webhooks.constructEvent(rawBody, signature, env().STRIPE_WEBHOOK_SECRET);
+  } catch {
+    throw new AppError(400, 'bad_request', 'The webhook signature does not match.');
+  }
+}
+
+export type WebhookOutcome = 'credited' | 'duplicate_event' | 'already_credited' | 'ignored' | 'unknown_purchase';
+
+interface Credited {
+  workspaceId: string;
+  buyer: { email: string; name: string } | null;
+  bundle: string;
+  seats: number;
+  amountCents: number;
+  currency: string;
+  sessionId: string;
+}
+
+/**
+ * Applies one verified event. A paid `checkout.session.completed` credits the bundle's seats
+ * in one transaction that first records the event id (a replayed event stops there) and then
+ * inserts the ledger entry keyed by the session id (a second event for the same session adds
+ * nothing). The receipt goes out only from the delivery that credited.
+ */
+export async function applyStripeEvent(event: Stripe.Event): Promise<WebhookOutcome> {
+  if (event.type !== 'checkout.session.completed') return 'ignored';
+  const session = event.data.object;
+  if (session.payment_status !== 'paid') return 'ignored';
+  const db = await em();
+  let credited = null as Credited | null;
+  const outcome = await db.transactional(async (tx): Promise<WebhookOutcome> => {
+    const fresh = await tx.execute('insert into webhook_event (id, type, received_at) values (?, ?, now()) on conflict (id) do nothing returning id', [event.id, event.type]);
+    if (fresh.length === 0) return 'duplicate_event';
+    const p = await tx.findOne(Purchase, { checkoutSessionId: session.id }, { populate: ['buyer'], lockMode: LockMode.PESSIMISTIC_WRITE });
+    if (!p || p.workspace.id !== session.metadata?.workspaceId) return 'unknown_purchase';
+    const entry = await tx.execute(
+      `insert into seat_ledger_entry (id, workspace_id, delta, reason, reference, note, created_at)
+       values (?, ?, ?, 'purchase', ?, ?, now()) on conflict (reason, reference) do nothing returning id`,
+      [randomUUID(), p.workspace.id, p.seats, session.id, `${findBundle(p.bundle)?.name ?? p.bundle} bundle`],
+    );
+    if (entry.length === 0) return 'already_credited';
+    p.status = 'paid';
+    p.paidAt = new Date();
+    await tx.flush();
+    await recordAudit(tx, {
+      workspace: p.workspace.id,
+      actor: p.buyer?.id ?? null,
+      action: 'billing.purchase',
+      target: `${findBundle(p.bundle)?.name ?? p.bundle} bundle, ${p.seats} seats`,
+      detail: { checkoutSessionId: session.id, seats: p.seats, amountCents: p.amountCents, currency: p.currency },
+    });
+    credited = { workspaceId: p.workspace.id, buyer: p.buyer ? { email: p.buyer.email, name: p.buyer.name } : null, bundle: p.bundle, seats: p.seats, amountCents: p.amountCents, currency: p.currency, sessionId: session.id };
+    return 'credited';
+  });
+  if (credited) await sendReceipt(credited, session.customer_details?.email ?? session.customer_email ?? null);
+  return outcome;
+}
+
+async function sendReceipt(c: Credited, stripeEmail: string | null) {
+  const to = c.buyer?.email ?? stripeEmail;
+  if (!to) return;
+  const balance = await seatBalance(await em(), c.workspaceId);
+  const name = findBundle(c.bundle)?.name ?? c.bundle;
+  const { text, html } = composeMail([
+    `Hello ${c.buyer?.name ?? ''},`.replace(' ,', ','),
+    `Thank you: your payment of ${formatMoney(c.amountCents, c.currency)} for the ${name} bundle is confirmed.`,
+    `${c.seats} respondent seats were added to your workspace; the balance is now ${balance} seats.`,
+    `Reference: ${c.sessionId}`,
+  ]);
+  try {
+    await sendMail({ to, subject: `Receipt: ${name} bundle, ${c.seats} seats`, text, html });
+  } catch (err) {
+    // The seats are credited already; a mail outage must not make Stripe retry the payment.
+    console.error('[billing] receipt e-mail failed', err);
+  }
+}

@@ -1,0 +1,38 @@
+import 'server-only';
+import { NextResponse } from 'next/server';
+import { csvHeaders } from '@/lib/csv';
+import { planAboutCsv, planCsv, planJson, type PlanExportHeader } from '@/lib/promo/plan-export';
+import { FLOOR_MODEL_SHORT } from '@/lib/promo/model-choice';
+import { PRICE_ENDING_LABELS } from '@/lib/schemas/study.schema';
+import type { WorkspaceContext } from '@/lib/server/team/membership';
+import { planTable } from './plan-table';
+
+export const EXPORT_FORMATS = ['csv', 'about-csv', 'json'] as const;
+export type ExportFormat = (typeof EXPORT_FORMATS)[number];
+
+const fileStem = (name: string) => `promo-plan-${name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'plan'}`;
+
+/** One export of a plan as a download response. */
+export async function exportPlan(ctx: WorkspaceContext, planId: string, format: ExportFormat): Promise<Response> {
+  const { plan, rows, summary } = await planTable(ctx, planId);
+  const generatedAt = new Date().toISOString();
+  const header: PlanExportHeader = {
+    plan: { id: plan.id, name: plan.name, createdAt: plan.createdAt },
+    study: { id: plan.study.id, name: plan.study.name, task: plan.fit.task },
+    segment: plan.settings.segment,
+    fitVersion: plan.fitVersion,
+    exclusionRules: plan.exclusionRules,
+    model: FLOOR_MODEL_SHORT[plan.settings.model],
+    target: plan.settings.target,
+    ending: PRICE_ENDING_LABELS[plan.settings.ending],
+    priceList: plan.priceList,
+    testedBasePrices: plan.fit.testedBasePrices,
+    poorFit: plan.poorFit,
+  };
+  const stem = fileStem(plan.name);
+  if (format === 'csv') return new Response(planCsv(plan.priceList.currency, rows), { headers: csvHeaders(`${stem}.csv`) });
+  if (format === 'about-csv') return new Response(planAboutCsv(header, generatedAt), { headers: csvHeaders(`${stem}-about.csv`) });
+  return NextResponse.json(planJson(header, summary, rows, generatedAt), {
+    headers: { 'content-disposition': `attachment; filename="${stem}.json"`, 'cache-control': 'no-store' },
+  });
+}

@@ -1,0 +1,92 @@
+import 'server-only';
+import type { StudyDesign } from '@/lib/schemas/study.schema';
+import type { StudyStateName } from '@/lib/study-states';
+import { em } from '@/lib/server/db/orm';
+import { loadStudy } from './studies';
+import { seatBalance } from '@/lib/server/billing/seat-ledger';
+import type { WorkspaceContext } from '@/lib/server/team/membership';
+
+/** A respondent with no answer for this long, and not completed, counts as dropped out. */
+export const DROP_OUT_MINUTES = 30;
+
+export interface FieldworkDto {
+  state: StudyStateName;
+  completes: number;
+  inProgress: number;
+  dropOuts: number;
+  targetCompletes: number;
+  seatsLeft: number;
+  perLink: { linkId: string; source: string; completes: number; closed: boolean }[];
+  basePrices: number[];
+  ladder: number[];
+  /** Test-trial answers per cell, rows = base prices, columns = rungs (same order as above). */
+  cells: number[][];
+  /** Test trials at depths off the ladder (adaptive placement), per base price. */
+  offLadder: number[];
+  /** Catch trials per base price, kept apart: they never sit on the discount axis. */
+  catchTrials: number[];
+  refreshedAt: string;
+}
+
+const key = (v: number) => Number(v).toFixed(6);
+
+export async function getFieldwork(ctx: WorkspaceContext, studyId: string): Promise<FieldworkDto> {
+  const db = await em();
+  const study = await loadStudy(db, ctx, studyId);
+  const design = study.design as unknown as StudyDesign;
+  const conn = db.getConnection();
+  // Last activity: the latest answer, or the start (lastSeenAt too, should the flow touch it).
+  const [status] = await conn.execute<{ completes: string; in_progress: string; drop_outs: string }[]>(
+    `select count(*) filter (where r.state = 'completed') as completes,
+            count(*) filter (where r.state = 'started' and a.last_at > now() - make_interval(mins => ?)) as in_progress,
+            count(*) filter (where r.state = 'started' and a.last_at <= now() - make_interval(mins => ?)) as drop_outs
+       from respondent r
+       cross join lateral (select greatest(r.last_seen_at, r.started_at, (select max(t.answered_at) from trial t where t.respondent_id = r.id)) as last_at) a
+      where r.study_id = ? and r.workspace_id = ?`,
+    [DROP_OUT_MINUTES, DROP_OUT_MINUTES, study.id, ctx.workspace.id],
+  );
+  const perLink = await conn.execute<{ id: string; source: string; closed_at: Date | null; completes: string }[]>(
+    `select l.id, l.source, l.closed_at, count(r.id) filter (where r.state = 'completed') as completes
+       from respondent_link l left join respondent r on r.link_id = l.id
+      where l.study_id = ? and l.workspace_id = ? group by l.id order by l.created_at`,
+    [study.id, ctx.workspace.id],
+  );
+  const cellRows = await conn.execute<{ kind: string; base_price: number; discount: number; n: string }[]>(
+    `select kind, base_price, discount, count(*) as n from trial
+      where study_id = ? and kind in ('test', 'catch') group by kind, base_price, discount`,
+    [study.id],
+  );
+  const bases = design.basePrices;
+  const ladder = design.ladder;
+  const row = new Map(bases.map((b, i) => [key(b), i]));
+  const col = new Map(ladder.map((d, i) => [key(d), i]));
+  const cells = bases.map(() => ladder.map(() => 0));
+  const offLadder = bases.map(() => 0);
+  const catchTrials = bases.map(() => 0);
+  for (const r of cellRows) {
+    const i = row.get(key(r.base_price));
+    if (i === undefined) continue;
+    const n = Number(r.n);
+    if (r.kind === 'catch') catchTrials[i] += n;
+    else {
+      const j = col.get(key(r.discount));
+      if (j === undefined) offLadder[i] += n;
+      else cells[i][j] += n;
+    }
+  }
+  return {
+    state: study.state,
+    completes: Number(status?.completes ?? 0),
+    inProgress: Number(status?.in_progress ?? 0),
+    dropOuts: Number(status?.drop_outs ?? 0),
+    targetCompletes: design.targetCompletes,
+    seatsLeft: await seatBalance(db, ctx.workspace.id),
+    perLink: perLink.map((l) => ({ linkId: l.id, source: l.source, completes: Number(l.completes), closed: !!l.closed_at })),
+    basePrices: bases,
+    ladder,
+    cells,
+    offLadder,
+    catchTrials,
+    refreshedAt: new Date().toISOString(),
+  };
+}

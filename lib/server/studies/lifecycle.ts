@@ -1,0 +1,36 @@
+import 'server-only';
+import { Study } from '@/entities/study';
+import { studyDesignSchema } from '@/lib/schemas/study.schema';
+import { STUDY_STATE_LABELS, TRANSITIONS, type StudyAction, type StudyStateName } from '@/lib/study-states';
+import { em } from '@/lib/server/db/orm';
+import { AppError } from '@/lib/server/http/errors';
+import { recordAudit } from '@/lib/server/team/audit';
+import { loadStudy, toDetail, type StudyDetail } from './studies';
+import { zodIssues } from '@/lib/server/http/route';
+import type { WorkspaceContext } from '@/lib/server/team/membership';
+
+const AUDIT_ACTIONS: Record<StudyAction, string> = { launch: 'study.launched', pause: 'study.paused', resume: 'study.resumed', close: 'study.closed' };
+
+/** Moves a study along draft → live ⇄ paused → closed; any other move is a 409. */
+export async function changeStudyState(ctx: WorkspaceContext, id: string, action: StudyAction): Promise<StudyDetail> {
+  const db = await em();
+  const study = await loadStudy(db, ctx, id);
+  const t = TRANSITIONS[action];
+  if (!t.from.includes(study.state)) {
+    throw new AppError(409, 'conflict', `A ${STUDY_STATE_LABELS[study.state as StudyStateName].toLowerCase()} study cannot be ${action === 'launch' ? 'launched' : action === 'close' ? 'closed' : action === 'pause' ? 'paused' : 'resumed'}.`);
+  }
+  const now = new Date();
+  const changes: Partial<{ state: typeof t.to; launchedAt: Date; closedAt: Date; updatedAt: Date }> = { state: t.to, updatedAt: now };
+  if (action === 'launch') {
+    // The stored design was valid when saved; check again so nothing unrunnable goes live.
+    const parsed = studyDesignSchema.safeParse(study.design);
+    if (!parsed.success) throw new AppError(409, 'conflict', 'The design is not complete enough to launch; edit the draft first.', zodIssues(parsed.error));
+    changes.launchedAt = now;
+  }
+  if (action === 'close') changes.closedAt = now;
+  // Guarded by the current state so two clicks (or two analysts) cannot apply a move twice.
+  const n = await db.nativeUpdate(Study, { id: study.id, workspace: ctx.workspace.id, state: { $in: [...t.from] } }, changes);
+  if (!n) throw new AppError(409, 'conflict', 'The study changed state meanwhile; reload the page.');
+  await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: AUDIT_ACTIONS[action], target: study.name, detail: { studyId: study.id, from: study.state, to: t.to } });
+  return toDetail(await db.findOneOrFail(Study, { id: study.id }, { refresh: true }));
+}

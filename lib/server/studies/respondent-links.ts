@@ -1,0 +1,89 @@
+import 'server-only';
+import { RespondentLink } from '@/entities/respondent-link';
+import type { z } from 'zod';
+import type { studyLinkSchema } from '@/lib/schemas/study-link.schema';
+import { em } from '@/lib/server/db/orm';
+import { env } from '@/lib/server/platform/env';
+import { AppError, notFoundError } from '@/lib/server/http/errors';
+import { recordAudit } from '@/lib/server/team/audit';
+import { isUuid } from '@/lib/server/platform/ids';
+import { loadStudy } from './studies';
+import { randomToken } from '@/lib/server/platform/tokens';
+import type { WorkspaceContext } from '@/lib/server/team/membership';
+
+export interface StudyLinkDto {
+  id: string;
+  source: string;
+  url: string;
+  quota: number | null;
+  acceptsPid: boolean;
+  completes: number;
+  started: number;
+  closedAt: string | null;
+  createdAt: string;
+}
+
+/** 32 random bytes, base64url: 256 bits, far beyond guessing. */
+export const newLinkToken = randomToken;
+export const linkUrl = (token: string) => `${env().APP_URL.replace(/\/$/, '')}/r/${token}`;
+
+function toDto(l: { id: string; source: string; token: string; quota?: number | null; acceptsPid: boolean; closedAt?: Date | null; createdAt: Date }, counts?: { completes: number; started: number }): StudyLinkDto {
+  return {
+    id: l.id,
+    source: l.source,
+    url: linkUrl(l.token),
+    quota: l.quota ?? null,
+    acceptsPid: l.acceptsPid,
+    completes: counts?.completes ?? 0,
+    started: counts?.started ?? 0,
+    closedAt: l.closedAt?.toISOString() ?? null,
+    createdAt: l.createdAt.toISOString(),
+  };
+}
+
+export async function listLinks(ctx: WorkspaceContext, studyId: string): Promise<StudyLinkDto[]> {
+  const db = await em();
+  const study = await loadStudy(db, ctx, studyId);
+  const links = await db.find(RespondentLink, { study: study.id, workspace: ctx.workspace.id }, { orderBy: { createdAt: 'asc' } });
+  const rows = await db.getConnection().execute<{ link_id: string; completes: string; started: string }[]>(
+    `select link_id, count(*) filter (where state = 'completed') as completes, count(*) as started
+       from respondent where study_id = ? and workspace_id = ? and link_id is not null group by link_id`,
+    [study.id, ctx.workspace.id],
+  );
+  const counts = new Map(rows.map((r) => [r.link_id, { completes: Number(r.completes), started: Number(r.started) }]));
+  return links.map((l) => toDto(l, counts.get(l.id)));
+}
+
+export async function createLink(ctx: WorkspaceContext, studyId: string, input: z.output<typeof studyLinkSchema>): Promise<StudyLinkDto> {
+  const db = await em();
+  const study = await loadStudy(db, ctx, studyId);
+  if (study.state === 'closed' || study.state === 'imported') throw new AppError(409, 'conflict', 'This study is closed; it takes no new links.');
+  const link = db.create(RespondentLink, { workspace: ctx.workspace.id, study: study.id, token: newLinkToken(), source: input.source, quota: input.quota, acceptsPid: input.acceptsPid });
+  await db.flush();
+  await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'link.created', target: `${study.name} · ${input.source}`, detail: { studyId: study.id, linkId: link.id } });
+  return toDto(link);
+}
+
+async function loadLink(ctx: WorkspaceContext, studyId: string, linkId: string) {
+  const db = await em();
+  const study = await loadStudy(db, ctx, studyId);
+  const link = isUuid(linkId) ? await db.findOne(RespondentLink, { id: linkId, study: study.id, workspace: ctx.workspace.id }) : null;
+  if (!link) throw notFoundError('That link');
+  return { db, study, link };
+}
+
+/** Closing is one-way and idempotent: closing a closed link keeps its first closing time. */
+export async function closeLink(ctx: WorkspaceContext, studyId: string, linkId: string): Promise<StudyLinkDto> {
+  const { db, study, link } = await loadLink(ctx, studyId, linkId);
+  if (!link.closedAt) {
+    link.closedAt = new Date();
+    await db.flush();
+    await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'link.closed', target: `${study.name} · ${link.source}`, detail: { studyId: study.id, linkId: link.id } });
+  }
+  return toDto(link);
+}
+
+export async function linkUrlFor(ctx: WorkspaceContext, studyId: string, linkId: string): Promise<string> {
+  const { link } = await loadLink(ctx, studyId, linkId);
+  return linkUrl(link.token);
+}

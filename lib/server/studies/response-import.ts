@@ -1,0 +1,193 @@
+import 'server-only';
+import { randomBytes, randomUUID } from 'node:crypto';
+import Papa from 'papaparse';
+import { Study } from '@/entities/study';
+import { DEFAULT_EXCLUSION_RULES } from '@/lib/schemas/exclusions.schema';
+import {
+  IMPORT_MAX_BYTES, OPTIONAL_COLUMNS, REQUIRED_COLUMNS, SEGMENT_PREFIX, importRowSchema,
+  type ImportRow, type ImportedStudyInput,
+} from '@/lib/schemas/import.schema';
+import { DEFAULT_CONSENT } from '@/lib/schemas/study.schema';
+import { recordAudit } from '@/lib/server/team/audit';
+import { em } from '@/lib/server/db/orm';
+import { AppError, notFoundError } from '@/lib/server/http/errors';
+import { requireUuid } from '@/lib/server/platform/ids';
+import type { WorkspaceContext } from '@/lib/server/team/membership';
+
+// Response import: parse (papaparse), validate every row (zod), and only when the whole file is
+// valid write respondents and trials in one transaction. Errors name their row (header = row 1).
+
+export interface ImportIssue { row: number; message: string }
+export interface ImportCheck {
+  ok: boolean;
+  errors: ImportIssue[];
+  preview: Record<string, string>[];
+  columns: string[];
+  rows: number;
+  respondents: number;
+  basePrices: number[];
+  segmentColumns: string[];
+}
+
+const MAX_ERRORS = 500;
+
+export function sizeError() {
+  return new AppError(413, 'payload_too_large', `The file is larger than ${IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files and import them one after another.`);
+}
+
+interface Parsed { check: ImportCheck; valid: (ImportRow & { segments: Record<string, string> })[] }
+
+export function checkCsv(text: string, opts: { allowedBasePrices?: number[]; existingRefs?: Set<string> } = {}): Parsed {
+  const errors: ImportIssue[] = [];
+  const add = (row: number, message: string) => { if (errors.length < MAX_ERRORS) errors.push({ row, message }); };
+  const clean = text.replace(/^\uFEFF/, '');
+  const empty = (): Parsed => ({ check: { ok: false, errors, preview: [], columns: [], rows: 0, respondents: 0, basePrices: [], segmentColumns: [] }, valid: [] });
+  if (!clean.trim()) { add(1, 'The file is empty: it needs a header row (respondent,base_price,discount,response) and at least one data row.'); return empty(); }
+  const parsed = Papa.parse<Record<string, string>>(clean, { header: true, skipEmptyLines: 'greedy', transformHeader: (h) => h.trim().toLowerCase() });
+  const columns = parsed.meta.fields ?? [];
+  for (const c of REQUIRED_COLUMNS) if (!columns.includes(c)) add(1, `missing column "${c}" (the header must hold ${REQUIRED_COLUMNS.join(', ')})`);
+  const segmentColumns = columns.filter((c) => c.startsWith(SEGMENT_PREFIX));
+  for (const c of columns) {
+    if ((REQUIRED_COLUMNS as readonly string[]).includes(c) || (OPTIONAL_COLUMNS as readonly string[]).includes(c)) continue;
+    if (c.startsWith(SEGMENT_PREFIX) && /^segment_[a-z0-9_]{1,32}$/.test(c)) continue;
+    add(1, `unknown column "${c}" (allowed besides the required ones: ${OPTIONAL_COLUMNS.join(', ')}, and segment_<id> for segment answers)`);
+  }
+  if (new Set(columns).size !== columns.length) add(1, 'a column name appears twice');
+  for (const e of parsed.errors) add((e.row ?? 0) + 2, `CSV: ${e.message}`);
+  if (errors.length) return { ...empty(), check: { ...empty().check, columns } };
+  if (!parsed.data.length) { add(2, 'The file has a header but no data rows.'); return { ...empty(), check: { ...empty().check, columns } }; }
+
+  const valid: Parsed['valid'] = [];
+  const segByRespondent = new Map<string, string>();
+  const allowed = opts.allowedBasePrices ? new Set(opts.allowedBasePrices.map((p) => p.toFixed(6))) : null;
+  parsed.data.forEach((raw, i) => {
+    const row = i + 2;
+    const r = importRowSchema.safeParse(raw);
+    if (!r.success) { for (const iss of r.error.issues) add(row, iss.message); return; }
+    const segments: Record<string, string> = Object.fromEntries(segmentColumns.map((c) => [c.slice(SEGMENT_PREFIX.length), (raw[c] ?? '').trim()]).filter(([, v]) => v !== ''));
+    if (Object.values(segments).some((v) => v.length > 80)) { add(row, 'a segment answer is longer than 80 characters'); return; }
+    const segKey = JSON.stringify(segments);
+    const before = segByRespondent.get(r.data.respondent);
+    if (before !== undefined && before !== segKey) { add(row, `respondent "${r.data.respondent}" has different segment answers than on an earlier row`); return; }
+    segByRespondent.set(r.data.respondent, segKey);
+    if (allowed && !allowed.has(r.data.base_price.toFixed(6))) { add(row, `base_price ${r.data.base_price} is not one of this study's base prices (${opts.allowedBasePrices!.join(', ')})`); return; }
+    if (opts.existingRefs?.has(r.data.respondent)) { add(row, `respondent "${r.data.respondent}" was already imported into this study`); return; }
+    valid.push({ ...r.data, segments });
+  });
+  const basePrices = [...new Set(valid.map((v) => v.base_price))].sort((a, b) => a - b);
+  const check: ImportCheck = {
+    ok: errors.length === 0, errors, preview: parsed.data.slice(0, 10), columns, rows: parsed.data.length,
+    respondents: segByRespondent.size, basePrices, segmentColumns,
+  };
+  return { check, valid };
+}
+
+async function loadTarget(ctx: WorkspaceContext, studyId: string) {
+  requireUuid(studyId, 'That study');
+  const db = await em();
+  const s = await db.findOne(Study, { id: studyId, workspace: ctx.workspace.id });
+  if (!s) throw notFoundError('That study');
+  if (s.state !== 'closed' && s.state !== 'imported') throw new AppError(409, 'conflict', 'Responses can be imported only into a closed study or one created by an import.');
+  const refs: { external_ref: string }[] = await db.execute('select external_ref from respondent where study_id = ? and external_ref is not null', [s.id]);
+  const basePrices = s.state === 'closed' ? ((s.design as { basePrices?: number[] }).basePrices ?? []) : undefined;
+  return { db, study: s, existingRefs: new Set(refs.map((r) => r.external_ref)), basePrices };
+}
+
+/** Validates (dryRun) or imports a file into an existing closed or imported study. */
+export async function importIntoStudy(ctx: WorkspaceContext, studyId: string, text: string, dryRun: boolean) {
+  const { db, study, existingRefs, basePrices } = await loadTarget(ctx, studyId);
+  const { check, valid } = checkCsv(text, { allowedBasePrices: basePrices, existingRefs });
+  if (!check.ok || dryRun) return { check, imported: null };
+  await db.getKnex().transaction(async (trx) => {
+    await writeRows(trx, ctx.workspace.id, study.id, valid);
+    await trx('study').where({ id: study.id, workspace_id: ctx.workspace.id }).update({ data_version: trx.raw('data_version + 1'), updated_at: new Date() });
+  });
+  await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.responses_imported', target: study.id, detail: { rows: check.rows, respondents: check.respondents } });
+  return { check, imported: { studyId: study.id, respondents: check.respondents, trials: check.rows } };
+}
+
+/** Creates a study of state "imported" from a minimal design and the file, in one transaction. */
+export async function importNewStudy(ctx: WorkspaceContext, design: ImportedStudyInput, text: string, dryRun: boolean) {
+  const { check, valid } = checkCsv(text);
+  if (!check.ok || dryRun) return { check, imported: null };
+  const db = await em();
+  const studyId = randomUUID();
+  const ladder = [...new Set(valid.filter((v) => v.discount > 0).map((v) => v.discount))].sort((a, b) => a - b);
+  const segmentQuestions = check.segmentColumns.map((c) => {
+    const id = c.slice(SEGMENT_PREFIX.length);
+    return { id, text: id.replace(/_/g, ' '), options: [...new Set(valid.map((v) => v.segments[id]).filter(Boolean))].slice(0, 8) };
+  }).filter((q) => q.options.length >= 1);
+  const nCatch = valid.filter((v) => v.discount === 0).length;
+  const fullDesign = {
+    ...design, itemPictureId: null, locale: 'en-GB', shelfSize: 6, viewMs: 1200, tripMinutes: 20,
+    basePrices: check.basePrices, ladder, repetitions: 1, catchShare: Math.min(0.5, nCatch / valid.length), practiceTrials: 0, orderSeed: 0,
+    adaptive: { enabled: false, rule: '1u2d', trialsPerBase: 24, reversals: 8 }, consentText: DEFAULT_CONSENT, segmentQuestions,
+    attentionCheck: { enabled: false, question: '', options: ['Yes', 'No'], correct: 'Yes' }, targetCompletes: Math.max(1, check.respondents), redirectUrl: '', priceEnding: 'exact',
+  };
+  await db.getKnex().transaction(async (trx) => {
+    await trx('study').insert({
+      id: studyId, workspace_id: ctx.workspace.id, name: design.name, state: 'imported', design: JSON.stringify(fullDesign),
+      exclusion_rules: JSON.stringify(DEFAULT_EXCLUSION_RULES), data_version: 1, created_by_id: ctx.user.id, created_at: new Date(), updated_at: new Date(), closed_at: new Date(),
+    });
+    await writeRows(trx, ctx.workspace.id, studyId, valid);
+  });
+  await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.created_by_import', target: studyId, detail: { rows: check.rows, respondents: check.respondents } });
+  return { check, imported: { studyId, respondents: check.respondents, trials: check.rows } };
+}
+
+type Trx = Parameters<Parameters<ReturnType<Awaited<ReturnType<typeof em>>['getKnex']>['transaction']>[0]>[0];
+
+async function writeRows(trx: Trx, workspaceId: string, studyId: string, valid: Parsed['valid']) {
+  const ids = new Map<string, string>();
+  const idx = new Map<string, number>();
+  const respondents: Record<string, unknown>[] = [];
+  const trials: Record<string, unknown>[] = [];
+  const now = new Date();
+  for (const v of valid) {
+    let id = ids.get(v.respondent);
+    if (!id) {
+      id = randomUUID();
+      ids.set(v.respondent, id);
+      respondents.push({
+        id, workspace_id: workspaceId, study_id: studyId, resume_token: randomBytes(24).toString('base64url'), external_ref: v.respondent,
+        seed: 0, state: 'imported', segment_answers: JSON.stringify(v.segments), attention_passed: null, answered_count: 0,
+        started_at: now, last_seen_at: now, completed_at: now,
+      });
+    }
+    const n = (idx.get(v.respondent) ?? 0) + 1;
+    idx.set(v.respondent, n);
+    trials.push({
+      study_id: studyId, respondent_id: id, idx: n, kind: v.discount === 0 ? 'catch' : 'test', base_price: v.base_price, discount: v.discount,
+      answer: v.response, response_ms: v.response_ms, client_id: randomUUID(), answered_at: now,
+    });
+  }
+  for (const r of respondents) r.answered_count = idx.get(String(r.external_ref));
+  await trx.batchInsert('respondent', respondents, 1000).transacting(trx);
+  await trx.batchInsert('trial', trials, 2000).transacting(trx);
+}
+
+/** The upload from a multipart form (field "file"), size-checked before and after reading. */
+export async function readUpload(req: Request): Promise<{ text: string; fields: Record<string, string> }> {
+  const len = Number(req.headers.get('content-length') ?? '0');
+  if (len > IMPORT_MAX_BYTES + 64 * 1024) throw sizeError();
+  let form: FormData;
+  try { form = await req.formData(); } catch { throw new AppError(400, 'bad_request', 'Send the file as multipart/form-data in a field named "file".'); }
+  const file = form.get('file');
+  if (!(file instanceof Blob)) throw new AppError(400, 'bad_request', 'Choose a CSV file to upload.');
+  if (file.size > IMPORT_MAX_BYTES) throw sizeError();
+  const fields: Record<string, string> = {};
+  form.forEach((v, k) => { if (typeof v === 'string') fields[k] = v; });
+  return { text: await file.text(), fields };
+}
+
+/**
+ * The route's answer: 200/201 with the check, or a 422 that carries the one JSON error shape
+ * (for API clients) beside the row-numbered check (for the import form).
+ */
+export function importResponse(result: { check: ImportCheck; imported: unknown }, dryRun: boolean): Response {
+  if (result.check.ok) return Response.json(result, { status: dryRun ? 200 : 201 });
+  const n = result.check.errors.length;
+  const first = result.check.errors[0];
+  const message = `${n} problem${n === 1 ? '' : 's'} found; nothing was imported.${first ? ` Row ${first.row}: ${first.message}` : ''}`;
+  return Response.json({ error: { code: 'validation_failed', message }, ...result }, { status: 422 });
+}

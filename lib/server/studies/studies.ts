@@ -1,0 +1,133 @@
+import 'server-only';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { Study, type IStudy } from '@/entities/study';
+import { StudyAsset } from '@/entities/study-asset';
+import type { StudyDesign } from '@/lib/schemas/study.schema';
+import { isEditable, type StudyStateName } from '@/lib/study-states';
+import { em } from '@/lib/server/db/orm';
+import { AppError, notFoundError } from '@/lib/server/http/errors';
+import { isUuid } from '@/lib/server/platform/ids';
+import { recordAudit } from '@/lib/server/team/audit';
+import type { WorkspaceContext } from '@/lib/server/team/membership';
+
+
+export interface StudyDetail {
+  id: string;
+  name: string;
+  state: StudyStateName;
+  design: StudyDesign;
+  copiedFrom: string | null;
+  createdAt: string;
+  updatedAt: string;
+  launchedAt: string | null;
+  closedAt: string | null;
+}
+
+export interface StudySummary {
+  id: string;
+  name: string;
+  category: string;
+  task: StudyDesign['task'];
+  state: StudyStateName;
+  completes: number;
+  targetCompletes: number;
+  updatedAt: string;
+}
+
+export function toDetail(s: IStudy): StudyDetail {
+  return {
+    id: s.id,
+    name: s.name,
+    state: s.state,
+    design: s.design as unknown as StudyDesign,
+    copiedFrom: s.copiedFrom ?? null,
+    createdAt: s.createdAt.toISOString(),
+    updatedAt: s.updatedAt.toISOString(),
+    launchedAt: s.launchedAt?.toISOString() ?? null,
+    closedAt: s.closedAt?.toISOString() ?? null,
+  };
+}
+
+/** The study with this id in the caller's workspace; a foreign or malformed id is a 404. */
+export async function loadStudy(db: EntityManager, ctx: WorkspaceContext, id: string) {
+  const study = isUuid(id) ? await db.findOne(Study, { id, workspace: ctx.workspace.id }) : null;
+  if (!study) throw notFoundError('That study');
+  return study;
+}
+
+export async function listStudies(ctx: WorkspaceContext): Promise<StudySummary[]> {
+  const db = await em();
+  const studies = await db.find(Study, { workspace: ctx.workspace.id }, { orderBy: { updatedAt: 'desc' } });
+  const counts = await db.getConnection().execute<{ study_id: string; n: string }[]>(
+    `select study_id, count(*) as n from respondent where workspace_id = ? and state = 'completed' group by study_id`,
+    [ctx.workspace.id],
+  );
+  const completes = new Map(counts.map((r) => [r.study_id, Number(r.n)]));
+  return studies.map((s) => {
+    const d = s.design as unknown as StudyDesign;
+    return {
+      id: s.id,
+      name: s.name,
+      category: d.category,
+      task: d.task,
+      state: s.state,
+      completes: completes.get(s.id) ?? 0,
+      targetCompletes: d.targetCompletes,
+      updatedAt: s.updatedAt.toISOString(),
+    };
+  });
+}
+
+export async function getStudy(ctx: WorkspaceContext, id: string): Promise<StudyDetail> {
+  return toDetail(await loadStudy(await em(), ctx, id));
+}
+
+/** The picture must be one of this workspace's uploads (ids are guessable only in theory, but scope anyway). */
+async function checkPicture(db: EntityManager, ctx: WorkspaceContext, design: StudyDesign) {
+  if (!design.itemPictureId) return;
+  const n = await db.count(StudyAsset, { id: design.itemPictureId, workspace: ctx.workspace.id });
+  if (!n) throw new AppError(422, 'validation_failed', 'Some fields are not valid.', [{ path: 'itemPictureId', message: 'Upload the picture again.' }]);
+}
+
+export async function createStudy(ctx: WorkspaceContext, design: StudyDesign): Promise<StudyDetail> {
+  const db = await em();
+  await checkPicture(db, ctx, design);
+  const study = db.create(Study, { workspace: ctx.workspace.id, name: design.name, design: { ...design }, createdBy: ctx.user.id });
+  await db.flush();
+  await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.created', target: study.name, detail: { studyId: study.id } });
+  return toDetail(study);
+}
+
+const frozen = () => new AppError(409, 'conflict', 'This study has been launched, so its design is frozen. Duplicate it to make a changed copy.');
+
+export async function updateStudy(ctx: WorkspaceContext, id: string, design: StudyDesign): Promise<StudyDetail> {
+  const db = await em();
+  const study = await loadStudy(db, ctx, id);
+  if (!isEditable(study.state)) throw frozen();
+  await checkPicture(db, ctx, design);
+  // The state is part of the WHERE so a launch racing this save cannot be overwritten.
+  const n = await db.nativeUpdate(Study, { id: study.id, workspace: ctx.workspace.id, state: 'draft' }, { name: design.name, design: { ...design }, updatedAt: new Date() });
+  if (!n) throw frozen();
+  await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.updated', target: design.name, detail: { studyId: study.id } });
+  return toDetail(await db.findOneOrFail(Study, { id: study.id }, { refresh: true }));
+}
+
+export async function duplicateStudy(ctx: WorkspaceContext, id: string): Promise<StudyDetail> {
+  const db = await em();
+  const source = await loadStudy(db, ctx, id);
+  const name = `${source.name} (copy)`.slice(0, 160);
+  const design = { ...(source.design as Record<string, unknown>), name };
+  const copy = db.create(Study, { workspace: ctx.workspace.id, name, design, copiedFrom: source.id, createdBy: ctx.user.id });
+  await db.flush();
+  await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.duplicated', target: name, detail: { studyId: copy.id, copiedFrom: source.id } });
+  return toDetail(copy);
+}
+
+export async function deleteStudy(ctx: WorkspaceContext, id: string): Promise<void> {
+  const db = await em();
+  const study = await loadStudy(db, ctx, id);
+  if (study.state !== 'draft') throw new AppError(409, 'conflict', 'Only a draft can be deleted; close a launched study instead.');
+  const n = await db.nativeDelete(Study, { id: study.id, workspace: ctx.workspace.id, state: 'draft' });
+  if (!n) throw new AppError(409, 'conflict', 'Only a draft can be deleted; close a launched study instead.');
+  await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.deleted', target: study.name, detail: { studyId: study.id } });
+}

@@ -1,0 +1,31 @@
+import 'server-only';
+import NextAuth from 'next-auth';
+import Credentials from 'next-auth/providers/credentials';
+import { authConfig } from '@/lib/auth.config';
+import { signInSchema } from '@/lib/schemas/auth.schema';
+import { User } from '@/entities/user';
+import { em } from '@/lib/server/db/orm';
+import { env } from '@/lib/server/platform/env';
+import { verifyPassword } from './passwords';
+import { recordAudit } from './audit';
+
+// Lazy config: the environment is read on the first request, not when the build loads this file.
+export const { handlers, auth, signIn, signOut } = NextAuth(() => ({
+  ...authConfig,
+  secret: env().AUTH_SECRET,
+  useSecureCookies: env().SECURE_COOKIES ?? env().APP_URL.startsWith('https://'),
+  providers: [
+    Credentials({
+      credentials: { email: {}, password: {} },
+      async authorize(raw) {
+        const parsed = signInSchema.safeParse(raw);
+        if (!parsed.success) return null;
+        const db = await em();
+        const user = await db.findOne(User, { email: parsed.data.email });
+        if (!user || !(await verifyPassword(parsed.data.password, user.passwordHash))) return null;
+        await recordAudit(db, { actor: user.id, action: 'auth.sign_in', target: user.email });
+        return { id: user.id, email: user.email, name: user.name, sessionVersion: user.sessionVersion };
+      },
+    }),
+  ],
+}));

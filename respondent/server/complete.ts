@@ -1,0 +1,37 @@
+import 'server-only';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { expectedTrial, completionRedirect } from '@/respondent/shared/screens';
+import { AppError } from '@/lib/server/http/errors';
+import { respondentContext } from './context';
+import { lockWorkspace, useSeat } from '@/lib/server/billing/seat-holds';
+import { answeredHistory } from './trials';
+
+/**
+ * Completes a respondent and uses one seat, exactly once: under the workspace lock, a second
+ * (retried or concurrent) complete finds the respondent completed and changes nothing.
+ */
+export async function completeRespondent(db: EntityManager, linkToken: string, resumeToken: string | null): Promise<{ ok: true; redirectUrl: string | null }> {
+  const ctx = await respondentContext(db, linkToken, resumeToken);
+  const redirectUrl = completionRedirect(ctx.design, ctx.pid);
+  await db.transactional(async (tx) => {
+    const run = <T extends Record<string, unknown>[]>(sql: string, params: unknown[]) => tx.getConnection().execute<T>(sql, params, 'all', tx.getTransactionContext());
+    await lockWorkspace(tx, ctx.workspaceId);
+    const rows = await run<{ state: string; answered_count: number; study_state: string }[]>(
+      'select r.state, r.answered_count, s.state as study_state from respondent r join study s on s.id = r.study_id where r.id = ? for update of r',
+      [ctx.id],
+    );
+    const r = rows[0];
+    if (!r) throw new AppError(404, 'not_found', 'We could not find your answers.');
+    if (r.state === 'completed') return;
+    if (r.study_state === 'closed') throw new AppError(410, 'gone', 'This study is closed. Thank you for your interest.');
+    const count = Number(r.answered_count);
+    const finished = ctx.plan.mode === 'fixed'
+      ? count >= ctx.plan.trials.length
+      : expectedTrial(ctx.design, ctx.seed, ctx.plan, await answeredHistory(tx, ctx.id), count) === null;
+    if (!finished) throw new AppError(409, 'conflict', 'Some trials are not answered yet.');
+    if (!(await useSeat(tx, ctx.workspaceId, ctx.id))) throw new AppError(409, 'study_full', 'This study is full. Your answers are kept; thank you for taking part.');
+    await run(`update respondent set state = 'completed', completed_at = now(), last_seen_at = now() where id = ?`, [ctx.id]);
+    await run('update study set data_version = data_version + 1 where id = ?', [ctx.studyId]);
+  });
+  return { ok: true, redirectUrl };
+}

@@ -1,0 +1,61 @@
+import 'server-only';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import type { StudyDesign } from '@/lib/schemas/study.schema';
+import { AppError } from '@/lib/server/http/errors';
+import { storedDesign } from './trials';
+
+export interface LinkInfo {
+  token: string;
+  linkId: string;
+  studyId: string;
+  workspaceId: string;
+  studyState: string;
+  closed: boolean;
+  quota: number | null;
+  acceptsPid: boolean;
+  design: StudyDesign;
+  retentionDays: number;
+}
+
+/** A respondent link with its study and workspace facts, one query; null when unknown. */
+export async function loadLink(db: EntityManager, token: string): Promise<LinkInfo | null> {
+  if (!/^[A-Za-z0-9_-]{8,64}$/.test(token)) return null;
+  const rows = await db.getConnection().execute<Record<string, unknown>[]>(
+    `select l.id as link_id, l.closed_at, l.quota, l.accepts_pid, s.id as study_id, s.state, s.design, s.workspace_id, w.retention_days
+       from respondent_link l join study s on s.id = l.study_id join workspace w on w.id = s.workspace_id
+      where l.token = ?`,
+    [token],
+  );
+  const r = rows[0];
+  if (!r) return null;
+  return {
+    token,
+    linkId: String(r.link_id),
+    studyId: String(r.study_id),
+    workspaceId: String(r.workspace_id),
+    studyState: String(r.state),
+    closed: r.closed_at != null,
+    quota: r.quota == null ? null : Number(r.quota),
+    acceptsPid: Boolean(r.accepts_pid),
+    design: storedDesign(r.design),
+    retentionDays: Number(r.retention_days),
+  };
+}
+
+/** Why a link cannot take respondents: 404 unknown, 410 closed or not (or no longer) live. */
+export function linkRefusal(link: LinkInfo | null): AppError | null {
+  if (!link || link.studyState === 'imported') return new AppError(404, 'not_found', 'This link does not lead to a study. Check the address you were given.');
+  if (link.closed) return new AppError(410, 'gone', 'This link is closed. Thank you for your interest.');
+  if (link.studyState === 'paused') return new AppError(410, 'gone', 'This study is paused at the moment. Please try again later.');
+  if (link.studyState !== 'live') return new AppError(410, 'gone', 'This study is not open. Thank you for your interest.');
+  return null;
+}
+
+export async function openLink(db: EntityManager, token: string): Promise<LinkInfo> {
+  const link = await loadLink(db, token);
+  const refusal = linkRefusal(link);
+  if (refusal) throw refusal;
+  return link!;
+}
+
+export const resumeCookieName = (studyId: string) => `nw_r_${studyId}`;
