@@ -1,5 +1,5 @@
 import 'server-only';
-// The one way to reach the database. `db()` is the request's EntityManager: the route and
+// The one way to reach the database. `em()` is the request's EntityManager: the route and
 // action wrappers (lib/server/http) and the job worker open a MikroORM RequestContext, and a
 // server component render gets one fork shared by everything it calls (React's `cache`).
 // Outside all three (scripts, tests) each call forks a fresh one. Raw SQL goes through
@@ -26,7 +26,7 @@ export function orm(): Promise<MikroORM> {
 const renderFork = cache(async (): Promise<EntityManager> => (await orm()).em.fork());
 
 /** The current request's EntityManager (see the header). */
-export async function db(): Promise<EntityManager> {
+export async function em(): Promise<EntityManager> {
   const scoped = RequestContext.getEntityManager();
   if (scoped) return scoped as EntityManager;
   return renderFork();
@@ -37,6 +37,3 @@ export async function withRequestContext<T>(fn: () => Promise<T>): Promise<T> {
   const { em } = await orm();
   return RequestContext.create(em, fn);
 }
-
-/** @deprecated use db(); kept while callers move over. */
-export const em = db;

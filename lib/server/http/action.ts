@@ -2,11 +2,12 @@ import 'server-only';
 import { ZodError } from 'zod';
 import type { ActionResult } from '@/lib/action-result';
 import { AppError } from './errors';
+import { withRequestContext } from '@/lib/server/db/orm';
 
 /** Runs a server action body, turning expected failures into values the form can show. */
 export async function actionResult<T>(fn: () => Promise<T>): Promise<ActionResult<T>> {
   try {
-    return { ok: true, data: await fn() };
+    return { ok: true, data: await withRequestContext(fn) };
   } catch (err) {
     if (err instanceof ZodError) {
       const fieldErrors: Record<string, string> = {};

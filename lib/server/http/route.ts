@@ -1,10 +1,19 @@
 import 'server-only';
+// The HTTP boundary: every route handler is `route({ auth, ... }, handler)`. The wrapper
+// resolves who is calling (a workspace member from the session, a signed-in user, a personal
+// access token, or nobody — with the reason written down), opens one request-scoped
+// EntityManager, and turns the handler's result into a response: a DTO becomes JSON, `reply()`
+// sets a status or headers, a `Response` (files, redirects, HTML) passes through, and an
+// AppError or ZodError becomes the one error shape `{ error: { code, message, issues? } }`.
+// The data layer below never builds a Response.
 import { NextResponse, type NextRequest } from 'next/server';
 import { ZodError, type ZodType } from 'zod';
 import type { Role } from '@/lib/roles';
+import { withRequestContext } from '@/lib/server/db/orm';
 import { AppError, type FieldIssue } from './errors';
 import { authorise, type WorkspaceContext } from '@/lib/server/team/membership';
-import { currentUser } from '@/lib/server/team/session';
+import { currentUser, type SessionUser } from '@/lib/server/team/session';
+import { authenticateToken } from '@/lib/server/team/access-tokens';
 
 export function jsonError(status: number, code: string, message: string, issues?: FieldIssue[], headers?: Record<string, string>) {
   return NextResponse.json({ error: { code, message, ...(issues ? { issues } : {}) } }, { status, headers });
@@ -35,35 +44,85 @@ export async function readJson<T>(req: Request, schema: ZodType<T>): Promise<T> 
   return parsed.data;
 }
 
-type Params = Record<string, string | string[]>;
-type RouteCtx<P extends Params> = { params: Promise<P> };
+/** A DTO with a status other than 200, or extra headers (201 created, 202 pending, 204 …). */
+export class Reply<T> {
+  constructor(
+    readonly body: T | null,
+    readonly status: number,
+    readonly headers: Record<string, string> = {},
+  ) {}
+}
+export const reply = <T>(body: T | null, status: number, headers?: Record<string, string>) => new Reply(body, status, headers);
+export const noContent = () => new Reply(null, 204);
 
-/** A route handler that needs a signed-in member of the workspace in the URL. */
+type Params = Record<string, string | string[]>;
+
+/** Who may call a route. `public` needs a written reason (respondents, webhooks, sign-in). */
+export type RouteAuth =
+  | { auth: 'member'; role: Role }
+  | { auth: 'user' }
+  | { auth: 'token' }
+  | { auth: 'public'; reason: string };
+
+type Caller<A extends RouteAuth> = A extends { auth: 'member' } | { auth: 'token' }
+  ? { ctx: WorkspaceContext }
+  : A extends { auth: 'user' }
+    ? { user: SessionUser }
+    : Record<never, never>;
+
+export type RouteInput<A extends RouteAuth, P extends Params> = { req: NextRequest; params: P } & Caller<A>;
+
+async function resolveCaller(spec: RouteAuth, req: NextRequest, params: Params): Promise<Record<string, unknown>> {
+  switch (spec.auth) {
+    case 'member':
+      return { ctx: await authorise(await currentUser(), String(params.workspace ?? ''), spec.role) };
+    case 'user': {
+      const user = await currentUser();
+      if (!user) throw new AppError(401, 'unauthenticated', 'Sign in first.');
+      return { user };
+    }
+    case 'token':
+      return { ctx: await authenticateToken(req) };
+    case 'public':
+      return {};
+  }
+}
+
+function toResponse(out: unknown): Response {
+  if (out instanceof Response) return out;
+  if (out instanceof Reply) {
+    if (out.body === null) return new NextResponse(null, { status: out.status, headers: out.headers });
+    return NextResponse.json(out.body, { status: out.status, headers: out.headers });
+  }
+  return NextResponse.json(out ?? null);
+}
+
+/** The one route-handler wrapper (see the header). */
+export function route<P extends Params = Params, A extends RouteAuth = RouteAuth>(
+  spec: A,
+  handler: (input: RouteInput<A, P>) => Promise<unknown>,
+) {
+  return async (req: NextRequest, routeCtx: { params: Promise<P> }): Promise<Response> =>
+    withRequestContext(async () => {
+      try {
+        const params = ((await routeCtx?.params) ?? {}) as P;
+        const caller = await resolveCaller(spec, req, params);
+        return toResponse(await handler({ req, params, ...caller } as RouteInput<A, P>));
+      } catch (err) {
+        return toErrorResponse(err);
+      }
+    });
+}
+
+/** @deprecated use route({ auth: 'member', role }, …); removed once every handler moved. */
 export function workspaceRoute<P extends Params & { workspace: string }>(
   minimum: Role,
   handler: (req: NextRequest, ctx: WorkspaceContext, params: P) => Promise<Response>,
 ) {
-  return async (req: NextRequest, route: RouteCtx<P>) => {
-    try {
-      const params = await route.params;
-      const ctx = await authorise(await currentUser(), params.workspace, minimum);
-      return await handler(req, ctx, params);
-    } catch (err) {
-      return toErrorResponse(err);
-    }
-  };
+  return route<P, { auth: 'member'; role: Role }>({ auth: 'member', role: minimum }, ({ req, ctx, params }) => handler(req, ctx, params));
 }
 
-/** A route handler that needs only a signed-in user. */
-export function userRoute(handler: (req: NextRequest, user: NonNullable<Awaited<ReturnType<typeof currentUser>>>) => Promise<Response>) {
-  return async (req: NextRequest) => {
-    try {
-      const user = await currentUser();
-      if (!user) throw new AppError(401, 'unauthenticated', 'Sign in first.');
-      return await handler(req, user);
-    } catch (err) {
-      return toErrorResponse(err);
-    }
-  };
+/** @deprecated use route({ auth: 'user' }, …). */
+export function userRoute(handler: (req: NextRequest, user: SessionUser) => Promise<Response>) {
+  return route<Params, { auth: 'user' }>({ auth: 'user' }, ({ req, user }) => handler(req, user));
 }
-

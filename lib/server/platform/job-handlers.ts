@@ -3,12 +3,18 @@ import type PgBoss from 'pg-boss';
 import type { JobData } from '@/lib/server/analysis/cache';
 import { runFitJob } from '@/lib/server/analysis/study-fit';
 import { boss, type QueueName } from './jobs';
+import { withRequestContext } from '@/lib/server/db/orm';
 import { runPlannerJob } from '@/lib/server/analysis/planner';
 import { runSegmentsJob } from '@/lib/server/analysis/segments';
 
 // What the worker runs for each job kind; one place, so tests can call a handler directly.
 
-export async function handleJob(data: JobData, lastAttempt: boolean): Promise<void> {
+/** Runs one job with its own request-scoped EntityManager. */
+export function handleJob(data: JobData, lastAttempt: boolean): Promise<void> {
+  return withRequestContext(() => runJob(data, lastAttempt));
+}
+
+async function runJob(data: JobData, lastAttempt: boolean): Promise<void> {
   if (data.kind === 'fit') return runFitJob(data as Parameters<typeof runFitJob>[0], lastAttempt);
   if (data.kind === 'segments') return runSegmentsJob(data as Parameters<typeof runSegmentsJob>[0], lastAttempt);
   if (data.kind === 'planner') return runPlannerJob(data as Parameters<typeof runPlannerJob>[0], lastAttempt);
