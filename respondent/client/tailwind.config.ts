@@ -1,5 +1,5 @@
 import type { Config } from 'tailwindcss';
-import base from '@/tailwind.config';
+import base from '../../tailwind.config';
 
 // The app's theme, scanning only what the respondent pages render, so their stylesheet stays small.
 export default {
