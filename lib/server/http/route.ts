@@ -108,9 +108,9 @@ function toResponse(out: unknown): Response {
   return NextResponse.json(out ?? null);
 }
 
-const wrapped = new WeakSet<object>();
-/** Whether an exported method was made by `route()` (the generated isolation test checks every one). */
-export const isRouteHandler = (fn: unknown): boolean => typeof fn === 'function' && wrapped.has(fn);
+const specs = new WeakMap<object, RouteAuth>();
+/** The spec an exported method was made with, if `route()` made it (the isolation test checks every one). */
+export const routeSpec = (fn: unknown): RouteAuth | undefined => (typeof fn === 'function' ? specs.get(fn) : undefined);
 
 /** The one route-handler wrapper (see the header). */
 export function route<P extends Params = Params, const A extends RouteAuth = RouteAuth, Out = unknown>(
@@ -129,7 +129,7 @@ export function route<P extends Params = Params, const A extends RouteAuth = Rou
         return toErrorResponse(err);
       }
     });
-  wrapped.add(run);
+  specs.set(run, spec);
   return run as RouteHandler<Out>;
 }
 
