@@ -1,15 +1,16 @@
-import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
+import { afterEach, beforeAll, describe, expect, expectTypeOf, it, vi } from 'vitest';
 import { NextRequest } from 'next/server';
 import { z } from 'zod';
 import { RequestContext } from '@mikro-orm/postgresql';
 import { em } from '@/lib/server/db/orm';
 import { Membership } from '@/entities/membership';
-import { noContent, readJson, reply, route, routeSpec } from '@/lib/server/http/route';
+import { noContent, readJson, reply, route, routeSpec, type RouteDto } from '@/lib/server/http/route';
 import { download } from '@/lib/server/http/download';
 import { AppError } from '@/lib/server/http/errors';
 import { authorise } from '@/lib/server/team/membership';
 import { createApiToken, revokeApiToken } from '@/lib/server/team/access-tokens';
 import type { SessionUser } from '@/lib/server/team/session';
+import type { Role } from '@/lib/roles';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 
 // Protects the one HTTP boundary (lib/server/http/route.ts): who may call (session member,
@@ -211,5 +212,19 @@ describe('route(): what a handler returns', () => {
     expect(await (await callRoute(probe, { params: {} })).json()).toEqual({ scoped: true, same: true });
     await callRoute(probe, { params: {} });
     expect(seen[0]).not.toBe(seen[1]);
+  });
+});
+
+describe('RouteDto: clients type a response from the handler itself', () => {
+  it('is the DTO, a reply() body unwrapped, a file adding nothing (checked by the type checker, and the body matches at run time)', async () => {
+    const handler = route({ auth: 'public', reason: 'a probe for the wrapper test, reads nothing' }, async ({ req }) =>
+      req.nextUrl.searchParams.has('file') ? download({ filename: 'a.csv', contentType: 'text/csv', body: '' }) : reply({ id: 'a' }, 201));
+    expectTypeOf<RouteDto<typeof handler>>().toEqualTypeOf<{ id: string }>();
+    expectTypeOf<RouteDto<typeof asAnalyst>>().toEqualTypeOf<{ slug: string; role: Role; user: string }>();
+    const empty = route({ auth: 'public', reason: 'a probe for the wrapper test, reads nothing' }, async () => noContent());
+    expectTypeOf<RouteDto<typeof empty>>().toBeNever();
+    const body: RouteDto<typeof handler> = await (await callRoute(handler, { params: {} })).json();
+    expect(body).toEqual({ id: 'a' });
+    expect((await callRoute(empty, { params: {} })).status).toBe(204);
   });
 });
