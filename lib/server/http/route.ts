@@ -15,7 +15,7 @@ import { authorise, type WorkspaceContext } from '@/lib/server/team/membership';
 import { currentUser, type SessionUser } from '@/lib/server/team/session';
 import { authenticateToken } from '@/lib/server/team/access-tokens';
 
-export function jsonError(status: number, code: string, message: string, issues?: FieldIssue[], headers?: Record<string, string>) {
+function jsonError(status: number, code: string, message: string, issues?: FieldIssue[], headers?: Record<string, string>) {
   return NextResponse.json({ error: { code, message, ...(issues ? { issues } : {}) } }, { status, headers });
 }
 
