@@ -1,9 +1,34 @@
 import nextVitals from 'eslint-config-next/core-web-vitals';
 import nextTs from 'eslint-config-next/typescript';
 
+// Routes, pages and client code reach data only through lib/server's data-access functions,
+// which scope every query by workspace and return DTOs; importing the database module, the
+// ORM or an entity from here would skip both. tests/unit/lint-boundary.test.ts shows it fires.
+const DATA_LAYER_MESSAGE = 'Call a data-access function in lib/server/<domain> instead: it authorises, scopes by workspace and returns a DTO.';
+const dataLayerBoundary = {
+  files: ['app/**/*.{ts,tsx}', 'components/**/*.{ts,tsx}', 'respondent/client/**/*.{ts,tsx}'],
+  // The respondent routes still under app/api/r and app/(respondent) are being moved to
+  // app/r/[token] with their database calls in respondent/server; they leave this list then.
+  ignores: [
+    'app/api/r/[[]token]/{answer,complete,picture,state}/route.ts',
+    'app/(respondent)/r/[[]token]/route.ts',
+    'app/(respondent)/r/[[]token]/take-part/route.ts',
+  ],
+  rules: {
+    'no-restricted-imports': ['error', {
+      patterns: [
+        { group: ['@/lib/server/db', '@/lib/server/db/*', '**/lib/server/db', '**/lib/server/db/*'], message: `The database module is for lib/server only. ${DATA_LAYER_MESSAGE}` },
+        { group: ['@mikro-orm/*'], message: `The ORM is for lib/server only. ${DATA_LAYER_MESSAGE}` },
+        { group: ['@/entities', '@/entities/*', '**/entities', '**/entities/*'], message: `Entities never leave lib/server. ${DATA_LAYER_MESSAGE}` },
+      ],
+    }],
+  },
+};
+
 const config = [
   ...nextVitals,
   ...nextTs,
+  dataLayerBoundary,
   {
     ignores: ['node_modules/**', '.next/**', '.next-*/**', '.next-test*/**', '.data/**', '.test-output/**', 'next-env.d.ts', 'migrations/**', '.respondent-dist/**'],
   },

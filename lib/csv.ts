@@ -33,11 +33,3 @@ export function round(v: number | null | undefined, digits = 6): number | null {
   const f = 10 ** digits;
   return Math.round(v * f) / f;
 }
-
-export function csvHeaders(filename: string): Record<string, string> {
-  return {
-    'content-type': 'text/csv; charset=utf-8',
-    'content-disposition': `attachment; filename="${filename.replace(/[^A-Za-z0-9._-]/g, '-')}"`,
-    'cache-control': 'no-store',
-  };
-}

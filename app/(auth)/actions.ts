@@ -2,7 +2,7 @@
 import { AuthError } from 'next-auth';
 import { signIn, signOut } from '@/lib/server/team/auth';
 import { signUp } from '@/lib/server/team/accounts';
-import { actionResult } from '@/lib/server/http/action';
+import { action, formAction } from '@/lib/server/http/action';
 import { AppError } from '@/lib/server/http/errors';
 import { listWorkspacesByEmail } from '@/lib/server/team/membership';
 import { actionClientIp, limit } from '@/lib/server/platform/rate-limit';
@@ -20,8 +20,9 @@ async function startSession(email: string, password: string) {
   }
 }
 
-export async function signInAction(input: unknown, next?: string | null) {
-  return actionResult(async () => {
+export const signInAction = action(
+  { auth: 'public', reason: 'signing in is how a session starts; the password is the credential, rate-limited' },
+  async (_caller, input: unknown, next?: string | null) => {
     const data = signInSchema.parse(input);
     const ip = await actionClientIp();
     await limit('sign-in-ip', ip);
@@ -29,19 +30,20 @@ export async function signInAction(input: unknown, next?: string | null) {
     await startSession(data.email, data.password);
     const [first] = await listWorkspacesByEmail(data.email);
     return { redirectTo: safeNextPath(next) ?? (first ? `/w/${first.slug}` : '/') };
-  });
-}
+  },
+);
 
-export async function signUpAction(input: unknown) {
-  return actionResult(async () => {
+export const signUpAction = action(
+  { auth: 'public', reason: 'creates a new account and its own new workspace; touches no existing one' },
+  async (_caller, input: unknown) => {
     const data = signUpSchema.parse(input);
     await limit('sign-up-ip', await actionClientIp());
     const { workspaceSlug } = await signUp(data);
     await startSession(data.email, data.password);
     return { redirectTo: `/w/${workspaceSlug}` };
-  });
-}
+  },
+);
 
-export async function signOutAction() {
+export const signOutAction = formAction({ auth: 'public', reason: "ends the caller's own session, if any" }, async () => {
   await signOut({ redirectTo: '/sign-in' });
-}
+});

@@ -1,5 +1,8 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { MeResponse } from '@/app/api/me/route';
+import type { GET } from '@/app/api/me/route';
+import type { RouteDto } from '@/lib/server/http/route';
 import { fetchJson } from '@/lib/fetch-json';
+
+export type MeResponse = RouteDto<typeof GET>;
 
 export const meQuery = () => queryOptions({ queryKey: ['me'], queryFn: () => fetchJson<MeResponse>('/api/me') });

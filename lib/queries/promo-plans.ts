@@ -1,7 +1,10 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
-import type { PlanRowsResponse } from '@/app/api/w/[workspace]/promo-plans/[plan]/rows/route';
+import type { GET as PlanRowsGET } from '@/app/api/w/[workspace]/promo-plans/[plan]/rows/route';
+import type { RouteDto } from '@/lib/server/http/route';
 import { fetchJson } from '@/lib/fetch-json';
 import type { RowQuery } from '@/lib/promo/query-rows';
+
+export type PlanRowsResponse = RouteDto<typeof PlanRowsGET>;
 
 /** One page of a plan's rows; the previous page stays on screen while the next one loads. */
 export const planRowsQuery = (slug: string, planId: string, q: RowQuery) =>

@@ -1,8 +1,9 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { FitState } from '@/lib/server/analysis/study-fit';
-import type { getExclusions } from '@/lib/server/analysis/exclusions';
-import type { SegmentState } from '@/lib/server/analysis/segments';
-import type { PlannerState } from '@/lib/server/analysis/planner';
+import type { GET as ResultsGET } from '@/app/api/w/[workspace]/studies/[study]/results/route';
+import type { GET as ExclusionsGET } from '@/app/api/w/[workspace]/studies/[study]/exclusions/route';
+import type { GET as SegmentsGET } from '@/app/api/w/[workspace]/studies/[study]/results/segments/route';
+import type { GET as PlannerGET } from '@/app/api/w/[workspace]/studies/[study]/planner/route';
+import type { RouteDto } from '@/lib/server/http/route';
 import { fetchJson } from '@/lib/fetch-json';
 
 const base = (slug: string, study: string) => `/api/w/${encodeURIComponent(slug)}/studies/${encodeURIComponent(study)}`;
@@ -10,7 +11,7 @@ const base = (slug: string, study: string) => `/api/w/${encodeURIComponent(slug)
 /** Polls every second while the fit computes, every 15 s while fieldwork runs, else not at all. */
 export const resultsQuery = (slug: string, study: string) => queryOptions({
   queryKey: ['results', slug, study],
-  queryFn: () => fetchJson<FitState>(`${base(slug, study)}/results`),
+  queryFn: () => fetchJson<RouteDto<typeof ResultsGET>>(`${base(slug, study)}/results`),
   refetchInterval: (q) => {
     const d = q.state.data;
     if (!d || d.fit.status === 'pending') return 1000;
@@ -18,7 +19,7 @@ export const resultsQuery = (slug: string, study: string) => queryOptions({
   },
 });
 
-export type ExclusionsResponse = Awaited<ReturnType<typeof getExclusions>>;
+export type ExclusionsResponse = RouteDto<typeof ExclusionsGET>;
 export const exclusionsQuery = (slug: string, study: string) => queryOptions({
   queryKey: ['exclusions', slug, study],
   queryFn: () => fetchJson<ExclusionsResponse>(`${base(slug, study)}/exclusions`),
@@ -26,14 +27,14 @@ export const exclusionsQuery = (slug: string, study: string) => queryOptions({
 
 export const segmentsQuery = (slug: string, study: string, question: string) => queryOptions({
   queryKey: ['segments', slug, study, question],
-  queryFn: () => fetchJson<SegmentState>(`${base(slug, study)}/results/segments?question=${encodeURIComponent(question)}`),
+  queryFn: () => fetchJson<RouteDto<typeof SegmentsGET>>(`${base(slug, study)}/results/segments?question=${encodeURIComponent(question)}`),
   refetchInterval: (q) => (q.state.data?.status === 'pending' ? 1500 : false),
   enabled: question !== '',
 });
 
 export const plannerQuery = (slug: string, study: string, width: number | null) => queryOptions({
   queryKey: ['planner', slug, study, width],
-  queryFn: () => fetchJson<PlannerState>(`${base(slug, study)}/planner?width=${width}`),
+  queryFn: () => fetchJson<RouteDto<typeof PlannerGET>>(`${base(slug, study)}/planner?width=${width}`),
   refetchInterval: (q) => (q.state.data?.status === 'pending' ? 2000 : false),
   enabled: width !== null,
 });

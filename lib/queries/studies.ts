@@ -1,6 +1,7 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { FieldworkDto } from '@/lib/server/studies/fieldwork';
-import type { StudyLinkDto } from '@/lib/server/studies/respondent-links';
+import type { GET as FieldworkGET } from '@/app/api/w/[workspace]/studies/[study]/fieldwork/route';
+import type { GET as LinksGET } from '@/app/api/w/[workspace]/studies/[study]/links/route';
+import type { RouteDto } from '@/lib/server/http/route';
 import { fetchJson } from '@/lib/fetch-json';
 
 const base = (slug: string, study: string) => `/api/w/${encodeURIComponent(slug)}/studies/${study}`;
@@ -9,14 +10,14 @@ const base = (slug: string, study: string) => `/api/w/${encodeURIComponent(slug)
 export const fieldworkQuery = (slug: string, study: string) =>
   queryOptions({
     queryKey: ['fieldwork', slug, study],
-    queryFn: () => fetchJson<FieldworkDto>(`${base(slug, study)}/fieldwork`),
+    queryFn: () => fetchJson<RouteDto<typeof FieldworkGET>>(`${base(slug, study)}/fieldwork`),
     refetchInterval: (q) => (q.state.data?.state === 'live' ? 5000 : false),
   });
 
 export const linksQuery = (slug: string, study: string) =>
   queryOptions({
     queryKey: ['links', slug, study],
-    queryFn: async () => (await fetchJson<{ links: StudyLinkDto[] }>(`${base(slug, study)}/links`)).links,
+    queryFn: async () => (await fetchJson<RouteDto<typeof LinksGET>>(`${base(slug, study)}/links`)).links,
   });
 
 export const studyApi = base;

@@ -8,12 +8,16 @@ vi.mock('next/headers', () => ({
 }));
 
 import { AppError } from '@/lib/server/http/errors';
+import { routeSpec, type RouteAuth } from '@/lib/server/http/route';
+import { actionGuard } from '@/lib/server/http/action';
 import { callRoute, signInAs } from '../support/factories';
 import { loadActions, loadRoutes, parameterNames, type HttpMethod, type RouteModule } from '../support/route-tree';
 import { countsOf, makeTenantFixture, type TenantFixture } from '../support/tenant-fixture';
 
 // Generated from the route tree: every route.ts under app/ and every 'use server' file under
 // app/ and lib/ is found and imported at test time, so a new one is covered automatically.
+// Each exported method must be made by route() and each action by action(), with the guard
+// the route's place in the tree calls for.
 
 /** Routes outside /api/w/[workspace] that are public by design, each with its reason. */
 const PUBLIC_ROUTES: { pattern: RegExp; reason: string }[] = [
@@ -29,6 +33,12 @@ const PUBLIC_ROUTES: { pattern: RegExp; reason: string }[] = [
 const USER_ROUTES: { pattern: RegExp; reason: string }[] = [
   { pattern: /^\/api\/me$/, reason: "the caller's own account and memberships" },
 ];
+/** Route files that answer without route(), each with its reason; none may hold workspace data. */
+const UNWRAPPED_ROUTES: { pattern: RegExp; reason: string }[] = [
+  { pattern: /^\/api\/r\/\[token\](\/.*)?$/, reason: 'respondent endpoints: respondentRoute() in respondent/server/http.ts (no session, never cached)' },
+  { pattern: /^\/r\/\[token\](\/.*)?$/, reason: 'respondent entry link and flow document: HTML pages and redirects, no session' },
+  { pattern: /^\/r-assets\/\[file\]$/, reason: "the respondent bundle's static files (hashed names only), no data" },
+];
 /** Server actions anyone may call, each with its reason; every other action must refuse an outsider. */
 const PUBLIC_ACTIONS: Record<string, string> = {
   'app/(auth)/actions.ts#signUpAction': 'creates a new account and its own new workspace; touches no existing one',
@@ -43,6 +53,7 @@ const QUERY: Record<string, string> = {
 };
 
 const WORKSPACE = /^\/api\/w\/\[workspace\](\/|$)/;
+const TOKEN_API = /^\/api\/v1(\/|$)/;
 type Kind = 'workspace' | 'user' | 'public' | 'unclassified';
 const classify = (r: RouteModule): Kind =>
   WORKSPACE.test(r.pattern) ? 'workspace' : USER_ROUTES.some((u) => u.pattern.test(r.pattern)) ? 'user' : PUBLIC_ROUTES.some((p) => p.pattern.test(r.pattern)) ? 'public' : 'unclassified';
@@ -88,6 +99,30 @@ describe('the route tree is fully classified', () => {
 
   it('every allow-list entry still matches a route (no stale exceptions)', () => {
     for (const p of [...PUBLIC_ROUTES, ...USER_ROUTES]) expect(routes.some((r) => p.pattern.test(r.pattern)), String(p.pattern)).toBe(true);
+  });
+
+  it('every exported method is made by route(), unless its file is on the unwrapped list with a reason', () => {
+    const unwrapped = routes.flatMap((r) => methodsOf(r).filter((m) => !routeSpec(r.methods[m])).map((m) => ({ r, m })));
+    const unlisted = unwrapped.filter(({ r }) => !UNWRAPPED_ROUTES.some((u) => u.pattern.test(r.pattern))).map(({ r, m }) => `${m} ${r.file}`);
+    expect(unlisted, 'wrap the handler in route({ auth, ... }) from lib/server/http/route.ts').toEqual([]);
+    for (const u of UNWRAPPED_ROUTES) expect(unwrapped.some(({ r }) => u.pattern.test(r.pattern)), `stale unwrapped entry ${u.pattern}`).toBe(true);
+    // The wrapped ones are most of the tree: the check above is not vacuous.
+    expect(routes.filter((r) => methodsOf(r).every((m) => routeSpec(r.methods[m]))).length).toBeGreaterThan(workspaceRoutes.length);
+  });
+
+  it("each route()'s guard fits its place: member under /api/w/[workspace], user for /api/me, token for /api/v1, public only when allow-listed", () => {
+    const expected = (r: RouteModule): RouteAuth['auth'] =>
+      classify(r) === 'workspace' ? 'member' : classify(r) === 'user' ? 'user' : TOKEN_API.test(r.pattern) ? 'token' : 'public';
+    const wrong: string[] = [];
+    for (const r of routes) {
+      for (const m of methodsOf(r)) {
+        const spec = routeSpec(r.methods[m]);
+        if (!spec) continue;
+        if (spec.auth !== expected(r)) wrong.push(`${m} ${r.pattern}: auth '${spec.auth}', expected '${expected(r)}'`);
+        if (spec.auth === 'public' && spec.reason.trim().length < 10) wrong.push(`${m} ${r.pattern}: a public route needs its reason`);
+      }
+    }
+    expect(wrong).toEqual([]);
   });
 });
 
@@ -177,9 +212,24 @@ describe('server actions refuse an outsider', () => {
     expect(all.length).toBeGreaterThan(3);
   });
 
-  /** Arguments by parameter name: A's slug and ids, an unknown token, a plausible form. */
-  function argsFor(fn: (...a: never[]) => unknown): unknown[] {
-    return parameterNames(fn).map((name, i) => {
+  it('every action is made by action() (one guard), and the allow-listed ones are declared public in code with a reason', () => {
+    expect(all.filter((a) => !actionGuard(a.fn)).map((a) => a.id), 'wrap the action in action({ auth, ... }) from lib/server/http/action.ts').toEqual([]);
+    for (const id of Object.keys(PUBLIC_ACTIONS)) {
+      const spec = actionGuard(all.find((a) => a.id === id)?.fn)?.spec;
+      expect(spec?.auth, id).toBe('public');
+      expect(spec && spec.auth === 'public' ? spec.reason.length : 0, id).toBeGreaterThan(10);
+    }
+  });
+
+  /**
+   * Arguments by the parameter names of the action's body (after the caller it is handed):
+   * A's slug first for member actions, then A's ids, an unknown token, a plausible form.
+   */
+  function argsFor(exported: (...a: never[]) => unknown): unknown[] {
+    const guard = actionGuard(exported);
+    const names = guard ? parameterNames(guard.fn).slice(1) : parameterNames(exported);
+    const slug = guard?.spec.auth === 'member' ? [fx.a.slug] : [];
+    return [...slug, ...names.map((name, i) => {
       const n = name.toLowerCase();
       if (n.includes('slug') || n.includes('workspace')) return fx.a.slug;
       if (n.includes('token')) return randomBytes(32).toString('base64url');
@@ -188,7 +238,7 @@ describe('server actions refuse an outsider', () => {
       if (id) return id[1];
       if (i === 0 && !['input', 'data', 'values', 'form', 'formdata'].includes(n)) return fx.a.slug;
       return { email: fx.a.owner.email, password: 'not-the-password-123', name: 'Outsider', workspaceName: `Outsider ${i}`, role: 'owner', studyId: fx.studyId };
-    });
+    })];
   }
 
   for (const { id, fn } of all) {

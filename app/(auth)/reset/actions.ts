@@ -1,29 +1,31 @@
 'use server';
-import { actionResult } from '@/lib/server/http/action';
+import { action } from '@/lib/server/http/action';
 import { completePasswordReset, requestPasswordReset } from '@/lib/server/team/password-reset';
 import { listWorkspacesByEmail } from '@/lib/server/team/membership';
 import { actionClientIp, limit } from '@/lib/server/platform/rate-limit';
 import { startSession } from '@/lib/server/team/start-session';
 import { newPasswordSchema, resetRequestSchema } from '@/lib/schemas/team.schema';
 
-export async function requestResetAction(input: unknown) {
-  return actionResult(async () => {
+export const requestResetAction = action(
+  { auth: 'public', reason: 'answers the same for every address; the link goes only to the mailbox' },
+  async (_caller, input: unknown) => {
     const { email } = resetRequestSchema.parse(input);
     const ip = await actionClientIp();
     await limit('reset-ip', ip);
     await limit('reset-email', email.toLowerCase());
     return { message: await requestPasswordReset(email) };
-  });
-}
+  },
+);
 
 /** Sets the new password (other sessions end) and signs this browser in fresh. */
-export async function completeResetAction(token: string, input: unknown) {
-  return actionResult(async () => {
+export const completeResetAction = action(
+  { auth: 'public', reason: 'the reset token from the e-mail is the credential (single use, expires)' },
+  async (_caller, token: string, input: unknown) => {
     const { password } = newPasswordSchema.parse(input);
     await limit('reset-ip', await actionClientIp());
     const { email } = await completePasswordReset(token, password);
     await startSession(email, password);
     const [first] = await listWorkspacesByEmail(email);
     return { redirectTo: first ? `/w/${first.slug}` : '/' };
-  });
-}
+  },
+);

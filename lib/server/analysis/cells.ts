@@ -7,6 +7,8 @@ import { rulesOrDefault } from '@/lib/schemas/exclusions.schema';
 import type { Cell, CatchCell, Task } from '@/lib/psychometrics/types';
 import { notFoundError } from '@/lib/server/http/errors';
 import { requireUuid } from '@/lib/server/platform/ids';
+import { em } from '@/lib/server/db/orm';
+import type { WorkspaceContext } from '@/lib/server/team/membership';
 
 // Trials → the engine's cells, after the study's exclusion rules. Aggregation happens in SQL
 // (GROUP BY base price and discount) so the cost stays with the design, not the respondents.
@@ -160,4 +162,9 @@ export async function hasAnsweredTests(db: EntityManager, studyId: string): Prom
     [studyId],
   );
   return Boolean(rows[0]?.ok);
+}
+
+/** For pages: the caller's study with its design read for analysis; another workspace's is a 404. */
+export async function getStudyInfo(ctx: WorkspaceContext, studyId: string): Promise<StudyInfo> {
+  return findStudy(await em(), ctx.workspace.id, studyId);
 }

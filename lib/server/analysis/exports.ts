@@ -1,11 +1,12 @@
 import 'server-only';
 import type { AnalysisReport } from '@/lib/psychometrics/report-types';
-import { csvHeaders, round, toCsv, type CsvValue } from '@/lib/csv';
+import { round, toCsv, type CsvValue } from '@/lib/csv';
 import { describeRules } from '@/lib/schemas/exclusions.schema';
 import { fitCautions, modelLabel } from '@/lib/results-text';
 import { getFitState, isPoorFit, type FitState, type Segment } from './study-fit';
 import { em } from '@/lib/server/db/orm';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
+import { csvFile, jsonFile, type FileDownload, type PendingFile } from '@/lib/server/http/download';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 import { findStudy, respondentRows, screen } from './cells';
 
@@ -90,26 +91,23 @@ async function thresholds(ctx: WorkspaceContext, studyId: string, segmentQuestio
   return { all, report: report!, rows };
 }
 
-export async function exportFile(ctx: WorkspaceContext, studyId: string, file: ExportFile, opts: { segmentQuestion?: string | null } = {}): Promise<Response> {
+export async function exportFile(ctx: WorkspaceContext, studyId: string, file: ExportFile, opts: { segmentQuestion?: string | null } = {}): Promise<FileDownload> {
   const seg = opts.segmentQuestion || null;
   const stem = `study-${studyId.slice(0, 8)}`;
-  if (file === 'trials.csv') {
-    const csv = await trialsCsv(ctx, studyId);
-    return new Response(csv, { headers: csvHeaders(`${stem}-trials.csv`) });
-  }
+  if (file === 'trials.csv') return csvFile(`${stem}-trials.csv`, await trialsCsv(ctx, studyId));
   const { all, report, rows } = await thresholds(ctx, studyId, seg);
   if (file === 'thresholds.csv') {
     const header = Object.keys(rows[0] ?? {});
-    return new Response(toCsv(header, rows.map((r) => Object.values(r) as CsvValue[])), { headers: csvHeaders(`${stem}-thresholds.csv`) });
+    return csvFile(`${stem}-thresholds.csv`, toCsv(header, rows.map((r) => Object.values(r) as CsvValue[])));
   }
   const head = about(all, report, seg);
   if (file === 'thresholds-about.csv') {
     const pairs: CsvValue[][] = Object.entries(head).filter(([k]) => k !== 'exclusionRulesRaw').flatMap(([k, v]) =>
       Array.isArray(v) && v.every((x) => typeof x === 'string') ? (v as string[]).map((x) => [k, x]) : [[k, v === null ? '' : typeof v === 'object' ? JSON.stringify(v) : (v as CsvValue)]]);
-    return new Response(toCsv(['Field', 'Value'], pairs), { headers: csvHeaders(`${stem}-thresholds-about.csv`) });
+    return csvFile(`${stem}-thresholds-about.csv`, toCsv(['Field', 'Value'], pairs));
   }
-  if (file === 'thresholds.json') return Response.json({ about: head, thresholds: rows }, { headers: { 'cache-control': 'no-store' } });
-  return Response.json({ about: head, counts: all.counts, cells: all.cells, report }, { headers: { 'cache-control': 'no-store' } });
+  if (file === 'thresholds.json') return jsonFile(`${stem}-thresholds.json`, { about: head, thresholds: rows });
+  return jsonFile(`${stem}-report.json`, { about: head, counts: all.counts, cells: all.cells, report });
 }
 
 /** Tidy raw trials: one row per test or catch trial of every finished respondent, excluded ones marked. */
@@ -134,14 +132,14 @@ export async function trialsCsv(ctx: WorkspaceContext, studyId: string): Promise
 
 /**
  * One export download as both the app and the token API serve it: an unknown file is a 404,
- * a fit still being computed a 202 with Retry-After.
+ * a fit still being computed a pending answer (the route sends 202 with Retry-After).
  */
-export async function exportDownload(ctx: WorkspaceContext, studyId: string, file: string, segmentQuestion: string | null): Promise<Response> {
+export async function exportDownload(ctx: WorkspaceContext, studyId: string, file: string, segmentQuestion: string | null): Promise<FileDownload | PendingFile> {
   if (!(EXPORT_FILES as readonly string[]).includes(file)) throw notFoundError('That export');
   try {
     return await exportFile(ctx, studyId, file as ExportFile, { segmentQuestion });
   } catch (err) {
-    if (err instanceof ExportPending) return Response.json({ status: 'pending', message: err.message }, { status: 202, headers: { 'retry-after': '3' } });
+    if (err instanceof ExportPending) return { status: 'pending', message: err.message, retryAfterSeconds: 3 };
     throw err;
   }
 }

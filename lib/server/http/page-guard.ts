@@ -1,7 +1,10 @@
 import 'server-only';
-import { redirect, notFound } from 'next/navigation';
+// Pages guard themselves (a layout's check is a convenience, never the guard): signed out goes
+// to sign-in, an outsider sees the not-found page, a weaker role the "not allowed" page.
+import { redirect } from 'next/navigation';
 import type { Role } from '@/lib/roles';
 import { AppError } from './errors';
+import { orNotFound } from './not-found';
 import { authorise, type WorkspaceContext } from '@/lib/server/team/membership';
 import { currentUser, type SessionUser } from '@/lib/server/team/session';
 
@@ -19,15 +22,9 @@ export async function requireUser(next?: string): Promise<SessionUser> {
 export async function requireRole(slug: string, minimum: Role, next?: string): Promise<WorkspaceContext> {
   const user = await requireUser(next ?? `/w/${slug}`);
   try {
-    return await authorise(user, slug, minimum);
+    return await orNotFound(authorise(user, slug, minimum));
   } catch (err) {
-    if (err instanceof AppError && err.status === 404) notFound();
     if (err instanceof AppError && err.status === 403) redirect(`/w/${encodeURIComponent(slug)}/not-allowed`);
     throw err;
   }
-}
-
-/** Server actions: membership with at least `minimum`, or an AppError the action turns into a message. */
-export async function requireActionRole(slug: string, minimum: Role): Promise<WorkspaceContext> {
-  return authorise(await currentUser(), slug, minimum);
 }

@@ -6,16 +6,16 @@ import 'server-only';
 // sets a status or headers, a `Response` (files, redirects, HTML) passes through, and an
 // AppError or ZodError becomes the one error shape `{ error: { code, message, issues? } }`.
 // The data layer below never builds a Response.
-import { NextResponse, type NextRequest } from 'next/server';
+import { NextRequest, NextResponse } from 'next/server';
 import { ZodError, type ZodType } from 'zod';
 import type { Role } from '@/lib/roles';
 import { withRequestContext } from '@/lib/server/db/orm';
-import { AppError, type FieldIssue } from './errors';
+import { AppError, unauthenticatedError, type FieldIssue } from './errors';
 import { authorise, type WorkspaceContext } from '@/lib/server/team/membership';
 import { currentUser, type SessionUser } from '@/lib/server/team/session';
 import { authenticateToken } from '@/lib/server/team/access-tokens';
 
-export function jsonError(status: number, code: string, message: string, issues?: FieldIssue[], headers?: Record<string, string>) {
+function jsonError(status: number, code: string, message: string, issues?: FieldIssue[], headers?: Record<string, string>) {
   return NextResponse.json({ error: { code, message, ...(issues ? { issues } : {}) } }, { status, headers });
 }
 
@@ -52,10 +52,21 @@ export class Reply<T> {
     readonly headers: Record<string, string> = {},
   ) {}
 }
-export const reply = <T>(body: T | null, status: number, headers?: Record<string, string>) => new Reply(body, status, headers);
-export const noContent = () => new Reply(null, 204);
+export const reply = <T>(body: T | null, status: number, headers?: Record<string, string>) => new Reply<T>(body, status, headers);
+export const noContent = () => new Reply<never>(null, 204);
 
-type Params = Record<string, string | string[]>;
+/** Dynamic segments as handlers see them: a catch-all segment's parts arrive joined by "/". */
+type Params = Record<string, string>;
+type RawParams = Record<string, string | string[]>;
+
+// The handler's result type rides on the exported function as a phantom property, so client
+// code types a response as `RouteDto<typeof GET>` — from the handler, never a second interface.
+declare const DTO: unique symbol;
+/** A route handler as Next.js calls it, carrying the type of what its own handler returned. */
+export type RouteHandler<Out> = ((req: Request, routeCtx?: { params: Promise<RawParams> }) => Promise<Response>) & { readonly [DTO]: Out };
+type BodyOf<T> = T extends Reply<infer B> ? B : T extends Response ? never : T;
+/** The JSON body a client receives from a 2xx answer of `H` (a `Response` — a file — adds nothing). */
+export type RouteDto<H> = H extends { readonly [DTO]: infer Out } ? BodyOf<Awaited<Out>> : never;
 
 /** Who may call a route. `public` needs a written reason (respondents, webhooks, sign-in). */
 export type RouteAuth =
@@ -70,7 +81,7 @@ type Caller<A extends RouteAuth> = A extends { auth: 'member' } | { auth: 'token
     ? { user: SessionUser }
     : Record<never, never>;
 
-export type RouteInput<A extends RouteAuth, P extends Params> = { req: NextRequest; params: P } & Caller<A>;
+export type RouteInput<A extends RouteAuth, P extends Params = Params> = { req: NextRequest; params: P } & Caller<A>;
 
 async function resolveCaller(spec: RouteAuth, req: NextRequest, params: Params): Promise<Record<string, unknown>> {
   switch (spec.auth) {
@@ -78,7 +89,7 @@ async function resolveCaller(spec: RouteAuth, req: NextRequest, params: Params):
       return { ctx: await authorise(await currentUser(), String(params.workspace ?? ''), spec.role) };
     case 'user': {
       const user = await currentUser();
-      if (!user) throw new AppError(401, 'unauthenticated', 'Sign in first.');
+      if (!user) throw unauthenticatedError();
       return { user };
     }
     case 'token':
@@ -97,32 +108,28 @@ function toResponse(out: unknown): Response {
   return NextResponse.json(out ?? null);
 }
 
+const specs = new WeakMap<object, RouteAuth>();
+/** The spec an exported method was made with, if `route()` made it (the isolation test checks every one). */
+export const routeSpec = (fn: unknown): RouteAuth | undefined => (typeof fn === 'function' ? specs.get(fn) : undefined);
+
 /** The one route-handler wrapper (see the header). */
-export function route<P extends Params = Params, A extends RouteAuth = RouteAuth>(
+export function route<P extends Params = Params, const A extends RouteAuth = RouteAuth, Out = unknown>(
   spec: A,
-  handler: (input: RouteInput<A, P>) => Promise<unknown>,
-) {
-  return async (req: NextRequest, routeCtx: { params: Promise<P> }): Promise<Response> =>
+  handler: (input: RouteInput<A, P>) => Promise<Out>,
+): RouteHandler<Out> {
+  const run = async (request: Request, routeCtx?: { params: Promise<RawParams> }): Promise<Response> =>
     withRequestContext(async () => {
       try {
-        const params = ((await routeCtx?.params) ?? {}) as P;
+        const req = request instanceof NextRequest ? request : new NextRequest(request);
+        const raw = (await routeCtx?.params) ?? {};
+        const params: Params = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, Array.isArray(v) ? v.join('/') : v]));
         const caller = await resolveCaller(spec, req, params);
         return toResponse(await handler({ req, params, ...caller } as RouteInput<A, P>));
       } catch (err) {
         return toErrorResponse(err);
       }
     });
+  specs.set(run, spec);
+  return run as RouteHandler<Out>;
 }
 
-/** @deprecated use route({ auth: 'member', role }, …); removed once every handler moved. */
-export function workspaceRoute<P extends Params & { workspace: string }>(
-  minimum: Role,
-  handler: (req: NextRequest, ctx: WorkspaceContext, params: P) => Promise<Response>,
-) {
-  return route<P, { auth: 'member'; role: Role }>({ auth: 'member', role: minimum }, ({ req, ctx, params }) => handler(req, ctx, params));
-}
-
-/** @deprecated use route({ auth: 'user' }, …). */
-export function userRoute(handler: (req: NextRequest, user: SessionUser) => Promise<Response>) {
-  return route<Params, { auth: 'user' }>({ auth: 'user' }, ({ req, user }) => handler(req, user));
-}

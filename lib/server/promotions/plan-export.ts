@@ -1,6 +1,5 @@
 import 'server-only';
-import { NextResponse } from 'next/server';
-import { csvHeaders } from '@/lib/csv';
+import { csvFile, jsonFile, type FileDownload } from '@/lib/server/http/download';
 import { planAboutCsv, planCsv, planJson, type PlanExportHeader } from '@/lib/promo/plan-export';
 import { FLOOR_MODEL_SHORT } from '@/lib/promo/model-choice';
 import { PRICE_ENDING_LABELS } from '@/lib/schemas/study.schema';
@@ -12,8 +11,8 @@ export type ExportFormat = (typeof EXPORT_FORMATS)[number];
 
 const fileStem = (name: string) => `promo-plan-${name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'plan'}`;
 
-/** One export of a plan as a download response. */
-export async function exportPlan(ctx: WorkspaceContext, planId: string, format: ExportFormat): Promise<Response> {
+/** One export of a plan as a file (the route sends it as a download). */
+export async function exportPlan(ctx: WorkspaceContext, planId: string, format: ExportFormat): Promise<FileDownload> {
   const { plan, rows, summary } = await planTable(ctx, planId);
   const generatedAt = new Date().toISOString();
   const header: PlanExportHeader = {
@@ -30,9 +29,7 @@ export async function exportPlan(ctx: WorkspaceContext, planId: string, format: 
     poorFit: plan.poorFit,
   };
   const stem = fileStem(plan.name);
-  if (format === 'csv') return new Response(planCsv(plan.priceList.currency, rows), { headers: csvHeaders(`${stem}.csv`) });
-  if (format === 'about-csv') return new Response(planAboutCsv(header, generatedAt), { headers: csvHeaders(`${stem}-about.csv`) });
-  return NextResponse.json(planJson(header, summary, rows, generatedAt), {
-    headers: { 'content-disposition': `attachment; filename="${stem}.json"`, 'cache-control': 'no-store' },
-  });
+  if (format === 'csv') return csvFile(`${stem}.csv`, planCsv(plan.priceList.currency, rows));
+  if (format === 'about-csv') return csvFile(`${stem}-about.csv`, planAboutCsv(header, generatedAt));
+  return jsonFile(`${stem}.json`, planJson(header, summary, rows, generatedAt));
 }

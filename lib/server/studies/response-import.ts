@@ -179,15 +179,3 @@ export async function readUpload(req: Request): Promise<{ text: string; fields: 
   form.forEach((v, k) => { if (typeof v === 'string') fields[k] = v; });
   return { text: await file.text(), fields };
 }
-
-/**
- * The route's answer: 200/201 with the check, or a 422 that carries the one JSON error shape
- * (for API clients) beside the row-numbered check (for the import form).
- */
-export function importResponse(result: { check: ImportCheck; imported: unknown }, dryRun: boolean): Response {
-  if (result.check.ok) return Response.json(result, { status: dryRun ? 200 : 201 });
-  const n = result.check.errors.length;
-  const first = result.check.errors[0];
-  const message = `${n} problem${n === 1 ? '' : 's'} found; nothing was imported.${first ? ` Row ${first.row}: ${first.message}` : ''}`;
-  return Response.json({ error: { code: 'validation_failed', message }, ...result }, { status: 422 });
-}

@@ -1,20 +1,17 @@
 import 'server-only';
-import type { NextRequest } from 'next/server';
 import { ApiToken, type IApiToken } from '@/entities/api-token';
-import { Membership } from '@/entities/membership';
-import { hasRole } from '@/lib/roles';
-import { toErrorResponse } from '@/lib/server/http/route';
 import { recordAudit } from './audit';
 import { em } from '@/lib/server/db/orm';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import { requireUuid } from '@/lib/server/platform/ids';
 import { hashToken, randomToken } from '@/lib/server/platform/tokens';
-import type { WorkspaceContext } from './membership';
+import { authorise, type WorkspaceContext } from './membership';
 
 // Personal access tokens for the read-only export API (/api/v1). The token is shown once; only
 // its SHA-256 hash is stored (a 256-bit random token needs no slow hash), with a short prefix
 // so its owner can tell tokens apart. A token acts for its user in its one workspace, as a
-// viewer, and only while the user is still a member.
+// viewer, and only while the user is still a member — decided by the same `authorise` that
+// guards a session, so a token can never reach what its user could not.
 
 const PREFIX_LENGTH = 11;
 
@@ -57,34 +54,25 @@ export async function revokeApiToken(ctx: WorkspaceContext, id: string): Promise
 
 const unauthorised = () => new AppError(401, 'unauthenticated', 'Send a valid access token: Authorization: Bearer <token>.', undefined, { 'www-authenticate': 'Bearer' });
 
-/** The workspace context a bearer token grants (viewer rights), or a 401. */
+/**
+ * The workspace context a bearer token grants: the token names a user and a workspace, and the
+ * session guard decides as for a signed-in viewer. Any refusal is a 401 (the caller holds a
+ * token, not a session, so "sign in" or "not found" would mislead).
+ */
 export async function authenticateToken(req: Request): Promise<WorkspaceContext> {
   const m = /^Bearer\s+(\S+)\s*$/i.exec(req.headers.get('authorization') ?? '');
   if (!m) throw unauthorised();
   const db = await em();
   const row = await db.findOne(ApiToken, { tokenHash: hashToken(m[1]), revokedAt: null }, { populate: ['workspace', 'user'] });
   if (!row) throw unauthorised();
-  const member = await db.findOne(Membership, { user: row.user.id, workspace: row.workspace.id });
-  if (!member || !hasRole(member.role, 'viewer')) throw unauthorised();
+  const user = { id: row.user.id, email: row.user.email, name: row.user.name };
+  const ctx = await authorise(user, row.workspace.slug, 'viewer').catch((err: unknown) => {
+    throw err instanceof AppError ? unauthorised() : err;
+  });
   // Coarse on purpose: one write per token per minute at most.
   if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > 60_000) {
     await db.nativeUpdate(ApiToken, { id: row.id }, { lastUsedAt: new Date() });
   }
-  return {
-    user: { id: row.user.id, email: row.user.email, name: row.user.name },
-    workspace: { id: row.workspace.id, slug: row.workspace.slug, name: row.workspace.name },
-    role: 'viewer',
-  };
-}
-
-/** A GET route handler of the token API. */
-export function tokenRoute<P extends Record<string, string>>(handler: (req: NextRequest, ctx: WorkspaceContext, params: P) => Promise<Response>) {
-  return async (req: NextRequest, route: { params: Promise<P> }) => {
-    try {
-      const ctx = await authenticateToken(req);
-      return await handler(req, ctx, await route.params);
-    } catch (err) {
-      return toErrorResponse(err);
-    }
-  };
+  // A token reads; whatever the user's own role, it acts as a viewer.
+  return { ...ctx, role: 'viewer' };
 }

@@ -1,28 +1,24 @@
 'use server';
-import { actionResult } from '@/lib/server/http/action';
-import { AppError } from '@/lib/server/http/errors';
+import { action } from '@/lib/server/http/action';
 import { acceptInvitation, signUpWithInvitation } from '@/lib/server/team/invitations';
 import { actionClientIp, limit } from '@/lib/server/platform/rate-limit';
-import { currentUser } from '@/lib/server/team/session';
 import { startSession } from '@/lib/server/team/start-session';
 import { inviteSignUpSchema } from '@/lib/schemas/team.schema';
 
-export async function acceptInviteAction(token: string) {
-  return actionResult(async () => {
-    const user = await currentUser();
-    if (!user) throw new AppError(401, 'unauthenticated', 'Sign in first.');
-    await limit('invite-ip', await actionClientIp());
-    const { workspaceSlug } = await acceptInvitation(token, user);
-    return { redirectTo: `/w/${workspaceSlug}` };
-  });
-}
+/** A signed-in user joins the workspace the invitation is for. */
+export const acceptInviteAction = action({ auth: 'user' }, async ({ user }, token: string) => {
+  await limit('invite-ip', await actionClientIp());
+  const { workspaceSlug } = await acceptInvitation(token, user);
+  return { redirectTo: `/w/${workspaceSlug}` };
+});
 
-export async function inviteSignUpAction(token: string, input: unknown) {
-  return actionResult(async () => {
+export const inviteSignUpAction = action(
+  { auth: 'public', reason: 'the invitation token from the e-mail is the credential; the new account joins only that workspace' },
+  async (_caller, token: string, input: unknown) => {
     const data = inviteSignUpSchema.parse(input);
     await limit('invite-ip', await actionClientIp());
     const { workspaceSlug, email } = await signUpWithInvitation(token, data);
     await startSession(email, data.password);
     return { redirectTo: `/w/${workspaceSlug}` };
-  });
-}
+  },
+);

@@ -1,18 +1,11 @@
-import { jsonError } from '@/lib/server/http/route';
+import { route } from '@/lib/server/http/route';
+import { download } from '@/lib/server/http/download';
+import { notFoundError } from '@/lib/server/http/errors';
 import { readPicture } from '@/lib/server/studies/assets';
 
-/** Public: the respondent page shows the picture. Ids are random UUIDs and an upload never changes. */
-export async function GET(_req: Request, { params }: { params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  const pic = await readPicture(id);
-  if (!pic) return jsonError(404, 'not_found', 'That picture was not found.');
-  return new Response(new Uint8Array(pic.bytes), {
-    headers: {
-      'content-type': pic.contentType,
-      'content-length': String(pic.bytes.byteLength),
-      'cache-control': 'public, max-age=31536000, immutable',
-      'x-content-type-options': 'nosniff',
-      'content-security-policy': "default-src 'none'",
-    },
-  });
-}
+/** An item picture by id; ids are random UUIDs and an upload never changes, so it caches for good. */
+export const GET = route({ auth: 'public', reason: 'the respondent page shows the picture without a session; ids are random UUIDs' }, async ({ params }) => {
+  const pic = await readPicture(params.id);
+  if (!pic) throw notFoundError('That picture');
+  return download({ filename: `picture-${params.id}`, contentType: pic.contentType, body: pic.bytes }, { inline: true, cacheControl: 'public, max-age=31536000, immutable' });
+});

@@ -1,22 +1,21 @@
-import type { NextRequest } from 'next/server';
+import { route } from '@/lib/server/http/route';
 import { handlers } from '@/lib/server/team/auth';
-import { toErrorResponse } from '@/lib/server/http/route';
 import { clientIp, limit } from '@/lib/server/platform/rate-limit';
 
-export const { GET } = handlers;
+// Auth.js's own endpoints (sign-in, sign-out, session, CSRF), answered by its handlers; the
+// wrapper adds only the request context and the one error shape for the rate limits below.
+const reason = 'Auth.js sign-in and sign-out endpoints: they create the session, so none exists yet';
 
-/** Auth.js itself, with the sign-in rate limits in front of a credentials sign-in over HTTP. */
-export async function POST(req: NextRequest) {
+export const GET = route({ auth: 'public', reason }, async ({ req }) => handlers.GET(req));
+
+/** A credentials sign-in over HTTP passes the sign-in rate limits first. */
+export const POST = route({ auth: 'public', reason }, async ({ req }) => {
   if (req.nextUrl.pathname.endsWith('/callback/credentials')) {
-    try {
-      const form = await req.clone().formData().catch(() => null);
-      const email = String(form?.get('email') ?? '').trim().toLowerCase();
-      const ip = clientIp(req.headers);
-      await limit('sign-in-ip', ip);
-      await limit('sign-in-email', `${ip}|${email}`);
-    } catch (err) {
-      return toErrorResponse(err);
-    }
+    const form = await req.clone().formData().catch(() => null);
+    const email = String(form?.get('email') ?? '').trim().toLowerCase();
+    const ip = clientIp(req.headers);
+    await limit('sign-in-ip', ip);
+    await limit('sign-in-email', `${ip}|${email}`);
   }
   return handlers.POST(req);
-}
+});

@@ -1,5 +1,5 @@
-import { tokenRoute } from '@/lib/server/team/access-tokens';
+import { route } from '@/lib/server/http/route';
 import { listFittableStudies } from '@/lib/server/analysis/study-fit';
 
 /** Studies of the token's workspace that have answered test trials. */
-export const GET = tokenRoute(async (_req, ctx) => Response.json({ workspace: ctx.workspace.slug, studies: await listFittableStudies(ctx) }));
+export const GET = route({ auth: 'token' }, async ({ ctx }) => ({ workspace: ctx.workspace.slug, studies: await listFittableStudies(ctx) }));

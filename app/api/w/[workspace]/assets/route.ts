@@ -1,10 +1,9 @@
-import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/http/route';
+import { reply, route } from '@/lib/server/http/route';
 import { AppError } from '@/lib/server/http/errors';
 import { checkUploadLength, savePicture } from '@/lib/server/studies/assets';
 
 /** Item picture upload: multipart/form-data with one field "file". */
-export const POST = workspaceRoute('analyst', async (req, ctx) => {
+export const POST = route({ auth: 'member', role: 'analyst' }, async ({ req, ctx }) => {
   checkUploadLength(req.headers.get('content-length'));
   let form: FormData;
   try {
@@ -12,5 +11,5 @@ export const POST = workspaceRoute('analyst', async (req, ctx) => {
   } catch {
     throw new AppError(400, 'bad_request', 'Send the picture as multipart/form-data with a field named “file”.');
   }
-  return NextResponse.json(await savePicture(ctx, form.get('file')), { status: 201 });
+  return reply(await savePicture(ctx, form.get('file')), 201);
 });

@@ -1,8 +1,7 @@
-import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/http/route';
+import { route } from '@/lib/server/http/route';
 import { listAuditEvents } from '@/lib/server/team/audit-list';
 
-export const GET = workspaceRoute('owner', async (req, ctx) => {
-  const page = Number(req.nextUrl.searchParams.get('page') ?? 1);
-  return NextResponse.json(await listAuditEvents(ctx, page));
-});
+/** The workspace's audit trail, newest first, one page at a time (owners only). */
+export const GET = route({ auth: 'member', role: 'owner' }, async ({ req, ctx }) =>
+  listAuditEvents(ctx, Number(req.nextUrl.searchParams.get('page') ?? 1)),
+);

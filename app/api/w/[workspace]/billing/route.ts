@@ -1,5 +1,5 @@
-import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/http/route';
+import { route } from '@/lib/server/http/route';
 import { billingOverview } from '@/lib/server/billing/checkout';
 
-export const GET = workspaceRoute('viewer', async (_req, ctx) => NextResponse.json(await billingOverview(ctx)));
+/** Seat balance, bundles on sale and the ledger. */
+export const GET = route({ auth: 'member', role: 'viewer' }, async ({ ctx }) => billingOverview(ctx));

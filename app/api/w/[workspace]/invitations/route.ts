@@ -1,11 +1,10 @@
-import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { readJson, reply, route } from '@/lib/server/http/route';
 import { inviteMember, listPendingInvitations } from '@/lib/server/team/invitations';
 import { inviteSchema } from '@/lib/schemas/team.schema';
 
-export const GET = workspaceRoute('owner', async (_req, ctx) => NextResponse.json({ invitations: await listPendingInvitations(ctx) }));
+export const GET = route({ auth: 'member', role: 'owner' }, async ({ ctx }) => ({ invitations: await listPendingInvitations(ctx) }));
 
-export const POST = workspaceRoute('owner', async (req, ctx) => {
+export const POST = route({ auth: 'member', role: 'owner' }, async ({ req, ctx }) => {
   const input = await readJson(req, inviteSchema);
-  return NextResponse.json(await inviteMember(ctx, input), { status: 201 });
+  return reply(await inviteMember(ctx, input), 201);
 });

@@ -1,7 +1,8 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { requireRole } from '@/lib/server/http/page-guard';
-import { pageStudy } from '@/lib/server/http/not-found';
+import { orNotFound } from '@/lib/server/http/not-found';
+import { getStudy } from '@/lib/server/studies/studies';
 import { hasRole } from '@/lib/roles';
 import { isEditable } from '@/lib/study-states';
 import { PageTitle } from '@/components/ui/page-title';
@@ -15,7 +16,7 @@ export const metadata: Metadata = { title: 'Study' };
 export default async function StudyPage({ params, searchParams }: { params: Promise<{ workspace: string; study: string }>; searchParams: Promise<{ frozen?: string }> }) {
   const { workspace, study: id } = await params;
   const ctx = await requireRole(workspace, 'viewer');
-  const study = await pageStudy(ctx, id);
+  const study = await orNotFound(getStudy(ctx, id));
   const { frozen } = await searchParams;
   const base = `/w/${ctx.workspace.slug}/studies/${study.id}`;
   const analyst = hasRole(ctx.role, 'analyst');

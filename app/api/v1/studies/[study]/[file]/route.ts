@@ -1,7 +1,8 @@
-import { tokenRoute } from '@/lib/server/team/access-tokens';
+import { route } from '@/lib/server/http/route';
+import { downloadOrPending } from '@/lib/server/http/download';
 import { exportDownload } from '@/lib/server/analysis/exports';
 
 /** thresholds.csv | thresholds-about.csv | thresholds.json | report.json | trials.csv, as in the app. */
-export const GET = tokenRoute<{ study: string; file: string }>(async (req, ctx, { study, file }) =>
-  exportDownload(ctx, study, file, req.nextUrl.searchParams.get('segment')),
+export const GET = route({ auth: 'token' }, async ({ req, ctx, params }) =>
+  downloadOrPending(await exportDownload(ctx, params.study, params.file, req.nextUrl.searchParams.get('segment'))),
 );

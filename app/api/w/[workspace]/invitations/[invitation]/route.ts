@@ -1,10 +1,9 @@
-import { NextResponse } from 'next/server';
 import { requireUuid } from '@/lib/server/platform/ids';
-import { workspaceRoute } from '@/lib/server/http/route';
+import { noContent, route } from '@/lib/server/http/route';
 import { revokeInvitation } from '@/lib/server/team/invitations';
 
-export const DELETE = workspaceRoute<{ workspace: string; invitation: string }>('owner', async (_req, ctx, { invitation }) => {
-  requireUuid(invitation, 'That invitation');
-  await revokeInvitation(ctx, invitation);
-  return new NextResponse(null, { status: 204 });
+export const DELETE = route({ auth: 'member', role: 'owner' }, async ({ ctx, params }) => {
+  requireUuid(params.invitation, 'That invitation');
+  await revokeInvitation(ctx, params.invitation);
+  return noContent();
 });

@@ -1,10 +1,9 @@
-import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/http/route';
+import { route } from '@/lib/server/http/route';
 import { parsePriceList } from '@/lib/promo/parse-price-list';
 import { previewDto, readCsvUpload } from '@/lib/server/promotions/price-lists';
 
 /** The preview step: the first rows and every error, nothing stored. */
-export const POST = workspaceRoute('analyst', async (req) => {
+export const POST = route({ auth: 'member', role: 'analyst' }, async ({ req }) => {
   const { text } = await readCsvUpload(req);
-  return NextResponse.json(previewDto(parsePriceList(text)));
+  return previewDto(parsePriceList(text));
 });

@@ -1,17 +1,14 @@
-import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/http/route';
+import { noContent, route } from '@/lib/server/http/route';
 import { deletePromoPlan } from '@/lib/server/promotions/plans';
 import { planTable } from '@/lib/server/promotions/plan-table';
 
-type Params = { workspace: string; plan: string };
-
 /** The plan with its summary and chart data; the rows come page by page from ./rows. */
-export const GET = workspaceRoute<Params>('viewer', async (_req, ctx, p) => {
-  const { plan, summary, chart } = await planTable(ctx, p.plan);
-  return NextResponse.json({ plan, summary, chart });
+export const GET = route({ auth: 'member', role: 'viewer' }, async ({ ctx, params }) => {
+  const { plan, summary, chart } = await planTable(ctx, params.plan);
+  return { plan, summary, chart };
 });
 
-export const DELETE = workspaceRoute<Params>('analyst', async (_req, ctx, p) => {
-  await deletePromoPlan(ctx, p.plan);
-  return new NextResponse(null, { status: 204 });
+export const DELETE = route({ auth: 'member', role: 'analyst' }, async ({ ctx, params }) => {
+  await deletePromoPlan(ctx, params.plan);
+  return noContent();
 });

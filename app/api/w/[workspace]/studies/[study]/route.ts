@@ -1,19 +1,15 @@
-import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { noContent, readJson, route } from '@/lib/server/http/route';
 import { deleteStudy, getStudy, updateStudy } from '@/lib/server/studies/studies';
 import { studyDesignSchema } from '@/lib/schemas/study.schema';
 
-type P = { workspace: string; study: string };
-
-export const GET = workspaceRoute<P>('viewer', async (_req, ctx, p) => NextResponse.json(await getStudy(ctx, p.study)));
+export const GET = route({ auth: 'member', role: 'viewer' }, async ({ ctx, params }) => getStudy(ctx, params.study));
 
 /** Replaces a draft's whole design; a launched study answers 409 (its design is frozen). */
-export const PATCH = workspaceRoute<P>('analyst', async (req, ctx, p) => {
-  const design = await readJson(req, studyDesignSchema);
-  return NextResponse.json(await updateStudy(ctx, p.study, design));
-});
+export const PATCH = route({ auth: 'member', role: 'analyst' }, async ({ req, ctx, params }) =>
+  updateStudy(ctx, params.study, await readJson(req, studyDesignSchema)),
+);
 
-export const DELETE = workspaceRoute<P>('analyst', async (_req, ctx, p) => {
-  await deleteStudy(ctx, p.study);
-  return new NextResponse(null, { status: 204 });
+export const DELETE = route({ auth: 'member', role: 'analyst' }, async ({ ctx, params }) => {
+  await deleteStudy(ctx, params.study);
+  return noContent();
 });

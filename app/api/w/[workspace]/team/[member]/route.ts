@@ -1,19 +1,16 @@
-import { NextResponse } from 'next/server';
 import { requireUuid } from '@/lib/server/platform/ids';
-import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { noContent, readJson, route } from '@/lib/server/http/route';
 import { changeRole, removeMember } from '@/lib/server/team/members';
 import { changeRoleSchema } from '@/lib/schemas/team.schema';
 
-type P = { workspace: string; member: string };
-
-export const PATCH = workspaceRoute<P>('owner', async (req, ctx, { member }) => {
+export const PATCH = route({ auth: 'member', role: 'owner' }, async ({ req, ctx, params }) => {
   const { role } = await readJson(req, changeRoleSchema);
-  requireUuid(member, 'That member');
-  return NextResponse.json(await changeRole(ctx, member, role));
+  requireUuid(params.member, 'That member');
+  return changeRole(ctx, params.member, role);
 });
 
-export const DELETE = workspaceRoute<P>('owner', async (_req, ctx, { member }) => {
-  requireUuid(member, 'That member');
-  await removeMember(ctx, member);
-  return new NextResponse(null, { status: 204 });
+export const DELETE = route({ auth: 'member', role: 'owner' }, async ({ ctx, params }) => {
+  requireUuid(params.member, 'That member');
+  await removeMember(ctx, params.member);
+  return noContent();
 });

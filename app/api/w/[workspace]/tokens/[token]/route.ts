@@ -1,5 +1,5 @@
-import { workspaceRoute } from '@/lib/server/http/route';
+import { route } from '@/lib/server/http/route';
 import { revokeApiToken } from '@/lib/server/team/access-tokens';
 
-export const DELETE = workspaceRoute<{ workspace: string; token: string }>('analyst', async (_req, ctx, { token }) =>
-  Response.json(await revokeApiToken(ctx, token)));
+/** Revokes an access token (its owner, or any workspace owner); revoking twice changes nothing. */
+export const DELETE = route({ auth: 'member', role: 'analyst' }, async ({ ctx, params }) => revokeApiToken(ctx, params.token));

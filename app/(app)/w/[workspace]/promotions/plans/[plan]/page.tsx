@@ -1,8 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { notFound } from 'next/navigation';
 import { requireRole } from '@/lib/server/http/page-guard';
-import { AppError } from '@/lib/server/http/errors';
+import { orNotFound } from '@/lib/server/http/not-found';
 import { planTable } from '@/lib/server/promotions/plan-table';
 import { hasRole } from '@/lib/roles';
 import { PageTitle } from '@/components/ui/page-title';
@@ -18,10 +17,7 @@ export const metadata: Metadata = { title: 'Promotion plan' };
 export default async function PlanPage({ params }: { params: Promise<{ workspace: string; plan: string }> }) {
   const { workspace, plan: planId } = await params;
   const ctx = await requireRole(workspace, 'viewer');
-  const table = await planTable(ctx, planId).catch((err: unknown) => {
-    if (err instanceof AppError && err.status === 404) notFound();
-    throw err;
-  });
+  const table = await orNotFound(planTable(ctx, planId));
   const { plan, summary, chart } = table;
   const api = `/api/w/${ctx.workspace.slug}/promo-plans/${plan.id}`;
   const currency = plan.priceList.currency;

@@ -1,7 +1,8 @@
 import type { Metadata } from 'next';
 import { redirect } from 'next/navigation';
 import { requireRole } from '@/lib/server/http/page-guard';
-import { pageStudy } from '@/lib/server/http/not-found';
+import { orNotFound } from '@/lib/server/http/not-found';
+import { getStudy } from '@/lib/server/studies/studies';
 import { isEditable } from '@/lib/study-states';
 import { PageTitle } from '@/components/ui/page-title';
 import { StudyBuilder } from '../../_components/study-builder';
@@ -11,7 +12,7 @@ export const metadata: Metadata = { title: 'Edit study' };
 export default async function EditStudyPage({ params }: { params: Promise<{ workspace: string; study: string }> }) {
   const { workspace, study: id } = await params;
   const ctx = await requireRole(workspace, 'analyst');
-  const study = await pageStudy(ctx, id);
+  const study = await orNotFound(getStudy(ctx, id));
   // A launched design is frozen: back to the overview, which offers Duplicate.
   if (!isEditable(study.state)) redirect(`/w/${ctx.workspace.slug}/studies/${study.id}?frozen=1`);
   return (

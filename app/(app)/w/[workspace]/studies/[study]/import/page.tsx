@@ -1,12 +1,10 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { notFound } from 'next/navigation';
 import { connection } from 'next/server';
 import { PageTitle } from '@/components/ui/page-title';
 import { requireRole } from '@/lib/server/http/page-guard';
-import { em } from '@/lib/server/db/orm';
-import { AppError } from '@/lib/server/http/errors';
-import { findStudy } from '@/lib/server/analysis/cells';
+import { orNotFound } from '@/lib/server/http/not-found';
+import { getStudyInfo } from '@/lib/server/analysis/cells';
 import { ImportForm } from './_components/import-form';
 
 export const metadata: Metadata = { title: 'Import responses' };
@@ -15,10 +13,7 @@ export default async function ImportPage({ params }: { params: Promise<{ workspa
   await connection();
   const { workspace, study: studyId } = await params;
   const ctx = await requireRole(workspace, 'analyst');
-  const study = await findStudy(await em(), ctx.workspace.id, studyId).catch((e) => {
-    if (e instanceof AppError && e.status === 404) notFound();
-    throw e;
-  });
+  const study = await orNotFound(getStudyInfo(ctx, studyId));
   const open = study.state === 'closed' || study.state === 'imported';
   return (
     <>

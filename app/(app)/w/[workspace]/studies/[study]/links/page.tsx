@@ -1,7 +1,8 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { requireRole } from '@/lib/server/http/page-guard';
-import { pageStudy } from '@/lib/server/http/not-found';
+import { orNotFound } from '@/lib/server/http/not-found';
+import { getStudy } from '@/lib/server/studies/studies';
 import { listLinks } from '@/lib/server/studies/respondent-links';
 import { hasRole } from '@/lib/roles';
 import { PageTitle } from '@/components/ui/page-title';
@@ -13,7 +14,7 @@ export const metadata: Metadata = { title: 'Respondent links' };
 export default async function LinksPage({ params }: { params: Promise<{ workspace: string; study: string }> }) {
   const { workspace, study: id } = await params;
   const ctx = await requireRole(workspace, 'viewer');
-  const study = await pageStudy(ctx, id);
+  const study = await orNotFound(getStudy(ctx, id));
   const links = await listLinks(ctx, study.id);
   return (
     <>

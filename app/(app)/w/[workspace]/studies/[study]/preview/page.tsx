@@ -1,7 +1,8 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { requireRole } from '@/lib/server/http/page-guard';
-import { pageStudy } from '@/lib/server/http/not-found';
+import { orNotFound } from '@/lib/server/http/not-found';
+import { getStudy } from '@/lib/server/studies/studies';
 import { getWorkspaceSettings } from '@/lib/server/team/workspaces';
 import { PageTitle } from '@/components/ui/page-title';
 import { RespondentPreview } from '@/respondent/client/respondent-preview';
@@ -12,7 +13,7 @@ export const metadata: Metadata = { title: 'Preview' };
 export default async function PreviewPage({ params }: { params: Promise<{ workspace: string; study: string }> }) {
   const { workspace, study: id } = await params;
   const ctx = await requireRole(workspace, 'viewer');
-  const study = await pageStudy(ctx, id);
+  const study = await orNotFound(getStudy(ctx, id));
   const settings = await getWorkspaceSettings(ctx);
   return (
     <>

@@ -1,12 +1,10 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { notFound } from 'next/navigation';
 import { connection } from 'next/server';
 import { PageTitle } from '@/components/ui/page-title';
 import { requireRole } from '@/lib/server/http/page-guard';
-import { em } from '@/lib/server/db/orm';
-import { AppError } from '@/lib/server/http/errors';
-import { findStudy } from '@/lib/server/analysis/cells';
+import { orNotFound } from '@/lib/server/http/not-found';
+import { getStudyInfo } from '@/lib/server/analysis/cells';
 import { hasRole } from '@/lib/roles';
 import { ResultsView } from './_components/results-view';
 
@@ -16,10 +14,7 @@ export default async function ResultsPage({ params }: { params: Promise<{ worksp
   await connection();
   const { workspace, study: studyId } = await params;
   const ctx = await requireRole(workspace, 'viewer');
-  const study = await findStudy(await em(), ctx.workspace.id, studyId).catch((e) => {
-    if (e instanceof AppError && e.status === 404) notFound();
-    throw e;
-  });
+  const study = await orNotFound(getStudyInfo(ctx, studyId));
   const canEdit = hasRole(ctx.role, 'analyst');
   const href = `/w/${ctx.workspace.slug}/studies/${study.id}`;
   return (

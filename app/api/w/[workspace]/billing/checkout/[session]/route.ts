@@ -1,7 +1,5 @@
-import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/http/route';
+import { route } from '@/lib/server/http/route';
 import { checkoutStatus } from '@/lib/server/billing/checkout';
 
-export const GET = workspaceRoute<{ workspace: string; session: string }>('viewer', async (_req, ctx, params) =>
-  NextResponse.json(await checkoutStatus(ctx, params.session)),
-);
+/** Whether a purchase has been paid yet (the success page polls this until the webhook lands). */
+export const GET = route({ auth: 'member', role: 'viewer' }, async ({ ctx, params }) => checkoutStatus(ctx, params.session));

@@ -1,7 +1,5 @@
-import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/http/route';
+import { reply, route } from '@/lib/server/http/route';
 import { duplicateStudy } from '@/lib/server/studies/studies';
 
-export const POST = workspaceRoute<{ workspace: string; study: string }>('analyst', async (_req, ctx, p) =>
-  NextResponse.json(await duplicateStudy(ctx, p.study), { status: 201 }),
-);
+/** A new draft with the same design. */
+export const POST = route({ auth: 'member', role: 'analyst' }, async ({ ctx, params }) => reply(await duplicateStudy(ctx, params.study), 201));

@@ -1,7 +1,7 @@
-import { NextResponse } from 'next/server';
-import { workspaceRoute } from '@/lib/server/http/route';
+import { reply, route } from '@/lib/server/http/route';
 import { getFieldwork } from '@/lib/server/studies/fieldwork';
 
-export const GET = workspaceRoute<{ workspace: string; study: string }>('viewer', async (_req, ctx, p) =>
-  NextResponse.json(await getFieldwork(ctx, p.study), { headers: { 'cache-control': 'no-store' } }),
+/** Live fieldwork numbers; never cached, the monitor polls them. */
+export const GET = route({ auth: 'member', role: 'viewer' }, async ({ ctx, params }) =>
+  reply(await getFieldwork(ctx, params.study), 200, { 'cache-control': 'no-store' }),
 );

@@ -1,13 +1,10 @@
-import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { readJson, reply, route } from '@/lib/server/http/route';
 import { createLink, listLinks } from '@/lib/server/studies/respondent-links';
 import { studyLinkSchema } from '@/lib/schemas/study-link.schema';
 
-type P = { workspace: string; study: string };
+export const GET = route({ auth: 'member', role: 'viewer' }, async ({ ctx, params }) => ({ links: await listLinks(ctx, params.study) }));
 
-export const GET = workspaceRoute<P>('viewer', async (_req, ctx, p) => NextResponse.json({ links: await listLinks(ctx, p.study) }));
-
-export const POST = workspaceRoute<P>('analyst', async (req, ctx, p) => {
+export const POST = route({ auth: 'member', role: 'analyst' }, async ({ req, ctx, params }) => {
   const input = await readJson(req, studyLinkSchema);
-  return NextResponse.json(await createLink(ctx, p.study, input), { status: 201 });
+  return reply(await createLink(ctx, params.study, input), 201);
 });

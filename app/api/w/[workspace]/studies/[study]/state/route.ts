@@ -1,9 +1,9 @@
-import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { readJson, route } from '@/lib/server/http/route';
 import { changeStudyState } from '@/lib/server/studies/lifecycle';
 import { studyStateChangeSchema } from '@/lib/schemas/study-link.schema';
 
-export const POST = workspaceRoute<{ workspace: string; study: string }>('analyst', async (req, ctx, p) => {
+/** Launch, pause, resume or close (the allowed moves are checked in the lifecycle module). */
+export const POST = route({ auth: 'member', role: 'analyst' }, async ({ req, ctx, params }) => {
   const { action } = await readJson(req, studyStateChangeSchema);
-  return NextResponse.json(await changeStudyState(ctx, p.study, action));
+  return changeStudyState(ctx, params.study, action);
 });

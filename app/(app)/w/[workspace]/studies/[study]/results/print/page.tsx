@@ -1,8 +1,7 @@
 import type { Metadata } from 'next';
-import { notFound } from 'next/navigation';
 import { connection } from 'next/server';
 import { requireRole } from '@/lib/server/http/page-guard';
-import { AppError } from '@/lib/server/http/errors';
+import { orNotFound } from '@/lib/server/http/not-found';
 import { getFitState, isPoorFit } from '@/lib/server/analysis/study-fit';
 import { describeRules } from '@/lib/schemas/exclusions.schema';
 import { fitCautions } from '@/lib/results-text';
@@ -29,10 +28,7 @@ export default async function PrintPage({ params }: { params: Promise<{ workspac
   await connection();
   const { workspace, study } = await params;
   const ctx = await requireRole(workspace, 'viewer');
-  const state = await getFitState(ctx, study).catch((e) => {
-    if (e instanceof AppError && e.status === 404) notFound();
-    throw e;
-  });
+  const state = await orNotFound(getFitState(ctx, study));
   const s = state.study;
   const money = new Intl.NumberFormat(s.locale, { style: 'currency', currency: s.currency });
   const generated = new Date().toLocaleString('en-GB', { dateStyle: 'long', timeStyle: 'short' });

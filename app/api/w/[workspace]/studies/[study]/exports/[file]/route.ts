@@ -1,7 +1,8 @@
-import { workspaceRoute } from '@/lib/server/http/route';
+import { route } from '@/lib/server/http/route';
+import { downloadOrPending } from '@/lib/server/http/download';
 import { exportDownload } from '@/lib/server/analysis/exports';
 
 /** Downloads for every member: thresholds (CSV + about side file, JSON), fit report JSON, raw trials CSV. */
-export const GET = workspaceRoute<{ workspace: string; study: string; file: string }>('viewer', async (req, ctx, { study, file }) =>
-  exportDownload(ctx, study, file, req.nextUrl.searchParams.get('segment')),
+export const GET = route({ auth: 'member', role: 'viewer' }, async ({ req, ctx, params }) =>
+  downloadOrPending(await exportDownload(ctx, params.study, params.file, req.nextUrl.searchParams.get('segment'))),
 );

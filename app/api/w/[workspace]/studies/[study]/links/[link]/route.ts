@@ -1,9 +1,9 @@
-import { NextResponse } from 'next/server';
-import { readJson, workspaceRoute } from '@/lib/server/http/route';
+import { readJson, route } from '@/lib/server/http/route';
 import { closeLink } from '@/lib/server/studies/respondent-links';
 import { studyLinkPatchSchema } from '@/lib/schemas/study-link.schema';
 
-export const PATCH = workspaceRoute<{ workspace: string; study: string; link: string }>('analyst', async (req, ctx, p) => {
+/** Closes a respondent link (the only change a link takes). */
+export const PATCH = route({ auth: 'member', role: 'analyst' }, async ({ req, ctx, params }) => {
   await readJson(req, studyLinkPatchSchema);
-  return NextResponse.json(await closeLink(ctx, p.study, p.link));
+  return closeLink(ctx, params.study, params.link);
 });
