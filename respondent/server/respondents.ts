@@ -1,4 +1,9 @@
 import 'server-only';
+// respondent/server: the respondent runtime's server side, server-only. The route handlers under
+// app/r/[token] stay thin and call in here: links and their refusals (link.ts), starting and
+// resuming respondents (this module), answers (answers.ts), completing with its one seat
+// (complete.ts), and the HTML documents with the server-rendered first screen (document.tsx).
+// This module: who a respondent is, how one starts or resumes, and which screens come next.
 import { randomUUID } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { StudyDesign } from '@/lib/schemas/study.schema';
