@@ -26,7 +26,7 @@ function bootOf(html: string): RespondentBoot {
 describe('take-part: a complete HTML document outside the App Router runtime', () => {
   beforeAll(() => {
     // The document links the vite bundle's hashed files; build it once if this checkout has not.
-    if (!existsSync(path.join(DIST, '.vite', 'manifest.json'))) execFileSync('node_modules/.bin/vite', ['build', '-c', 'respondent/vite.config.ts'], { stdio: 'ignore' });
+    if (!existsSync(path.join(DIST, '.vite', 'manifest.json'))) execFileSync('npm', ['run', '--silent', 'build:respondent'], { stdio: 'ignore' });
   }, 120_000);
 
   it('an open link: the consent form server-rendered, one module script, boot data, no inline script and no Next.js runtime', async () => {
