@@ -109,6 +109,24 @@ describe('a respondent completes a study on a phone', () => {
     await page.getByTestId('thanks').waitFor();
   });
 
+  it("an unknown link: a real 404 with the flow's own stop screen, styled by the bundle's stylesheet, and no script", async () => {
+    const scripts: string[] = [];
+    const onRequest = (r: { resourceType(): string; url(): string }) => { if (r.resourceType() === 'script') scripts.push(r.url()); };
+    page.on('request', onRequest);
+    try {
+      const res = await page.goto(`${baseUrl()}/r/no-such-link-0000`);
+      expect(res?.status()).toBe(404);
+      await page.getByTestId('stopped').waitFor();
+      expect(await page.getByRole('heading', { name: 'No study at this address' }).count()).toBe(1);
+      // The page's colours come from the stylesheet (no inline style is allowed): paper, not the browser's white.
+      expect(await page.evaluate(() => getComputedStyle(document.body).backgroundColor)).toBe('rgb(250, 247, 242)');
+      expect(scripts).toEqual([]);
+      await screenshot(page, 'respondent-stopped');
+    } finally {
+      page.off('request', onRequest);
+    }
+  });
+
   it('the analyst sees 1 complete and one seat fewer', async () => {
     const { context: c2, page: p2 } = await openBrowser();
     try {
