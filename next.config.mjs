@@ -17,6 +17,22 @@ const contentSecurityPolicy = [
   "object-src 'none'",
 ].join('; ');
 
+// The respondent pages (app/r/[token]/…) load no Next.js runtime: one hashed module script, one
+// stylesheet and fonts from /r-assets, boot data in a JSON data block that is never executed.
+// So no inline script or style at all, and forms post only to this origin.
+const respondentPolicy = [
+  "default-src 'self'",
+  "script-src 'self'",
+  "style-src 'self'",
+  "img-src 'self'",
+  "font-src 'self'",
+  "connect-src 'self'",
+  "form-action 'self'",
+  "frame-ancestors 'none'",
+  "base-uri 'none'",
+  "object-src 'none'",
+].join('; ');
+
 const securityHeaders = [
   { key: 'Content-Security-Policy', value: contentSecurityPolicy },
   { key: 'X-Frame-Options', value: 'DENY' },
@@ -28,7 +44,15 @@ const securityHeaders = [
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   async headers() {
-    return [{ source: '/:path*', headers: securityHeaders }];
+    // When two entries set the same header on a path, the later one wins (one value, never two);
+    // a header set here also wins over the same header set by a route handler.
+    return [
+      { source: '/:path*', headers: securityHeaders },
+      { source: '/r/:path*', headers: [{ key: 'Content-Security-Policy', value: respondentPolicy }] },
+      // Respondent answers are per person and change with every answer: never cached. The item
+      // picture is the exception (its handler caches it for a day).
+      { source: '/r/:path((?!.*/picture$).*)', headers: [{ key: 'Cache-Control', value: 'no-store' }] },
+    ];
   },
   // The test run builds into its own folder so it never disturbs a running `npm start`.
   distDir: process.env.NEXT_DIST_DIR || '.next',

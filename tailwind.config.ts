@@ -1,8 +1,10 @@
 import type { Config } from 'tailwindcss';
 
+// The one theme of every Notchwise page: the analyst app (app/globals.css) and the respondent
+// pages (respondent/client/styles.css) load it through `@config`. Which files Tailwind scans is
+// said by each stylesheet's `@source` lines, not here, so the respondent stylesheet stays small.
 // Palette roles from DESIGN.md → Look and feel. Never colour alone: pair with a label or shape.
 export default {
-  content: ['./app/**/*.{ts,tsx}', './components/**/*.{ts,tsx}', './lib/**/*.{ts,tsx}', './respondent/**/*.{ts,tsx}'],
   theme: {
     extend: {
       colors: {

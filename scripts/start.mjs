@@ -1,7 +1,7 @@
 // `npm start`: everything needed to run Notchwise with its demo data on this machine.
 import { ensureDeps } from './lib/deps.mjs';
 import { ensureCluster } from './lib/postgres.mjs';
-import { ROOT, DATA, intFromEnv, persistentSecret, DEMO_ACCOUNTS, DEMO_PASSWORD } from './lib/project.mjs';
+import { ROOT, DATA, intFromEnv, persistentSecret, DEMO_ACCOUNTS, DEMO_PASSWORD, RESPONDENT_BUILD_ARGS } from './lib/project.mjs';
 import { log, fail, runLive } from './lib/run.mjs';
 import { startService, startMailCatcher, startFakeStripe, stopAll, waitForPort, bin, portInUse } from './lib/services.mjs';
 import path from 'node:path';
@@ -41,7 +41,7 @@ if ((await runLive(tsx, ['scripts/migrate.ts'], { cwd: ROOT, env })) !== 0) fail
 if ((await runLive(tsx, ['--conditions=react-server', 'scripts/seed.ts'], { cwd: ROOT, env })) !== 0) fail('Could not load the demo data.', 'See the message above.');
 
 log('building the respondent bundle (vite) ...');
-if ((await runLive(process.execPath, ['scripts/build-respondent.mjs'], { cwd: ROOT, env })) !== 0) fail('The respondent bundle did not build.', 'See the messages above.');
+if ((await runLive(bin('vite'), RESPONDENT_BUILD_ARGS, { cwd: ROOT, env })) !== 0) fail('The respondent bundle did not build.', 'See the messages above.');
 log('building the app (next build) ...');
 if ((await runLive(bin('next'), ['build'], { cwd: ROOT, env })) !== 0) fail('The build failed.', 'See the messages above.');
 

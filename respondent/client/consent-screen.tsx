@@ -1,8 +1,10 @@
 import { primaryButton } from './price-tag';
 
 /**
- * Server-rendered first screen. A real form posting to the start route, so a respondent whose
- * phone has not loaded the script yet can still begin; with script the flow takes over.
+ * The one consent screen. The server renders it into the take-part document as a real form
+ * posting to the start route, so a respondent whose phone has not loaded the script (or runs
+ * none) can still begin; the script then hydrates the same markup and starts without a reload.
+ * No hooks, so the server can render it.
  */
 export function ConsentScreen({ consentText, retentionDays, action, pid, onAgree }: {
   consentText: string;

@@ -1,3 +1,4 @@
+import type { CompleteReply } from '@/respondent/shared/complete.schema';
 import type { FlowState, PublicTrial } from '@/respondent/shared/types';
 
 export interface AnswerPayload {
@@ -15,7 +16,7 @@ export interface FlowDriver {
   start(segmentAnswers: Record<string, string>): Promise<DriverResult<FlowState>>;
   /** `next` is given by adaptive plans: the trial the staircase places next (null = no more). */
   answer(a: AnswerPayload): Promise<DriverResult<{ next?: PublicTrial | null }>>;
-  complete(): Promise<DriverResult<{ redirectUrl: string | null }>>;
+  complete(): Promise<DriverResult<CompleteReply>>;
 }
 
 /** A v4 uuid from getRandomValues (randomUUID needs a secure context, phones on plain http lack it). */

@@ -1,4 +1,6 @@
-import type { FlowState } from '@/respondent/shared/types';
+import type { CompleteReply } from '@/respondent/shared/complete.schema';
+import type { StartReply, StartRequest } from '@/respondent/shared/start.schema';
+import { respondentUrls } from '@/respondent/shared/urls';
 import type { DriverResult, FlowDriver } from './driver';
 
 async function post<T>(url: string, body: unknown, resume: () => string | null): Promise<DriverResult<T>> {
@@ -20,17 +22,17 @@ async function post<T>(url: string, body: unknown, resume: () => string | null):
   }
 }
 
-/** Talks to /api/r/[token]/...; the resume token travels in a header (the cookie is scoped to /r). */
+/**
+ * Talks to /r/[token]/…: the resume token travels in a header, and the cookie scoped to /r comes
+ * along as well (it resumes the respondent when the address lost ?resume=).
+ */
 export function liveDriver(linkToken: string, initialResume: string | null, pid: string | null): FlowDriver {
   let resume = initialResume;
-  const base = `/api/r/${encodeURIComponent(linkToken)}`;
+  const urls = respondentUrls(linkToken);
   return {
     async start(segmentAnswers) {
-      const r = await post<FlowState & { resumeToken: string }>(
-        `${base}/start`,
-        { consent: true, ...(pid ? { pid } : {}), segmentAnswers },
-        () => resume,
-      );
+      const body: StartRequest = { consent: true, ...(pid ? { pid } : {}), segmentAnswers };
+      const r = await post<StartReply>(urls.start, body, () => resume);
       if (r.ok) {
         resume = r.data.resumeToken;
         // Keep the token in the address too, so reopening this tab resumes even without cookies.
@@ -40,7 +42,7 @@ export function liveDriver(linkToken: string, initialResume: string | null, pid:
       }
       return r;
     },
-    answer: (a) => post(`${base}/answer`, a, () => resume),
-    complete: () => post(`${base}/complete`, {}, () => resume),
+    answer: (a) => post(`/api/r/${encodeURIComponent(linkToken)}/answer`, a, () => resume),
+    complete: () => post<CompleteReply>(urls.complete, {}, () => resume),
   };
 }

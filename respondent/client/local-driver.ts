@@ -21,7 +21,7 @@ export function localDriver(design: StudyDesign, seed: number): FlowDriver {
       return { ok: true, data: { next: next ? toPublic(design, plan, next, answered.length) : null } };
     },
     async complete() {
-      return { ok: true, data: { redirectUrl: null } };
+      return { ok: true, data: { ok: true, redirectUrl: null } };
     },
   };
 }

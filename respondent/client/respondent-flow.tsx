@@ -8,7 +8,7 @@ import { QuestionScreen } from './question-screen';
 import { ShelfScreen } from './shelf-screen';
 import { TrialScreen } from './trial-screen';
 import { useAnswerQueue, withRetry } from './use-answer-queue';
-import { Progress, Reconnecting, Stopped, Thanks } from './status-screens';
+import { FlowColumn, Progress, Reconnecting, Stopped, Thanks, Waiting } from './status-screens';
 
 type Step = { s: 'consent' } | { s: 'question'; i: number } | { s: 'shelf'; again: boolean } | { s: 'trial' } | { s: 'wait' } | { s: 'thanks' } | { s: 'stopped'; code: string; message: string };
 
@@ -125,14 +125,14 @@ export function RespondentFlow(p: FlowProps) {
   } else if (step.s === 'stopped') {
     body = <Stopped code={step.code} message={step.message} />;
   } else {
-    body = <p className="py-16 text-center text-lg text-muted" data-testid="waiting">One moment…</p>;
+    body = <Waiting />;
   }
   const showProgress = flow && (step.s === 'trial' || step.s === 'shelf' || step.s === 'wait');
   return (
-    <div className="flex flex-col gap-6">
+    <FlowColumn>
       {showProgress ? <Progress done={answered} total={Math.max(flow.total, answered)} /> : null}
       {q.reconnecting ? <Reconnecting /> : null}
       {body}
-    </div>
+    </FlowColumn>
   );
 }

@@ -1,3 +1,12 @@
+// The flow's small status screens. No hooks and no 'use client': the server document renders
+// Stopped, Waiting and NeedsScript too (respondent/server/document.tsx), so both sides show one markup.
+import type { ReactNode } from 'react';
+
+/** The flow's column of screens; the server document wraps its first screen in it too, so hydration finds the same markup. */
+export function FlowColumn({ children }: { children: ReactNode }) {
+  return <div className="flex flex-col gap-6">{children}</div>;
+}
+
 /** Progress through the trials: a plain bar, never a score. */
 export function Progress({ done, total }: { done: number; total: number }) {
   const pct = total > 0 ? Math.min(100, Math.round((done / total) * 100)) : 0;
@@ -26,17 +35,39 @@ export function Thanks() {
 }
 
 const STOPPED_TITLES: Record<string, string> = {
+  not_found: 'No study at this address',
+  gone: 'This study is not open',
   study_full: 'This study is full',
   already_taken_part: 'You have already taken part',
-  gone: 'This study is closed',
 };
 
-/** The flow stopped for a reason the respondent cannot change: say so plainly. */
+/** The heading (and the server document's title) for a stop with this error code. */
+export const stoppedTitle = (code: string) => STOPPED_TITLES[code] ?? 'We could not continue';
+
+/**
+ * The flow stopped for a reason the respondent cannot change: say so plainly. The one "study
+ * not available" screen: the flow shows it after a refused request, and the server renders it
+ * into the document for unknown, closed, paused or full links (with the status they deserve).
+ */
 export function Stopped({ code, message }: { code: string; message: string }) {
   return (
     <div className="flex flex-col gap-4 py-10 text-center" data-testid="stopped" data-code={code}>
-      <h1 className="text-3xl">{STOPPED_TITLES[code] ?? 'We could not continue'}</h1>
+      <h1 className="text-3xl">{stoppedTitle(code)}</h1>
       <p className="text-lg">{message}</p>
     </div>
+  );
+}
+
+/** While a request is on its way (and, server-rendered, while the script loads on a resumed visit). */
+export function Waiting() {
+  return <p className="py-16 text-center text-lg text-muted" data-testid="waiting">One moment…</p>;
+}
+
+/** Server-rendered below Waiting: what a browser without JavaScript shows instead of the flow. */
+export function NeedsScript() {
+  return (
+    <noscript>
+      <p className="text-center text-lg">The questions need JavaScript. Please turn it on in your browser and reload this page.</p>
+    </noscript>
   );
 }

@@ -1,30 +1,37 @@
 import 'server-only';
-import type { NextRequest, NextResponse } from 'next/server';
-import { toErrorResponse } from '@/lib/server/http/route';
+import type { NextRequest } from 'next/server';
+import { route } from '@/lib/server/http/route';
 import { resumeCookieName } from './link';
 
-type Ctx = { params: Promise<{ token: string }> };
+// What the respondent route handlers (app/r/[token]/…) share besides route(): where the resume
+// token comes from, and the cookie that keeps it. Every response under /r is sent with
+// `cache-control: no-store` and the respondent pages' script policy by next.config.mjs.
 
-/** Respondent route handlers: no session, the link token in the path, one error shape, never cached. */
-export function respondentRoute(handler: (req: NextRequest, token: string) => Promise<Response>) {
-  return async (req: NextRequest, ctx: Ctx) => {
-    let res: Response;
-    try {
-      res = await handler(req, (await ctx.params).token);
-    } catch (err) {
-      res = toErrorResponse(err);
-    }
-    res.headers.set('cache-control', 'no-store');
-    return res;
-  };
-}
-
-/** The resume token: a header from the page's script, or ?resume= in the address. */
+/** The resume token: a header from the page's script, ?resume= in the address, or (given the study) the cookie. */
 export function resumeTokenFrom(req: NextRequest, studyId?: string): string | null {
   return req.headers.get('x-resume-token') || req.nextUrl.searchParams.get('resume') || (studyId ? req.cookies.get(resumeCookieName(studyId))?.value ?? null : null);
 }
 
-/** Kept so that reopening the link on this phone resumes; scoped to the respondent pages. */
-export function setResumeCookie(res: NextResponse, studyId: string, token: string, secure: boolean) {
-  res.cookies.set(resumeCookieName(studyId), token, { httpOnly: true, sameSite: 'lax', path: '/r', secure, maxAge: 60 * 60 * 24 * 30 });
+const THIRTY_DAYS = 60 * 60 * 24 * 30;
+
+/**
+ * A `set-cookie` value keeping the resume token, so reopening the link on this phone resumes.
+ * Scoped to /r: the flow document and every respondent endpoint receive it, nothing else does.
+ */
+export function resumeCookie(studyId: string, token: string, secure: boolean): string {
+  return `${resumeCookieName(studyId)}=${token}; Path=/r; Max-Age=${THIRTY_DAYS}; HttpOnly; SameSite=Lax${secure ? '; Secure' : ''}`;
+}
+
+/**
+ * @deprecated The one handler left outside /r (app/api/r/[token]/answer) still uses this; it
+ * goes when answers move to app/r/[token]/answers. A thin shell over route(), keeping the
+ * no-store every respondent response carries (next.config.mjs covers only /r).
+ */
+export function respondentRoute(handler: (req: NextRequest, token: string) => Promise<Response>) {
+  const wrapped = route({ auth: 'public', reason: 'respondents have no account: the link token and their resume token identify them' }, ({ req, params }) => handler(req, String(params.token)));
+  return async (req: NextRequest, ctx: { params: Promise<{ token: string }> }) => {
+    const res = await wrapped(req, ctx);
+    res.headers.set('cache-control', 'no-store');
+    return res;
+  };
 }

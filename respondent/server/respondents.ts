@@ -1,22 +1,21 @@
 import 'server-only';
+// respondent/server: the respondent runtime's server side, server-only. The route handlers under
+// app/r/[token] stay thin and call in here: links and their refusals (link.ts), starting and
+// resuming respondents (this module), answers (answers.ts), completing with its one seat
+// (complete.ts), and the HTML documents with the server-rendered first screen (document.tsx).
+// This module: who a respondent is, how one starts or resumes, and which screens come next.
 import { randomUUID } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { z } from 'zod';
 import type { StudyDesign } from '@/lib/schemas/study.schema';
 import { completionRedirect, flowState } from '@/respondent/shared/screens';
 import type { FlowState, TrialPlan } from '@/respondent/shared/types';
+import type { StartInput, StartReply } from '@/respondent/shared/start.schema';
+import { respondentUrls } from '@/respondent/shared/urls';
 import { em } from '@/lib/server/db/orm';
 import { AppError } from '@/lib/server/http/errors';
 import { openLink, type LinkInfo } from './link';
 import { lockWorkspace, quotaAvailable, seatAvailableForStart } from '@/lib/server/billing/seat-holds';
 import { answeredHistory, newResumeToken, newSeed, planFor } from './trials';
-
-export const startSchema = z.strictObject({
-  consent: z.literal(true, 'Agree to the consent text to take part.'),
-  pid: z.string().trim().min(1).max(120).optional(),
-  segmentAnswers: z.record(z.string(), z.string().max(80)).default({}),
-});
-export type StartInput = z.output<typeof startSchema>;
 
 export interface RespondentRow {
   id: string;
@@ -75,14 +74,18 @@ export async function stateOf(db: EntityManager, link: LinkInfo, r: RespondentRo
     design: link.design, seed: r.seed, plan: r.plan, answered, answeredCount: r.answeredCount,
     needsQuestions: needsQuestions(link.design, r), completed: r.state === 'completed',
     redirectUrl: r.state === 'completed' ? completionRedirect(link.design, r.pid) : null,
-    pictureUrl: link.design.itemPictureId ? `/api/r/${link.token}/picture` : null,
+    pictureUrl: link.design.itemPictureId ? respondentUrls(link.token).picture : null,
   });
 }
 
-/** Resume (by token or panel id) or create a respondent; refuses when no seat or quota is left. */
-export async function startRespondent(token: string, input: StartInput, resumeToken: string | null): Promise<FlowState & { resumeToken: string; studyId: string }> {
+/**
+ * Resume (by token or panel id) or create a respondent; refuses when no seat or quota is left.
+ * `resumeTokenFor` names the study, so the caller can read the study's resume cookie.
+ */
+export async function startRespondent(token: string, input: StartInput, resumeTokenFor: (studyId: string) => string | null): Promise<StartReply & { studyId: string }> {
   const db = await em();
   const link = await openLink(db, token);
+  const resumeToken = resumeTokenFor(link.studyId);
   const pid = link.acceptsPid ? (input.pid ?? null) : null;
   const hasAnswers = Object.keys(input.segmentAnswers).length > 0;
   const answers = hasAnswers ? validSegmentAnswers(link.design, input.segmentAnswers) : {};

@@ -1,5 +1,8 @@
-// The trial plan stored on Respondent.plan (jsonb) and the screens the browser receives.
-// Shared by the server (lib/server/trials.ts) and the no-network preview.
+// respondent/shared: pure code both sides use, with no I/O and no framework: the server
+// (respondent/server) and the phone flow (respondent/client, also the analyst's no-network
+// preview) generate the same plan, show the same screens and send the shapes typed here and in
+// the *.schema.ts files.
+// This module: the trial plan stored on Respondent.plan (jsonb) and the screens the browser receives.
 
 export type PlanKind = 'practice' | 'test' | 'catch' | 'attention';
 export type Side = 'left' | 'right';

@@ -6,6 +6,11 @@ import { fileURLToPath } from 'node:url';
 
 export const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
 export const DATA = path.join(ROOT, '.data');
+/**
+ * `vite build` arguments for the respondent bundle (its config: respondent/vite.config.ts). The
+ * runner loader reads the TypeScript config as ESM in this CommonJS package without a warning.
+ */
+export const RESPONDENT_BUILD_ARGS = ['build', '-c', 'respondent/vite.config.ts', '--configLoader', 'runner'];
 
 export function intFromEnv(name, fallback) {
   const raw = process.env[name];

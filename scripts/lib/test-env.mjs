@@ -2,7 +2,7 @@
 import path from 'node:path';
 import { randomBytes } from 'node:crypto';
 import { ensureCluster, dropDatabase } from './postgres.mjs';
-import { DATA, ROOT, intFromEnv } from './project.mjs';
+import { DATA, ROOT, RESPONDENT_BUILD_ARGS, intFromEnv } from './project.mjs';
 import { run } from './run.mjs';
 import { bin, startService, stopService, startMailCatcher, startFakeStripe, waitForPort } from './services.mjs';
 
@@ -55,8 +55,8 @@ export function testEnv(databaseUrl) {
 
 /** Builds the app into .next-test (so a running `npm start` is left alone). */
 export function buildTestApp(env) {
-  // The respondent pages' own bundle (vite), served from .respondent-dist by /r-assets/[file].
-  const v = run(process.execPath, ['scripts/build-respondent.mjs'], { cwd: ROOT, env: { ...process.env, ...env, NODE_ENV: 'production' } });
+  // The respondent pages' own bundle (respondent/vite.config.ts), served by /r-assets/[file].
+  const v = run(bin('vite'), [...RESPONDENT_BUILD_ARGS, '--logLevel', 'warn'], { cwd: ROOT, env: { ...process.env, ...env, NODE_ENV: 'production' } });
   if (v.code !== 0) throw new Error('build:respondent failed:\n' + v.stdout.slice(-4000) + v.stderr.slice(-4000));
   const r = run(bin('next'), ['build'], { cwd: ROOT, env: { ...process.env, ...env, NODE_ENV: 'production', NEXT_DIST_DIR: TEST_DIST_DIR } });
   if (r.code !== 0) throw new Error('next build failed:\n' + r.stdout.slice(-4000) + r.stderr.slice(-4000));

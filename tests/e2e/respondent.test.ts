@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { baseUrl, openBrowser, screenshot, signIn } from '../support/browser';
+import { cspDirectives } from '../support/csp';
 
 // The study is made through the data layer against the app's database.
 process.env.DATABASE_URL ??= inject('databaseUrl');
@@ -27,10 +28,24 @@ describe('a respondent completes a study on a phone', () => {
   it('consent → segment question → practice → trials → thank you', async () => {
     const scripts: string[] = [];
     page.on('request', (r) => { if (r.resourceType() === 'script') scripts.push(new URL(r.url()).pathname); });
+    // Anything the browser refused under the script policy, and any hydration or script error.
+    const problems: string[] = [];
+    page.on('console', (m) => { if (/Content Security Policy|Refused to|React error|hydrat/i.test(m.text())) problems.push(m.text()); });
+    page.on('pageerror', (e) => problems.push(e.message));
+    // Counts server-rendered forms taken out of the page: hydration keeps the consent form, a fresh render would replace it.
+    await page.addInitScript(() => {
+      const w = window as unknown as { removedForms: number };
+      w.removedForms = 0;
+      new MutationObserver((records) => {
+        for (const r of records) for (const n of r.removedNodes) if (n instanceof Element && (n.matches('form') || n.querySelector('form'))) w.removedForms++;
+      }).observe(document, { childList: true, subtree: true });
+    });
     await page.goto(`${baseUrl()}/r/${study.token}`);
     await page.waitForURL(/\/take-part/);
     await expect.poll(() => page.getByText('No names or e-mail addresses are stored.').count()).toBe(1);
     expect(await page.getByText(/kept for 365 days/).count()).toBe(1);
+    await page.waitForLoadState('networkidle');
+    expect(await page.evaluate(() => (window as unknown as { removedForms: number }).removedForms)).toBe(0);
     await screenshot(page, 'respondent-consent');
     await page.getByRole('button', { name: 'I agree, start' }).click();
     await page.getByRole('button', { name: '2', exact: true }).click();
@@ -62,6 +77,7 @@ describe('a respondent completes a study on a phone', () => {
     // The flow's own bundle only: no Next.js client runtime on the respondent pages.
     expect(scripts.length).toBe(1);
     expect(scripts[0]).toMatch(/^\/r-assets\/main-[\w-]+\.js$/);
+    expect(problems).toEqual([]);
   });
 
   it('before the script has loaded the consent form still starts; the flow resumes once it loads', async () => {
@@ -71,7 +87,10 @@ describe('a respondent completes a study on a phone', () => {
     try {
       await p3.route('**/r-assets/*.js', (r) => r.abort());
       const res = await p3.goto(`${baseUrl()}/r/${other.token}`);
-      expect(res?.headers()['content-security-policy']).toMatch(/script-src 'self'/);
+      // One policy, and its script-src exactly 'self': no inline script of any kind.
+      const policies = (await res!.headersArray()).filter((h) => h.name.toLowerCase() === 'content-security-policy');
+      expect(policies).toHaveLength(1);
+      expect(cspDirectives(policies[0].value).get('script-src')).toEqual(["'self'"]);
       await p3.getByRole('button', { name: 'I agree, start' }).click();
       await p3.waitForURL(/\/take-part\?resume=/);
       await p3.getByTestId('waiting').waitFor();
@@ -88,6 +107,24 @@ describe('a respondent completes a study on a phone', () => {
   it('reopening the link after completing shows the thank-you page again', async () => {
     await page.goto(`${baseUrl()}/r/${study.token}`);
     await page.getByTestId('thanks').waitFor();
+  });
+
+  it("an unknown link: a real 404 with the flow's own stop screen, styled by the bundle's stylesheet, and no script", async () => {
+    const scripts: string[] = [];
+    const onRequest = (r: { resourceType(): string; url(): string }) => { if (r.resourceType() === 'script') scripts.push(r.url()); };
+    page.on('request', onRequest);
+    try {
+      const res = await page.goto(`${baseUrl()}/r/no-such-link-0000`);
+      expect(res?.status()).toBe(404);
+      await page.getByTestId('stopped').waitFor();
+      expect(await page.getByRole('heading', { name: 'No study at this address' }).count()).toBe(1);
+      // The page's colours come from the stylesheet (no inline style is allowed): paper, not the browser's white.
+      expect(await page.evaluate(() => getComputedStyle(document.body).backgroundColor)).toBe('rgb(250, 247, 242)');
+      expect(scripts).toEqual([]);
+      await screenshot(page, 'respondent-stopped');
+    } finally {
+      page.off('request', onRequest);
+    }
   });
 
   it('the analyst sees 1 complete and one seat fewer', async () => {

@@ -2,6 +2,7 @@ import { randomInt } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { baseUrl, openBrowser } from '../support/browser';
+import { cspDirectives } from '../support/csp';
 
 // Against the built app over real HTTP: the security headers it serves, the Auth.js cookie
 // flags of a credentials sign-in, and an old session refused after a password reset.
@@ -65,20 +66,45 @@ describe('security over HTTP', () => {
     await context?.close();
   });
 
-  it('pages, API routes and the respondent document carry CSP, frame-ancestors none, nosniff and a referrer policy', async () => {
-    for (const p of ['/sign-in', '/api/me', '/r/not-a-real-link-token/take-part']) {
+  it('pages and API routes carry CSP, frame-ancestors none, nosniff and a referrer policy', async () => {
+    for (const p of ['/sign-in', '/api/me']) {
       const res = await fetch(`${baseUrl()}${p}`, { redirect: 'manual' });
-      const csp = res.headers.get('content-security-policy') ?? '';
-      expect(csp, p).toContain("default-src 'self'");
-      expect(csp, p).toContain("frame-ancestors 'none'");
-      expect(csp, p).toContain("object-src 'none'");
-      expect(csp, p).toMatch(/img-src 'self' data: blob:/); // QR codes are data: URLs
-      expect(csp, p).toMatch(/form-action 'self' \S+/); // and the checkout page
+      const csp = cspDirectives(res.headers.get('content-security-policy'));
+      expect(csp.get('default-src'), p).toEqual(["'self'"]);
+      expect(csp.get('frame-ancestors'), p).toEqual(["'none'"]);
+      expect(csp.get('object-src'), p).toEqual(["'none'"]);
+      expect(csp.get('img-src'), p).toEqual(["'self'", 'data:', 'blob:']); // QR codes are data: URLs
+      expect(csp.get('form-action')?.[0], p).toBe("'self'");
+      expect(csp.get('form-action'), p).toHaveLength(2); // and the checkout page
       expect(res.headers.get('x-content-type-options'), p).toBe('nosniff');
       expect(res.headers.get('referrer-policy'), p).toBe('strict-origin-when-cross-origin');
       expect(res.headers.get('x-frame-options'), p).toBe('DENY');
       expect(res.headers.get('x-powered-by'), p).toBeNull();
     }
+  });
+
+  it('respondent pages and endpoints: one strict policy with no inline script or style, never cached, the same other headers', async () => {
+    const token = 'not-a-real-link-token';
+    for (const p of [`/r/${token}`, `/r/${token}/take-part`, `/r/${token}/state`]) {
+      const res = await fetch(`${baseUrl()}${p}`, { redirect: 'manual' });
+      expect(res.status, p).toBe(404);
+      // cspDirectives throws if the app's global policy were sent as well.
+      const csp = cspDirectives(res.headers.get('content-security-policy'));
+      expect(csp.get('script-src'), p).toEqual(["'self'"]);
+      expect(csp.get('style-src'), p).toEqual(["'self'"]);
+      expect(csp.get('default-src'), p).toEqual(["'self'"]);
+      expect(csp.get('form-action'), p).toEqual(["'self'"]);
+      expect(csp.get('frame-ancestors'), p).toEqual(["'none'"]);
+      expect(csp.get('object-src'), p).toEqual(["'none'"]);
+      expect(res.headers.get('cache-control'), p).toBe('no-store');
+      expect(res.headers.get('x-content-type-options'), p).toBe('nosniff');
+      expect(res.headers.get('x-frame-options'), p).toBe('DENY');
+    }
+    // The item picture is the one respondent response the no-store rule leaves to its handler.
+    const picture = await fetch(`${baseUrl()}/r/${token}/picture`);
+    expect(picture.status).toBe(404);
+    expect(picture.headers.get('cache-control')).not.toBe('no-store');
+    expect(cspDirectives(picture.headers.get('content-security-policy')).get('script-src')).toEqual(["'self'"]);
   });
 
   it('a credentials sign-in sets an HttpOnly, SameSite=Lax session cookie (not Secure on this plain-HTTP test address)', async () => {

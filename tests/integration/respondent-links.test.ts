@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { GET as entry } from '@/app/(respondent)/r/[token]/route';
-import { GET as picture } from '@/app/api/r/[token]/picture/route';
+import { GET as entry } from '@/app/r/[token]/route';
+import { GET as picture } from '@/app/r/[token]/picture/route';
 import { em } from '@/lib/server/db/orm';
 import { callRoute, makeWorkspace } from '../support/factories';
 import { makeLiveStudy, testDesign } from '../support/respondent-fixtures';
@@ -50,7 +50,7 @@ describe('respondent links: unknown 404, closed or paused 410', () => {
   it('a plain form post (before the script loads) starts and redirects to the flow with the cookie', async () => {
     const ws = await makeWorkspace();
     const { token, studyId } = await makeLiveStudy(ws.slug, { design: testDesign() });
-    const res = await callRoute((await import('@/app/api/r/[token]/start/route')).POST, {
+    const res = await callRoute((await import('@/app/r/[token]/start/route')).POST, {
       method: 'POST', params: { token }, rawBody: 'consent=true', headers: { 'content-type': 'application/x-www-form-urlencoded' },
     });
     expect(res.status).toBe(303);

@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { POST as createLink } from '@/app/api/w/[workspace]/studies/[study]/links/route';
-import { POST as startRoute } from '@/app/api/r/[token]/start/route';
+import { POST as startRoute } from '@/app/r/[token]/start/route';
 import { em } from '@/lib/server/db/orm';
 import { newLinkToken } from '@/lib/server/studies/respondent-links';
 import { newResumeToken } from '@/respondent/server/trials';

@@ -22,8 +22,8 @@ import { countsOf, makeTenantFixture, type TenantFixture } from '../support/tena
 /** Routes outside /api/w/[workspace] that are public by design, each with its reason. */
 const PUBLIC_ROUTES: { pattern: RegExp; reason: string }[] = [
   { pattern: /^\/api\/auth\/\[\.\.\.nextauth\]$/, reason: 'Auth.js sign-in/out endpoints; rate-limited, no workspace data' },
-  { pattern: /^\/api\/r\/\[token\](\/.*)?$/, reason: 'respondent endpoints: the unguessable link token (and resume token) is the credential' },
-  { pattern: /^\/r\/\[token\](\/.*)?$/, reason: 'respondent entry link and flow document: token-based, no session' },
+  { pattern: /^\/api\/r\/\[token\]\/answer$/, reason: 'the one respondent endpoint not yet under /r/[token]: the link and resume tokens are the credential' },
+  { pattern: /^\/r\/\[token\](\/.*)?$/, reason: 'the respondent runtime (link, flow document, start, state, complete, picture): the unguessable link token (and resume token) is the credential, no session' },
   { pattern: /^\/r-assets\/\[file\]$/, reason: "the respondent bundle's static files (hashed names only), no data" },
   { pattern: /^\/api\/stripe\/webhook$/, reason: 'Stripe webhook: authenticated by its signature header' },
   { pattern: /^\/api\/assets\/\[id\]$/, reason: 'item pictures by random id, shown to respondents without a session' },

@@ -1,9 +1,9 @@
 // Calls the respondent route handlers the way the page's script does.
 import { randomUUID } from 'node:crypto';
-import { POST as start } from '@/app/api/r/[token]/start/route';
+import { POST as start } from '@/app/r/[token]/start/route';
 import { POST as answer } from '@/app/api/r/[token]/answer/route';
-import { POST as complete } from '@/app/api/r/[token]/complete/route';
-import { GET as state } from '@/app/api/r/[token]/state/route';
+import { POST as complete } from '@/app/r/[token]/complete/route';
+import { GET as state } from '@/app/r/[token]/state/route';
 import type { FlowState, PublicTrial } from '@/respondent/shared/types';
 import { callRoute } from './factories';
 

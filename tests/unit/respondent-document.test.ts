@@ -1,40 +1,82 @@
 import { createElement } from 'react';
-import { renderToStaticMarkup } from 'react-dom/server';
+import { renderToString } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
-import { ConsentScreen } from '@/respondent/client/consent-screen';
-import { bootJson, type RespondentBoot } from '@/respondent/shared/boot';
-import { consentHtml } from '@/respondent/server/consent-html';
+import { LiveFlow } from '@/respondent/client/live-flow';
+import { Stopped } from '@/respondent/client/status-screens';
+import { consentDocument, resumeDocument, stoppedDocument } from '@/respondent/server/document';
+import { bootJson, ROOT_ID, type RespondentBoot } from '@/respondent/shared/boot';
+import { respondentUrls } from '@/respondent/shared/urls';
 
-// The take-part document's consent form is plain HTML; the live flow then renders ConsentScreen
-// over it. Both must be the same markup, or the page would change under the respondent's thumb.
-describe('server consent form', () => {
-  const cases = [
-    { consentText: 'A short survey.\nNo names are stored.', retentionDays: 365, pid: null },
-    { consentText: 'Quotes "like this" & <tags> and it\'s fine', retentionDays: 30, pid: 'p"<1>&\'' },
-  ];
-  for (const c of cases) {
-    it(`matches ConsentScreen (pid ${c.pid ? 'given' : 'none'})`, () => {
-      const action = '/api/r/abc_DEF-123/start';
-      const react = renderToStaticMarkup(createElement(ConsentScreen, { ...c, action, onAgree: () => {} }));
-      expect(consentHtml({ ...c, action })).toBe(react);
+// The respondent documents rendered on the server from the flow's own components. Whether the
+// vite bundle is built does not matter here: these checks read only the first screen.
+
+const study = { task: 'pick', itemName: 'Oil', pictureUrl: null, currency: 'EUR', locale: 'en-IE', viewMs: 500, tripMinutes: 10 } as const;
+const boot = (over: Partial<RespondentBoot> = {}): RespondentBoot => ({
+  token: 'abc_DEF-123', resumeToken: null, pid: null, initial: null, study, retentionDays: 365, questions: [],
+  consentText: 'A short survey.\nNo names are stored.', ...over,
+});
+const firstScreen = (html: string) => {
+  const m = new RegExp(`<main id="${ROOT_ID}"[^>]*>(.*)</main>`, 's').exec(html);
+  expect(m, 'the document has its flow root').not.toBeNull();
+  return m![1];
+};
+const consentPage = async (b: RespondentBoot) => (await consentDocument({ title: 'Price survey', action: respondentUrls(b.token).start, boot: b })).text();
+
+describe('the server-rendered consent screen', () => {
+  for (const b of [boot(), boot({ pid: 'p"<1>&\'', consentText: 'Quotes "like this" & <tags> and it\'s fine', retentionDays: 30 })]) {
+    it(`is exactly what the phone's flow renders first, so hydrating it changes nothing (pid ${b.pid ? 'given' : 'none'})`, async () => {
+      const flow = renderToString(createElement(LiveFlow, {
+        token: b.token, resumeToken: b.resumeToken, pid: b.pid, initial: b.initial, study: b.study,
+        consentText: b.consentText, retentionDays: b.retentionDays, questions: b.questions,
+      }));
+      expect(firstScreen(await consentPage(b))).toBe(flow);
     });
   }
 
-  it('is a real form posting consent (and the pid) to the start route', () => {
-    const html = consentHtml({ consentText: 'x', retentionDays: 7, action: '/api/r/t0k3n/start', pid: 'panel-9' });
-    expect(html).toMatch(/^<form [^>]*action="\/api\/r\/t0k3n\/start" method="post">/);
+  it('is a real form posting consent (and the panel id) to the start route, so it works without script', async () => {
+    const html = firstScreen(await consentPage(boot({ token: 't0k3n-abcdef', pid: 'panel-9', retentionDays: 7 })));
+    const form = /<form ([^>]*)>/.exec(html)?.[1] ?? '';
+    expect(form).toContain('method="post"');
+    expect(form).toContain('action="/r/t0k3n-abcdef/start"');
     expect(html).toContain('<input type="hidden" name="pid" value="panel-9"/>');
     expect(html).toContain('<input type="hidden" name="consent" value="true"/>');
-    expect(html).toContain('kept for 7 days');
+    expect(html).toMatch(/<button type="submit"[^>]*>I agree, start<\/button>/);
+    expect(html).toContain('kept for <!-- -->7<!-- --> days');
+  });
+
+  it('escapes hostile consent text and panel ids once: no markup of theirs reaches the page', async () => {
+    const html = await consentPage(boot({ consentText: '</main><script>alert(1)</script>', pid: '"><script>alert(2)</script>' }));
+    expect(html).not.toMatch(/<script>alert/);
+    expect(html).toContain('&lt;/main&gt;&lt;script&gt;alert(1)&lt;/script&gt;');
+    expect(html).toContain('value="&quot;&gt;&lt;script&gt;alert(2)&lt;/script&gt;"');
+  });
+});
+
+describe('the other respondent documents', () => {
+  it('a stop screen: its status, its title, the flow’s own Stopped markup and no script at all', async () => {
+    const res = await stoppedDocument({ status: 410, code: 'gone', message: 'This study is paused at the moment. Please try again later.' });
+    expect(res.status).toBe(410);
+    expect(res.headers.get('content-type')).toBe('text/html; charset=utf-8');
+    const html = await res.text();
+    expect(html.startsWith('<!doctype html><html lang="en">')).toBe(true);
+    expect(html).toContain('<title>This study is not open · Notchwise</title>');
+    expect(firstScreen(html)).toBe(renderToString(createElement(Stopped, { code: 'gone', message: 'This study is paused at the moment. Please try again later.' })));
+    expect(html).not.toContain('<script');
+  });
+
+  it('a resumed visit: "One moment" with a note for browsers without script, and no consent form', async () => {
+    const html = firstScreen(await (await resumeDocument({ title: 'Price survey', boot: boot({ resumeToken: 'r-token' }) })).text());
+    expect(html).toContain('data-testid="waiting"');
+    expect(html).toMatch(/<noscript>.*need JavaScript.*<\/noscript>/s);
+    expect(html).not.toContain('<form');
   });
 });
 
 describe('boot data block', () => {
   it('cannot close its script element early and parses back to the same data', () => {
-    const boot = { token: 't', resumeToken: null, pid: null, initial: null, consentText: '</script><script>alert(1)</script>\u2028', retentionDays: 1, questions: [],
-      study: { task: 'pick', itemName: 'Oil', pictureUrl: null, currency: 'EUR', locale: 'en-IE', viewMs: 500, tripMinutes: 10 } } satisfies RespondentBoot;
-    const json = bootJson(boot);
+    const b = boot({ token: 't', consentText: '</script><script>alert(1)</script>\u2028', retentionDays: 1 });
+    const json = bootJson(b);
     expect(json).not.toMatch(/<\/script/i);
-    expect(JSON.parse(json)).toEqual(boot);
+    expect(JSON.parse(json)).toEqual(b);
   });
 });

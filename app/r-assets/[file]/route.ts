@@ -1,7 +1,7 @@
 import { readFile } from 'node:fs/promises';
-import path from 'node:path';
-import type { NextRequest } from 'next/server';
-import { RESPONDENT_DIST } from '@/respondent/server/document';
+import { route } from '@/lib/server/http/route';
+import { AppError } from '@/lib/server/http/errors';
+import { bundleFile } from '@/respondent/server/assets';
 
 const TYPES: Record<string, string> = {
   js: 'text/javascript; charset=utf-8',
@@ -10,15 +10,18 @@ const TYPES: Record<string, string> = {
 };
 
 /**
- * The respondent bundle's files (script, stylesheet, fonts) from .respondent-dist. Names carry
- * a content hash, so they are cached for a year; only plain hashed names are accepted.
+ * The respondent bundle's files (script, stylesheet, fonts). Names carry a content hash, so they
+ * are cached for a year; only plain hashed names are accepted. Served outside /r on purpose: the
+ * resume cookie (scoped to /r) is not sent with them, and no path here can shadow a link token.
  */
-export async function GET(_req: NextRequest, ctx: { params: Promise<{ file: string }> }) {
-  const { file } = await ctx.params;
-  const m = /^[A-Za-z0-9_-]+\.(js|css|woff2)$/.exec(file);
-  const bytes = m ? await readFile(path.join(RESPONDENT_DIST, file)).catch(() => null) : null;
-  if (!m || !bytes) return Response.json({ error: { code: 'not_found', message: 'No such file.' } }, { status: 404 });
-  return new Response(new Uint8Array(bytes), {
-    headers: { 'content-type': TYPES[m[1]], 'cache-control': 'public, max-age=31536000, immutable' },
-  });
-}
+export const GET = route(
+  { auth: 'public', reason: "the respondent bundle's static files (hashed names only), no data" },
+  async ({ params }) => {
+    const m = /^[A-Za-z0-9_-]+\.(js|css|woff2)$/.exec(String(params.file));
+    const bytes = m ? await readFile(bundleFile(m[0])).catch(() => null) : null;
+    if (!m || !bytes) throw new AppError(404, 'not_found', 'No such file.');
+    return new Response(new Uint8Array(bytes), {
+      headers: { 'content-type': TYPES[m[1]], 'cache-control': 'public, max-age=31536000, immutable' },
+    });
+  },
+);

@@ -1,0 +1,15 @@
+import { route } from '@/lib/server/http/route';
+import { em } from '@/lib/server/db/orm';
+import { clientIp, limit } from '@/lib/server/platform/rate-limit';
+import { completeRespondent } from '@/respondent/server/complete';
+import { resumeTokenFrom } from '@/respondent/server/http';
+import type { CompleteReply } from '@/respondent/shared/complete.schema';
+
+/** POST: finishes the respondent and uses one seat, exactly once however often it is retried. */
+export const POST = route(
+  { auth: 'public', reason: 'respondents have no account: the link token in the path and their resume token identify them' },
+  async ({ req, params }): Promise<CompleteReply> => {
+    await limit('respondent-ip', clientIp(req.headers));
+    return completeRespondent(await em(), String(params.token), resumeTokenFrom(req));
+  },
+);

@@ -1,0 +1,26 @@
+import { route } from '@/lib/server/http/route';
+import { em } from '@/lib/server/db/orm';
+import { stoppedDocument } from '@/respondent/server/document';
+import { linkRefusal, loadLink } from '@/respondent/server/link';
+import { respondentUrls } from '@/respondent/shared/urls';
+
+/**
+ * The shared link. Unknown, closed or paused links answer here with the stop screen and a real
+ * 404 or 410 status (a page can only say 404); open links continue to the flow, keeping ?pid=
+ * and ?resume=.
+ */
+export const GET = route(
+  { auth: 'public', reason: 'the link respondents are sent to; the unguessable token in the path is the only credential' },
+  async ({ req, params }) => {
+    const token = String(params.token);
+    const refusal = linkRefusal(await loadLink(await em(), token));
+    if (refusal) return stoppedDocument(refusal);
+    const to = new URLSearchParams();
+    for (const key of ['pid', 'resume']) {
+      const v = req.nextUrl.searchParams.get(key);
+      if (v) to.set(key, v);
+    }
+    const query = to.size ? `?${to}` : '';
+    return new Response(null, { status: 307, headers: { location: respondentUrls(token).takePart + query } });
+  },
+);
