@@ -7,13 +7,8 @@ import nextTs from 'eslint-config-next/typescript';
 const DATA_LAYER_MESSAGE = 'Call a data-access function in lib/server/<domain> instead: it authorises, scopes by workspace and returns a DTO.';
 const dataLayerBoundary = {
   files: ['app/**/*.{ts,tsx}', 'components/**/*.{ts,tsx}', 'respondent/client/**/*.{ts,tsx}'],
-  // The respondent routes still under app/api/r and app/(respondent) are being moved to
-  // app/r/[token] with their database calls in respondent/server; they leave this list then.
-  ignores: [
-    'app/api/r/[[]token]/{answer,complete,picture,state}/route.ts',
-    'app/(respondent)/r/[[]token]/route.ts',
-    'app/(respondent)/r/[[]token]/take-part/route.ts',
-  ],
+  // The last respondent route under app/api/r moves to app/r/[token]/answers with the answer batch.
+  ignores: ['app/api/r/[[]token]/answer/route.ts'],
   rules: {
     'no-restricted-imports': ['error', {
       patterns: [

@@ -1,7 +1,6 @@
 import { route } from '@/lib/server/http/route';
-import { em } from '@/lib/server/db/orm';
 import { stoppedDocument } from '@/respondent/server/document';
-import { linkRefusal, loadLink } from '@/respondent/server/link';
+import { linkEntryRefusal } from '@/respondent/server/link-requests';
 import { respondentUrls } from '@/respondent/shared/urls';
 
 /**
@@ -13,7 +12,7 @@ export const GET = route(
   { auth: 'public', reason: 'the link respondents are sent to; the unguessable token in the path is the only credential' },
   async ({ req, params }) => {
     const token = String(params.token);
-    const refusal = linkRefusal(await loadLink(await em(), token));
+    const refusal = await linkEntryRefusal(token);
     if (refusal) return stoppedDocument(refusal);
     const to = new URLSearchParams();
     for (const key of ['pid', 'resume']) {

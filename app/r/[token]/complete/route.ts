@@ -1,7 +1,6 @@
 import { route } from '@/lib/server/http/route';
-import { em } from '@/lib/server/db/orm';
 import { clientIp, limit } from '@/lib/server/platform/rate-limit';
-import { completeRespondent } from '@/respondent/server/complete';
+import { completeByLink } from '@/respondent/server/link-requests';
 import { resumeTokenFrom } from '@/respondent/server/http';
 import type { CompleteReply } from '@/respondent/shared/complete.schema';
 
@@ -10,6 +9,6 @@ export const POST = route(
   { auth: 'public', reason: 'respondents have no account: the link token in the path and their resume token identify them' },
   async ({ req, params }): Promise<CompleteReply> => {
     await limit('respondent-ip', clientIp(req.headers));
-    return completeRespondent(await em(), String(params.token), resumeTokenFrom(req));
+    return completeByLink(String(params.token), resumeTokenFrom(req));
   },
 );
