@@ -8,7 +8,9 @@ import type { FlowState, TrialPlan } from '@/respondent/shared/types';
 import { em } from '@/lib/server/db/orm';
 import { AppError } from '@/lib/server/http/errors';
 import { openLink, type LinkInfo } from './link';
-import { lockWorkspace, quotaAvailable, seatAvailableForStart } from '@/lib/server/billing/seat-holds';
+import { lockWorkspaceSeats } from '@/lib/server/billing/seat-ledger';
+import { sql } from '@/lib/server/db/sql';
+import { quotaAvailable, seatAvailableForStart } from './admission';
 import { answeredHistory, newResumeToken, newSeed, planFor } from './trials';
 
 export const startSchema = z.strictObject({
@@ -96,13 +98,13 @@ export async function startRespondent(token: string, input: StartInput, resumeTo
   const fresh = newResumeToken();
   try {
     await db.transactional(async (tx) => {
-      await lockWorkspace(tx, link.workspaceId);
+      await lockWorkspaceSeats(tx, link.workspaceId);
       if (!(await seatAvailableForStart(tx, link.workspaceId)) || !(await quotaAvailable(tx, link.linkId, link.quota))) throw FULL();
-      await tx.getConnection().execute(
+      await sql(
+        tx,
         `insert into respondent (id, workspace_id, study_id, link_id, pid, resume_token, seed, state, segment_answers, plan, answered_count, started_at, last_seen_at)
          values (?, ?, ?, ?, ?, ?, ?, 'started', ?::jsonb, ?::jsonb, 0, now(), now())`,
         [randomUUID(), link.workspaceId, link.studyId, link.linkId, pid, fresh, seed, JSON.stringify(answers), JSON.stringify(plan)],
-        'all', tx.getTransactionContext(),
       );
     });
   } catch (err) {

@@ -2,7 +2,7 @@ import type { NextRequest } from 'next/server';
 import { em } from '@/lib/server/db/orm';
 import { linkRefusal, loadLink, resumeCookieName } from '@/respondent/server/link';
 import { findByResume, stateOf } from '@/respondent/server/respondents';
-import { openForNewRespondents } from '@/lib/server/billing/seat-holds';
+import { openForNewRespondents } from '@/respondent/server/admission';
 import { noticeHtml, respondentDocument, WAITING_HTML } from '@/respondent/server/document';
 import { consentHtml } from '@/respondent/server/consent-html';
 import { flowStudy } from '@/respondent/shared/screens';
