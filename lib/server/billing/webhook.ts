@@ -2,7 +2,8 @@ import 'server-only';
 import { LockMode } from '@mikro-orm/postgresql';
 import type Stripe from 'stripe';
 import { Purchase } from '@/entities/purchase';
-import { findBundle, formatMoney } from '@/lib/billing-bundles';
+import { findBundle } from '@/lib/billing-bundles';
+import { formatCents } from '@/lib/money';
 import { recordAudit } from '@/lib/server/team/audit';
 import { em } from '@/lib/server/db/orm';
 import { sql } from '@/lib/server/db/sql';
@@ -77,7 +78,7 @@ async function sendReceipt(c: Credited, stripeEmail: string | null) {
   const name = findBundle(c.bundle)?.name ?? c.bundle;
   const { text, html } = composeMail([
     `Hello ${c.buyer?.name ?? ''},`.replace(' ,', ','),
-    `Thank you: your payment of ${formatMoney(c.amountCents, c.currency)} for the ${name} bundle is confirmed.`,
+    `Thank you: your payment of ${formatCents(c.amountCents, c.currency)} for the ${name} bundle is confirmed.`,
     `${c.seats} respondent seats were added to your workspace; the balance is now ${balance} seats.`,
     `Reference: ${c.sessionId}`,
   ]);
