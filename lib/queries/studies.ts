@@ -1,6 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { FieldworkDto } from '@/lib/server/studies/fieldwork';
-import type { StudyLinkDto } from '@/lib/server/studies/respondent-links';
+import type { RespondentLinkDto } from '@/lib/server/studies/respondent-links';
 import { fetchJson } from '@/lib/fetch-json';
 
 const base = (slug: string, study: string) => `/api/w/${encodeURIComponent(slug)}/studies/${study}`;
@@ -16,7 +16,7 @@ export const fieldworkQuery = (slug: string, study: string) =>
 export const linksQuery = (slug: string, study: string) =>
   queryOptions({
     queryKey: ['links', slug, study],
-    queryFn: async () => (await fetchJson<{ links: StudyLinkDto[] }>(`${base(slug, study)}/links`)).links,
+    queryFn: async () => (await fetchJson<{ links: RespondentLinkDto[] }>(`${base(slug, study)}/links`)).links,
   });
 
 export const studyApi = base;

@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
 import { readJson, workspaceRoute } from '@/lib/server/http/route';
 import { changeStudyState } from '@/lib/server/studies/lifecycle';
-import { studyStateChangeSchema } from '@/lib/schemas/study-link.schema';
+import { studyStateChangeSchema } from '@/lib/schemas/study.schema';
 
 export const POST = workspaceRoute<{ workspace: string; study: string }>('analyst', async (req, ctx, p) => {
   const { action } = await readJson(req, studyStateChangeSchema);
