@@ -16,8 +16,3 @@ export type Bundle = (typeof BUNDLES)[number];
 export function findBundle(id: string): Bundle | undefined {
   return BUNDLES.find((b) => b.id === id);
 }
-
-/** Money for display, e.g. "€90.00"; cents in, the locale's conventions out. */
-export function formatMoney(cents: number, currency: string = BUNDLE_CURRENCY): string {
-  return new Intl.NumberFormat('en-IE', { style: 'currency', currency: currency.toUpperCase() }).format(cents / 100);
-}

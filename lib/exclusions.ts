@@ -29,13 +29,6 @@ export function brokenRules(q: RespondentQuality, rules: ExclusionRules): Exclus
   return out;
 }
 
-export function median(values: number[]): number | null {
-  if (!values.length) return null;
-  const s = [...values].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
-
 export interface ExclusionCounts {
   respondents: { before: number; after: number };
   trials: { before: number; after: number };

@@ -67,12 +67,3 @@ export function fitCautions(r: AnalysisReport, poorFit: boolean): string[] {
   out.push(REFERENCE_PRICE_CAUTION);
   return out;
 }
-
-/** Wilson score interval for k of n at 95 % (the whiskers on observed notice rates). */
-export function wilson(k: number, n: number, z = 1.959964): [number, number] {
-  if (n === 0) return [0, 1];
-  const p = k / n, z2 = z * z;
-  const centre = (p + z2 / (2 * n)) / (1 + z2 / n);
-  const half = (z * Math.sqrt((p * (1 - p)) / n + z2 / (4 * n * n))) / (1 + z2 / n);
-  return [Math.max(0, centre - half), Math.min(1, centre + half)];
-}

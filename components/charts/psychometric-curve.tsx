@@ -3,7 +3,7 @@ import { useContext } from 'react';
 import { Axis, DataContext, GlyphSeries, Grid, LineSeries, XYChart } from '@visx/xychart';
 import { Area } from '@visx/shape';
 import type { BaseReport } from '@/lib/psychometrics/report-types';
-import { wilson } from '@/lib/results-text';
+import { alphaFromThreshold, noticeRate, rateAtF, wilson } from '@/lib/psychometrics/curve';
 import { COLORS, chartTheme, formatNumber, logTicks } from './chart-theme';
 
 // One base price: observed notice rates per rung (amber dots, area ∝ trials, Wilson 95 %
@@ -14,15 +14,8 @@ import { COLORS, chartTheme, formatNumber, logTicks } from './chart-theme';
 export interface ObservedCell { discount: number; n: number; k: number }
 type Pt = { x: number; y: number };
 
-const logistic = (z: number) => 1 / (1 + Math.exp(-z));
-
 function curveAt(b: BaseReport, alpha: number, beta: number, xPct: number) {
-  return b.guess + (1 - b.guess - b.lapse) * logistic(beta * (Math.log(xPct / 100) - alpha));
-}
-
-/** ln of the mid-point threshold fraction, from the threshold at the report's target. */
-export function alphaOf(b: BaseReport, fTarget: number, fraction = b.threshold.fraction) {
-  return Math.log(fraction) - Math.log(fTarget / (1 - fTarget)) / b.slope;
+  return noticeRate(xPct / 100, { guess: b.guess, lapse: b.lapse, alpha, beta });
 }
 
 function Overlay({ band, cells, b, thresholdY, label }: { band: { x: number; lo: number; hi: number }[]; cells: (ObservedCell & { x: number })[]; b: BaseReport; thresholdY: number; label: string }) {
@@ -51,11 +44,11 @@ export function PsychometricCurve({ base, cells, fTarget, width = 440, height = 
   const pts = cells.map((c) => ({ ...c, x: c.discount * 100, y: c.n ? c.k / c.n : 0 }));
   const xs = pts.map((p) => p.x).concat(base.threshold.fractionCi ? base.threshold.fractionCi.map((v) => v * 100) : []);
   const lo = Math.max(0.05, Math.min(...xs) / 1.5), hi = Math.min(99, Math.max(...xs) * 1.5);
-  const alpha = alphaOf(base, fTarget);
+  const alpha = alphaFromThreshold(base.threshold.fraction, base.slope, fTarget);
   const curve: Pt[] = [];
   const band: { x: number; lo: number; hi: number }[] = [];
   const ci = base.threshold.fractionCi, sci = base.slopeCi;
-  const corners = ci && sci ? ci.flatMap((f) => sci.map((s) => ({ a: Math.log(f) - Math.log(fTarget / (1 - fTarget)) / s, s }))) : [];
+  const corners = ci && sci ? ci.flatMap((f) => sci.map((s) => ({ a: alphaFromThreshold(f, s, fTarget), s }))) : [];
   for (let i = 0; i <= 80; i++) {
     const x = lo * Math.pow(hi / lo, i / 80);
     curve.push({ x, y: curveAt(base, alpha, base.slope, x) });
@@ -65,7 +58,7 @@ export function PsychometricCurve({ base, cells, fTarget, width = 440, height = 
     }
   }
   const nMax = Math.max(1, ...pts.map((p) => p.n));
-  const thresholdY = base.guess + (1 - base.guess - base.lapse) * fTarget;
+  const thresholdY = rateAtF(fTarget, base.guess, base.lapse);
   return (
     <figure aria-label={title}>
       <XYChart width={width} height={height} margin={{ top: 18, right: 14, bottom: 46, left: 50 }} theme={chartTheme}

@@ -2,6 +2,7 @@
 import { useContext } from 'react';
 import { Axis, DataContext, GlyphSeries, LineSeries, XYChart } from '@visx/xychart';
 import type { AnalysisReport } from '@/lib/psychometrics/report-types';
+import { geometricMean } from '@/lib/psychometrics/math';
 import { COLORS, chartTheme, formatNumber, logTicks } from './chart-theme';
 
 // Notice threshold in money against base price, both on log axes: each base's threshold with
@@ -42,7 +43,7 @@ export function WeberPlot({ report, currency, width = 560, height = 340 }: { rep
   const mid = power.thresholds[Math.floor(power.thresholds.length / 2)] ?? { basePrice: pts[0].x, amount: pts[0].y };
   const line = (s: number, through: Pt): Pt[] => [xLo, xHi].map((x) => ({ x, y: through.y * Math.pow(x / through.x, s) }));
   const clip = (ps: Pt[]) => ps.map((p) => ({ x: p.x, y: Math.min(yHi, Math.max(yLo, p.y)) }));
-  const gm = { x: Math.exp(prices.reduce((a, p) => a + Math.log(p), 0) / prices.length), y: Math.exp(pts.reduce((a, p) => a + Math.log(p.y), 0) / pts.length) };
+  const gm = { x: geometricMean(prices), y: geometricMean(pts.map((p) => p.y)) };
   const refs = [
     { label: 'same percentage (slope 1)', pts: clip(line(1, gm)) },
     { label: 'same amount (slope 0)', pts: clip(line(0, gm)) },

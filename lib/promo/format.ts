@@ -1,13 +1,4 @@
-// Display formatting for plan screens: prices in the study's locale and currency, shares as %.
-const moneyFormats = new Map<string, Intl.NumberFormat>();
-
-export function formatMoney(v: number | null, currency: string, locale = 'en-GB'): string {
-  if (v === null || !Number.isFinite(v)) return '—';
-  const key = `${locale}|${currency}`;
-  let f = moneyFormats.get(key);
-  if (!f) moneyFormats.set(key, (f = new Intl.NumberFormat(locale, { style: 'currency', currency, minimumFractionDigits: 2, maximumFractionDigits: 2 })));
-  return f.format(v);
-}
+// Display formatting for plan screens: shares as %, the target in words (money: lib/money.ts).
 
 export function formatPct(v: number | null, digits = 1): string {
   if (v === null || !Number.isFinite(v)) return '—';

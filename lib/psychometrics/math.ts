@@ -46,7 +46,13 @@ export function quantileSorted(sorted: ArrayLike<number>, q: number): number {
   return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
 }
 
+/** Median (NaN for no values). */
 export function median(values: number[]): number {
   const s = [...values].sort((a, b) => a - b);
   return quantileSorted(s, 0.5);
+}
+
+/** Geometric mean of positive values (NaN for no values). */
+export function geometricMean(values: number[]): number {
+  return Math.exp(values.reduce((a, v) => a + Math.log(v), 0) / values.length);
 }

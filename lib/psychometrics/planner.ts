@@ -124,3 +124,17 @@ export function respondentsForWidth(
     return { basePrice, respondents: hi };
   });
 }
+
+/**
+ * The observer a plan assumes from a fit: the middle slope across bases (the upper one of the
+ * two middle slopes for an even count; robust to one runaway slope) and the mean lapse and
+ * guess rates.
+ */
+export function assumedObserver(bases: { slope: number; lapse: number; guess: number }[]): { beta: number; lapse: number; guess: number } {
+  const slopes = bases.map((b) => b.slope).sort((a, b) => a - b);
+  return {
+    beta: slopes[slopes.length >> 1],
+    lapse: bases.reduce((a, b) => a + b.lapse, 0) / bases.length,
+    guess: bases.reduce((a, b) => a + b.guess, 0) / bases.length,
+  };
+}

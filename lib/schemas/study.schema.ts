@@ -1,11 +1,12 @@
 import { z } from 'zod';
+import type { Task } from '@/lib/psychometrics/types';
+import { STUDY_ACTIONS } from '@/lib/study-states';
 
 // The study design: one schema for the builder form, the server actions and route handlers,
 // and the respondent flow. Stored as Study.design (jsonb) and frozen once a study goes live.
 
-export const TASKS = ['spot', 'pick', 'trip'] as const;
-export type TaskId = (typeof TASKS)[number];
-export const TASK_LABELS: Record<TaskId, string> = {
+export const TASKS = ['spot', 'pick', 'trip'] as const satisfies readonly Task[];
+export const TASK_LABELS: Record<Task, string> = {
   spot: 'Spot the saving',
   pick: 'Pick the lower price',
   trip: 'Worth the trip',
@@ -149,3 +150,6 @@ export function estimatedMinutes(d: StudyDesign): number {
   const shelf = d.task === 'spot' ? d.shelfSize * 2 : 0;
   return Math.max(1, Math.round((60 + shelf + n * perTrial) / 60));
 }
+
+/** A move between study states (launch, pause, resume, close). */
+export const studyStateChangeSchema = z.object({ action: z.enum(STUDY_ACTIONS, { error: 'Use one of: launch, pause, resume, close.' }) });

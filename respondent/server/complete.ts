@@ -3,7 +3,8 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { expectedTrial, completionRedirect } from '@/respondent/shared/screens';
 import { AppError } from '@/lib/server/http/errors';
 import { respondentContext } from './context';
-import { lockWorkspace, useSeat } from '@/lib/server/billing/seat-holds';
+import { sql, sqlOne } from '@/lib/server/db/sql';
+import { lockWorkspaceSeats, useSeat } from '@/lib/server/billing/seat-ledger';
 import { answeredHistory } from './trials';
 
 /**
@@ -14,13 +15,12 @@ export async function completeRespondent(db: EntityManager, linkToken: string, r
   const ctx = await respondentContext(db, linkToken, resumeToken);
   const redirectUrl = completionRedirect(ctx.design, ctx.pid);
   await db.transactional(async (tx) => {
-    const run = <T extends Record<string, unknown>[]>(sql: string, params: unknown[]) => tx.getConnection().execute<T>(sql, params, 'all', tx.getTransactionContext());
-    await lockWorkspace(tx, ctx.workspaceId);
-    const rows = await run<{ state: string; answered_count: number; study_state: string }[]>(
+    await lockWorkspaceSeats(tx, ctx.workspaceId);
+    const r = await sqlOne<{ state: string; answered_count: number; study_state: string }>(
+      tx,
       'select r.state, r.answered_count, s.state as study_state from respondent r join study s on s.id = r.study_id where r.id = ? for update of r',
       [ctx.id],
     );
-    const r = rows[0];
     if (!r) throw new AppError(404, 'not_found', 'We could not find your answers.');
     if (r.state === 'completed') return;
     if (r.study_state === 'closed') throw new AppError(410, 'gone', 'This study is closed. Thank you for your interest.');
@@ -30,8 +30,8 @@ export async function completeRespondent(db: EntityManager, linkToken: string, r
       : expectedTrial(ctx.design, ctx.seed, ctx.plan, await answeredHistory(tx, ctx.id), count) === null;
     if (!finished) throw new AppError(409, 'conflict', 'Some trials are not answered yet.');
     if (!(await useSeat(tx, ctx.workspaceId, ctx.id))) throw new AppError(409, 'study_full', 'This study is full. Your answers are kept; thank you for taking part.');
-    await run(`update respondent set state = 'completed', completed_at = now(), last_seen_at = now() where id = ?`, [ctx.id]);
-    await run('update study set data_version = data_version + 1 where id = ?', [ctx.studyId]);
+    await sql(tx, `update respondent set state = 'completed', completed_at = now(), last_seen_at = now() where id = ?`, [ctx.id]);
+    await sql(tx, 'update study set data_version = data_version + 1 where id = ?', [ctx.studyId]);
   });
   return { ok: true, redirectUrl };
 }

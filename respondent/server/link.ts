@@ -4,7 +4,8 @@ import type { StudyDesign } from '@/lib/schemas/study.schema';
 import { AppError } from '@/lib/server/http/errors';
 import { storedDesign } from './trials';
 
-export interface LinkInfo {
+/** A respondent link as the respondent side sees it: the link with its study's state and design and its workspace's retention. */
+export interface RespondentLinkWithStudy {
   token: string;
   linkId: string;
   studyId: string;
@@ -18,7 +19,7 @@ export interface LinkInfo {
 }
 
 /** A respondent link with its study and workspace facts, one query; null when unknown. */
-export async function loadLink(db: EntityManager, token: string): Promise<LinkInfo | null> {
+export async function loadLink(db: EntityManager, token: string): Promise<RespondentLinkWithStudy | null> {
   if (!/^[A-Za-z0-9_-]{8,64}$/.test(token)) return null;
   const rows = await db.getConnection().execute<Record<string, unknown>[]>(
     `select l.id as link_id, l.closed_at, l.quota, l.accepts_pid, s.id as study_id, s.state, s.design, s.workspace_id, w.retention_days
@@ -43,7 +44,7 @@ export async function loadLink(db: EntityManager, token: string): Promise<LinkIn
 }
 
 /** Why a link cannot take respondents: 404 unknown, 410 closed or not (or no longer) live. */
-export function linkRefusal(link: LinkInfo | null): AppError | null {
+export function linkRefusal(link: RespondentLinkWithStudy | null): AppError | null {
   if (!link || link.studyState === 'imported') return new AppError(404, 'not_found', 'This link does not lead to a study. Check the address you were given.');
   if (link.closed) return new AppError(410, 'gone', 'This link is closed. Thank you for your interest.');
   if (link.studyState === 'paused') return new AppError(410, 'gone', 'This study is paused at the moment. Please try again later.');
@@ -51,7 +52,7 @@ export function linkRefusal(link: LinkInfo | null): AppError | null {
   return null;
 }
 
-export async function openLink(db: EntityManager, token: string): Promise<LinkInfo> {
+export async function openLink(db: EntityManager, token: string): Promise<RespondentLinkWithStudy> {
   const link = await loadLink(db, token);
   const refusal = linkRefusal(link);
   if (refusal) throw refusal;

@@ -13,11 +13,14 @@ import type { StartInput, StartReply } from '@/respondent/shared/start.schema';
 import { respondentUrls } from '@/respondent/shared/urls';
 import { em } from '@/lib/server/db/orm';
 import { AppError } from '@/lib/server/http/errors';
-import { openLink, type LinkInfo } from './link';
-import { lockWorkspace, quotaAvailable, seatAvailableForStart } from '@/lib/server/billing/seat-holds';
+import { openLink, type RespondentLinkWithStudy } from './link';
+import { lockWorkspaceSeats } from '@/lib/server/billing/seat-ledger';
+import { sql } from '@/lib/server/db/sql';
+import { quotaAvailable, seatAvailableForStart } from './admission';
 import { answeredHistory, newResumeToken, newSeed, planFor } from './trials';
 
-export interface RespondentRow {
+/** A respondent's stored progress through the flow. */
+export interface RespondentProgress {
   id: string;
   pid: string | null;
   seed: number;
@@ -33,7 +36,7 @@ const DONE = () => new AppError(409, 'already_taken_part', 'You have already tak
 // respondent's resume token, plan or answers. The device that started keeps its resume token.
 const PID_IN_USE = () => new AppError(409, 'already_taken_part', 'This panel id has already started this study on another device or browser. Continue there to finish.');
 
-function toRow(r: Record<string, unknown>): RespondentRow {
+function toRow(r: Record<string, unknown>): RespondentProgress {
   return {
     id: String(r.id), pid: (r.pid as string | null) ?? null, seed: Number(r.seed), state: String(r.state),
     plan: r.plan as TrialPlan, answeredCount: Number(r.answered_count), segmentAnswers: (r.segment_answers as Record<string, string>) ?? {},
@@ -42,7 +45,7 @@ function toRow(r: Record<string, unknown>): RespondentRow {
 
 const SELECT = 'select id, pid, seed, state, plan, answered_count, segment_answers from respondent';
 
-export async function findByResume(db: EntityManager, studyId: string, resumeToken: string | null): Promise<(RespondentRow & { resumeToken: string }) | null> {
+export async function findByResume(db: EntityManager, studyId: string, resumeToken: string | null): Promise<(RespondentProgress & { resumeToken: string }) | null> {
   if (!resumeToken || resumeToken.length > 64) return null;
   const rows = await db.getConnection().execute<Record<string, unknown>[]>(`${SELECT} where study_id = ? and resume_token = ?`, [studyId, resumeToken]);
   return rows[0] ? { ...toRow(rows[0]), resumeToken } : null;
@@ -65,10 +68,10 @@ export function validSegmentAnswers(design: StudyDesign, answers: Record<string,
   return answers;
 }
 
-const needsQuestions = (design: StudyDesign, r: RespondentRow) => design.segmentQuestions.some((q) => !(q.id in r.segmentAnswers));
+const needsQuestions = (design: StudyDesign, r: RespondentProgress) => design.segmentQuestions.some((q) => !(q.id in r.segmentAnswers));
 
 /** The respondent's next screens. */
-export async function stateOf(db: EntityManager, link: LinkInfo, r: RespondentRow): Promise<FlowState> {
+export async function stateOf(db: EntityManager, link: RespondentLinkWithStudy, r: RespondentProgress): Promise<FlowState> {
   const answered = r.plan.mode === 'adaptive' && r.state !== 'completed' ? await answeredHistory(db, r.id) : [];
   return flowState({
     design: link.design, seed: r.seed, plan: r.plan, answered, answeredCount: r.answeredCount,
@@ -99,13 +102,13 @@ export async function startRespondent(token: string, input: StartInput, resumeTo
   const fresh = newResumeToken();
   try {
     await db.transactional(async (tx) => {
-      await lockWorkspace(tx, link.workspaceId);
+      await lockWorkspaceSeats(tx, link.workspaceId);
       if (!(await seatAvailableForStart(tx, link.workspaceId)) || !(await quotaAvailable(tx, link.linkId, link.quota))) throw FULL();
-      await tx.getConnection().execute(
+      await sql(
+        tx,
         `insert into respondent (id, workspace_id, study_id, link_id, pid, resume_token, seed, state, segment_answers, plan, answered_count, started_at, last_seen_at)
          values (?, ?, ?, ?, ?, ?, ?, 'started', ?::jsonb, ?::jsonb, 0, now(), now())`,
         [randomUUID(), link.workspaceId, link.studyId, link.linkId, pid, fresh, seed, JSON.stringify(answers), JSON.stringify(plan)],
-        'all', tx.getTransactionContext(),
       );
     });
   } catch (err) {
@@ -123,7 +126,7 @@ async function refuseKnownPid(db: EntityManager, studyId: string, pid: string) {
   if (known) throw known.state === 'completed' ? DONE() : PID_IN_USE();
 }
 
-async function resume(db: EntityManager, link: LinkInfo, r: RespondentRow & { resumeToken: string }, answers: Record<string, string>) {
+async function resume(db: EntityManager, link: RespondentLinkWithStudy, r: RespondentProgress & { resumeToken: string }, answers: Record<string, string>) {
   if (r.state === 'completed' && r.pid) throw DONE();
   if (Object.keys(answers).length && needsQuestions(link.design, r) && r.answeredCount === 0) {
     await db.getConnection().execute('update respondent set segment_answers = ?::jsonb, last_seen_at = now() where id = ?', [JSON.stringify(answers), r.id]);

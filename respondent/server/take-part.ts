@@ -3,7 +3,7 @@ import 'server-only';
 // form for a new respondent, or the flow resumed from the cookie or ?resume=) and the boot data the
 // bundle starts from. app/r/[token]/take-part/route.ts only hands the request over.
 import { em } from '@/lib/server/db/orm';
-import { openForNewRespondents } from '@/lib/server/billing/seat-holds';
+import { openForNewRespondents } from './admission';
 import { consentDocument, resumeDocument, stoppedDocument } from './document';
 import { linkRefusal, loadLink, resumeCookieName } from './link';
 import { findByResume, stateOf } from './respondents';

@@ -16,7 +16,7 @@ export async function seedAccounts(db: EntityManager) {
   if (!workspace) {
     workspace = db.create(Workspace, { slug: DEMO_WORKSPACE.slug, name: DEMO_WORKSPACE.name });
     await db.flush();
-    addWelcomeSeats(db, workspace.id);
+    await addWelcomeSeats(db, workspace.id);
   }
   const hash = await hashPassword(DEMO_PASSWORD);
   for (const a of DEMO_ACCOUNTS as { email: string; name: string; role: Role }[]) {

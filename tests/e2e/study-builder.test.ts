@@ -1,9 +1,22 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import pg from 'pg';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { baseUrl, openBrowser, screenshot, signIn } from '../support/browser';
 import { TINY_PNG } from '../support/study-fixtures';
 
 const DEMO_PASSWORD = 'harbour-demo-2026';
+/** The seat balance summed from the ledger table, independently of the app's own sum. */
+async function ledgerBalance(slug: string): Promise<number> {
+  const db = new pg.Client({ connectionString: inject('databaseUrl') });
+  await db.connect();
+  try {
+    const r = await db.query('select coalesce(sum(l.delta), 0)::int as b from seat_ledger_entry l join workspace w on w.id = l.workspace_id where w.slug = $1', [slug]);
+    return r.rows[0].b;
+  } finally {
+    await db.end();
+  }
+}
+
 /** Server round trips on 2 shared cores can take a few seconds. */
 const poll = <T>(fn: () => Promise<T> | T) => expect.poll(fn, { timeout: 15_000 });
 
@@ -70,7 +83,8 @@ describe('an analyst builds, launches and shares a study in Chromium', () => {
     await poll(() => page.locator('[data-state="live"]').count()).toBe(1);
     expect(await page.getByRole('link', { name: 'Edit' }).count()).toBe(0);
     await poll(() => page.getByTestId('completes').textContent()).toBe('0');
-    expect(Number(await page.getByTestId('seats-left').textContent())).toBeGreaterThanOrEqual(0);
+    // The monitor's seats left is the workspace's ledger balance, read here straight from the table.
+    expect((await page.getByTestId('seats-left').textContent())?.trim()).toBe(String(await ledgerBalance('harbourline')));
     await page.goto(`${studyUrl}/edit`);
     await page.waitForURL(/frozen=1/);
     expect(await page.getByText('its design is frozen').count()).toBe(1);

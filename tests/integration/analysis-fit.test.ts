@@ -2,6 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { fitCacheKey, getFitState, getStudyFit, listFittableStudies, runFitJob } from '@/lib/server/analysis/study-fit';
 import { authorise } from '@/lib/server/team/membership';
 import { em } from '@/lib/server/db/orm';
+import { chiSquareP } from '@/lib/psychometrics/chi2';
 import { findStudy } from '@/lib/server/analysis/cells';
 import { makeWorkspace, signInAs } from '../support/factories';
 import { makeSimulatedStudy } from '../support/studies';
@@ -30,7 +31,10 @@ describe('getStudyFit: queued job, cached result, workspace scope', () => {
     expect(state.fit.report.bases).toHaveLength(5);
     expect(state.fit.basePrices).toEqual([3.49, 12.99, 39, 129, 449]);
     expect(state.fit.report.bootstrapSamples).toBe(1000);
-    expect(typeof state.fit.poorFit).toBe('boolean');
+    // The poor-fit flag follows its rule: a base judged a poor fit, or the preferred joint model's deviance p < 0.05.
+    const preferred = state.fit.report.models[state.fit.report.preferredModel];
+    const jointP = chiSquareP(preferred.deviance, preferred.devianceDf);
+    expect(state.fit.poorFit).toBe(state.fit.report.bases.some((b) => b.verdict === 'poor fit') || (jointP !== null && jointP < 0.05));
     expect(state.counts!.respondents.before).toBe(40);
     expect(state.counts!.respondents.after).toBeLessThan(40);
   });

@@ -1,6 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { GET as segmentsGet } from '@/app/api/w/[workspace]/studies/[study]/results/segments/route';
 import { GET as plannerGet } from '@/app/api/w/[workspace]/studies/[study]/planner/route';
+import { chiSquareP } from '@/lib/psychometrics/chi2';
 import { em } from '@/lib/server/db/orm';
 import { handleJob } from '@/lib/server/platform/job-handlers';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
@@ -33,8 +34,10 @@ describe('segment comparison and sample-size planner jobs', () => {
     expect(done.status).toBe('ready');
     expect(done.result.groups.map((g: { label: string }) => g.label)).toEqual(['Every month', 'A few times a year', 'Rarely']);
     expect(done.result.groups[0].thresholds).toHaveLength(5);
+    // The route returns the engine's likelihood-ratio test: p is the χ² tail of its statistic.
     expect(done.result.test.df).toBeGreaterThan(0);
-    expect(done.result.test.p).toBeGreaterThanOrEqual(0);
+    expect(done.result.test.p).toBeCloseTo(chiSquareP(done.result.test.chi2, done.result.test.df)!, 12);
+    expect(done.result.test.p).toBeLessThanOrEqual(1);
     const bad = await callRoute(segmentsGet, { params, url: 'http://127.0.0.1/x?question=nope' });
     expect(bad.status).toBe(422);
   });

@@ -7,7 +7,7 @@ import { em } from '@/lib/server/db/orm';
 import { Respondent } from '@/entities/respondent';
 import { Trial } from '@/entities/trial';
 import { Workspace } from '@/entities/workspace';
-import { SeatLedgerEntry } from '@/entities/seat-ledger-entry';
+import { useSeat } from '@/lib/server/billing/seat-ledger';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { validDesign } from '../support/study-fixtures';
 
@@ -46,9 +46,9 @@ describe('fieldwork numbers from respondent and trial rows', () => {
     trial(done1, 'test', 9.99, 0.137); // off the ladder, as adaptive placement would give
     trial(active, 'test', 9.99, 0.1);
     trial(dropped, 'test', 2.49, 0.02, old);
-    // One complete used a seat.
-    db.create(SeatLedgerEntry, { workspace: w.id, delta: -1, reason: 'complete', reference: done1.id });
     await db.flush();
+    // One complete used a seat.
+    expect(await useSeat(db, w.id, done1.id)).toBe(true);
     signInAs(await makeMember(ws.slug, 'viewer'));
     const res = await callRoute(fieldworkGET, { params: { workspace: ws.slug, study } });
     expect(res.status).toBe(200);

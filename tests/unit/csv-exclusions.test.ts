@@ -1,8 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { csvCell, toCsv } from '@/lib/csv';
-import { brokenRules, median } from '@/lib/exclusions';
+import { brokenRules } from '@/lib/exclusions';
 import { DEFAULT_EXCLUSION_RULES, rulesOrDefault } from '@/lib/schemas/exclusions.schema';
-import { wilson } from '@/lib/results-text';
 
 describe('CSV writing (RFC 4180, no BOM, formula-safe)', () => {
   it('quotes only when needed and doubles quotes', () => {
@@ -44,19 +43,5 @@ describe('exclusion rules', () => {
   it('stored rules of an unknown shape fall back to the defaults', () => {
     expect(rulesOrDefault(null)).toEqual(DEFAULT_EXCLUSION_RULES);
     expect(rulesOrDefault({ attention: true })).toEqual(DEFAULT_EXCLUSION_RULES);
-  });
-  it('median of even and odd lists', () => {
-    expect(median([3, 1, 2])).toBe(2);
-    expect(median([4, 1, 2, 3])).toBe(2.5);
-    expect(median([])).toBeNull();
-  });
-});
-
-describe('Wilson interval for observed notice rates', () => {
-  // Newcombe (1998), Statistics in Medicine 17:857–872, Table I: 81/263 → 0.2553 to 0.3662.
-  it('matches the published worked example', () => {
-    const [lo, hi] = wilson(81, 263);
-    expect(lo).toBeCloseTo(0.2553, 4);
-    expect(hi).toBeCloseTo(0.3662, 4);
   });
 });

@@ -1,5 +1,5 @@
 import 'server-only';
-import { respondentsForWidth } from '@/lib/psychometrics/planner';
+import { assumedObserver, respondentsForWidth } from '@/lib/psychometrics/planner';
 import { hashKey, requestComputation, runCached, type JobData } from './cache';
 import { fitCacheKey, getFitState, FIT_SEED } from './study-fit';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
@@ -29,12 +29,7 @@ export async function getPlan(ctx: WorkspaceContext, studyId: string, widthPoint
   if (fit.fit.status !== 'ready') return fit.fit.status === 'pending' ? { status: 'pending', message: 'Waiting for the fit first…' } : fit.fit;
   const s = fit.study;
   const report = fit.fit.report;
-  const slopes = report.bases.map((b) => b.slope).sort((a, b) => a - b);
-  const assumed = {
-    beta: slopes[slopes.length >> 1],
-    lapse: report.bases.reduce((a, b) => a + b.lapse, 0) / report.bases.length,
-    guess: report.bases.reduce((a, b) => a + b.guess, 0) / report.bases.length,
-  };
+  const assumed = assumedObserver(report.bases);
   const payload = {
     widthPoints, assumed, task: s.task, rungs: s.ladder, repetitions: s.repetitions,
     currentCompletes: fit.counts?.respondents.after ?? 0,

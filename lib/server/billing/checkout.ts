@@ -1,13 +1,12 @@
 import 'server-only';
 import { randomUUID } from 'node:crypto';
 import { Purchase } from '@/entities/purchase';
-import { SeatLedgerEntry } from '@/entities/seat-ledger-entry';
 import { BUNDLE_CURRENCY, findBundle, type BundleId } from '@/lib/billing-bundles';
 import { em } from '@/lib/server/db/orm';
 import { env } from '@/lib/server/platform/env';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
-import { seatBalance } from './seat-ledger';
+import { seatBalance, seatHistory } from './seat-ledger';
 import { stripe } from './stripe';
 
 const HISTORY_LIMIT = 200;
@@ -15,15 +14,8 @@ const HISTORY_LIMIT = 200;
 /** Balance and ledger history for the billing page (every member may read it). */
 export async function billingOverview(ctx: WorkspaceContext) {
   const db = await em();
-  const [balance, entries] = await Promise.all([
-    seatBalance(db, ctx.workspace.id),
-    db.find(SeatLedgerEntry, { workspace: ctx.workspace.id }, { orderBy: { createdAt: 'desc', id: 'desc' }, limit: HISTORY_LIMIT }),
-  ]);
-  return {
-    balance,
-    canBuy: ctx.role === 'owner',
-    entries: entries.map((e) => ({ id: e.id, createdAt: e.createdAt.toISOString(), delta: e.delta, reason: e.reason, reference: e.reference, note: e.note ?? null })),
-  };
+  const [balance, entries] = await Promise.all([seatBalance(db, ctx.workspace.id), seatHistory(db, ctx.workspace.id, HISTORY_LIMIT)]);
+  return { balance, canBuy: ctx.role === 'owner', entries };
 }
 export type BillingOverview = Awaited<ReturnType<typeof billingOverview>>;
 

@@ -1,19 +1,73 @@
 import 'server-only';
+// The seat ledger: the only module that reads or writes seat_ledger_entry. A workspace's seat
+// balance is never stored; it is the sum of its entries, summed here in one function. Every
+// entry is keyed by (reason, reference) — the workspace for welcome seats, the checkout
+// session for a purchase, the respondent for a used seat — so a retried sign-up, a replayed
+// webhook or a complete sent twice adds nothing: one insert below, `on conflict do nothing`.
+// Seat decisions of one workspace (starts and completes) are serialised by lockWorkspaceSeats.
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { SeatLedgerEntry } from '@/entities/seat-ledger-entry';
+import type { LEDGER_REASONS } from '@/entities/seat-ledger-entry';
+import { sql, sqlOne } from '@/lib/server/db/sql';
 
 export const WELCOME_SEATS = 25;
 
-/** The seat balance: always the sum of the workspace's ledger. */
-export async function seatBalance(db: EntityManager, workspaceId: string): Promise<number> {
-  const rows = await db.getConnection().execute<{ balance: string | null }[]>(
-    'select coalesce(sum(delta), 0) as balance from seat_ledger_entry where workspace_id = ?',
-    [workspaceId],
+type Reason = (typeof LEDGER_REASONS)[number];
+interface Entry { workspaceId: string; delta: number; reason: Reason; reference: string; note: string | null }
+
+/** The one write: true when this call added the entry, false when (reason, reference) was there. */
+async function addEntry(em: EntityManager, e: Entry): Promise<boolean> {
+  const added = await sql(
+    em,
+    `insert into seat_ledger_entry (id, workspace_id, delta, reason, reference, note, created_at)
+     values (gen_random_uuid(), ?, ?, ?, ?, ?, now()) on conflict (reason, reference) do nothing returning id`,
+    [e.workspaceId, e.delta, e.reason, e.reference, e.note],
   );
-  return Number(rows[0]?.balance ?? 0);
+  return added.length > 0;
 }
 
-/** Grants the welcome seats once per workspace (the reference makes it idempotent). */
-export function addWelcomeSeats(db: EntityManager, workspaceId: string) {
-  db.create(SeatLedgerEntry, { workspace: workspaceId, delta: WELCOME_SEATS, reason: 'welcome', reference: workspaceId, note: 'Free seats for a new workspace' });
+/** The seat balance: the sum of the workspace's ledger (inside the caller's transaction, if any). */
+export async function seatBalance(em: EntityManager, workspaceId: string): Promise<number> {
+  const row = await sqlOne<{ balance: string }>(em, 'select coalesce(sum(delta), 0) as balance from seat_ledger_entry where workspace_id = ?', [workspaceId]);
+  return Number(row?.balance ?? 0);
+}
+
+/** The newest entries first, for the billing page. */
+export async function seatHistory(em: EntityManager, workspaceId: string, limit: number) {
+  const rows = await sql<{ id: string; created_at: Date; delta: number; reason: Reason; reference: string; note: string | null }>(
+    em,
+    'select id, created_at, delta, reason, reference, note from seat_ledger_entry where workspace_id = ? order by created_at desc, id desc limit ?',
+    [workspaceId, limit],
+  );
+  return rows.map((e) => ({ id: e.id, createdAt: new Date(e.created_at).toISOString(), delta: Number(e.delta), reason: e.reason, reference: e.reference, note: e.note ?? null }));
+}
+
+/** Free seats for a new workspace, once (the workspace must be flushed already). */
+export function addWelcomeSeats(em: EntityManager, workspaceId: string): Promise<boolean> {
+  return addEntry(em, { workspaceId, delta: WELCOME_SEATS, reason: 'welcome', reference: workspaceId, note: 'Free seats for a new workspace' });
+}
+
+/** A confirmed payment's seats, once per checkout session; false when already credited. */
+export function creditPurchase(em: EntityManager, p: { workspaceId: string; seats: number; checkoutSessionId: string; note: string }): Promise<boolean> {
+  return addEntry(em, { workspaceId: p.workspaceId, delta: p.seats, reason: 'purchase', reference: p.checkoutSessionId, note: p.note });
+}
+
+/** A manual correction (support, load checks), once per reference. */
+export function adjustSeats(em: EntityManager, workspaceId: string, delta: number, reference: string, note: string | null = null): Promise<boolean> {
+  return addEntry(em, { workspaceId, delta, reason: 'adjustment', reference, note });
+}
+
+/** Serialises every seat decision of one workspace; holds until the transaction ends. */
+export async function lockWorkspaceSeats(tx: EntityManager, workspaceId: string): Promise<void> {
+  await sql(tx, 'select id from workspace where id = ? for update', [workspaceId]);
+}
+
+/**
+ * Uses one seat for a completing respondent, exactly once (a retried or concurrent complete
+ * adds nothing). Returns false when no seat is left (only possible for a respondent who went
+ * quiet past the answering window). Call inside a transaction holding lockWorkspaceSeats.
+ */
+export async function useSeat(tx: EntityManager, workspaceId: string, respondentId: string): Promise<boolean> {
+  if ((await seatBalance(tx, workspaceId)) <= 0) return false;
+  await addEntry(tx, { workspaceId, delta: -1, reason: 'complete', reference: respondentId, note: 'Respondent completed' });
+  return true;
 }

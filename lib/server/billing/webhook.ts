@@ -1,15 +1,16 @@
 import 'server-only';
-import { randomUUID } from 'node:crypto';
 import { LockMode } from '@mikro-orm/postgresql';
 import type Stripe from 'stripe';
 import { Purchase } from '@/entities/purchase';
-import { findBundle, formatMoney } from '@/lib/billing-bundles';
+import { findBundle } from '@/lib/billing-bundles';
+import { formatCents } from '@/lib/money';
 import { recordAudit } from '@/lib/server/team/audit';
 import { em } from '@/lib/server/db/orm';
+import { sql } from '@/lib/server/db/sql';
 import { env } from '@/lib/server/platform/env';
 import { AppError } from '@/lib/server/http/errors';
 import { composeMail, sendMail } from '@/lib/server/platform/mail';
-import { seatBalance } from './seat-ledger';
+import { creditPurchase, seatBalance } from './seat-ledger';
 import { stripe } from './stripe';
 
 /** The event, if Stripe's signature over the raw body checks out; else a 400. */
@@ -47,16 +48,12 @@ export async function applyStripeEvent(event: Stripe.Event): Promise<WebhookOutc
   const db = await em();
   let credited = null as Credited | null;
   const outcome = await db.transactional(async (tx): Promise<WebhookOutcome> => {
-    const fresh = await tx.execute('insert into webhook_event (id, type, received_at) values (?, ?, now()) on conflict (id) do nothing returning id', [event.id, event.type]);
+    const fresh = await sql(tx, 'insert into webhook_event (id, type, received_at) values (?, ?, now()) on conflict (id) do nothing returning id', [event.id, event.type]);
     if (fresh.length === 0) return 'duplicate_event';
     const p = await tx.findOne(Purchase, { checkoutSessionId: session.id }, { populate: ['buyer'], lockMode: LockMode.PESSIMISTIC_WRITE });
     if (!p || p.workspace.id !== session.metadata?.workspaceId) return 'unknown_purchase';
-    const entry = await tx.execute(
-      `insert into seat_ledger_entry (id, workspace_id, delta, reason, reference, note, created_at)
-       values (?, ?, ?, 'purchase', ?, ?, now()) on conflict (reason, reference) do nothing returning id`,
-      [randomUUID(), p.workspace.id, p.seats, session.id, `${findBundle(p.bundle)?.name ?? p.bundle} bundle`],
-    );
-    if (entry.length === 0) return 'already_credited';
+    const note = `${findBundle(p.bundle)?.name ?? p.bundle} bundle`;
+    if (!(await creditPurchase(tx, { workspaceId: p.workspace.id, seats: p.seats, checkoutSessionId: session.id, note }))) return 'already_credited';
     p.status = 'paid';
     p.paidAt = new Date();
     await tx.flush();
@@ -81,7 +78,7 @@ async function sendReceipt(c: Credited, stripeEmail: string | null) {
   const name = findBundle(c.bundle)?.name ?? c.bundle;
   const { text, html } = composeMail([
     `Hello ${c.buyer?.name ?? ''},`.replace(' ,', ','),
-    `Thank you: your payment of ${formatMoney(c.amountCents, c.currency)} for the ${name} bundle is confirmed.`,
+    `Thank you: your payment of ${formatCents(c.amountCents, c.currency)} for the ${name} bundle is confirmed.`,
     `${c.seats} respondent seats were added to your workspace; the balance is now ${balance} seats.`,
     `Reference: ${c.sessionId}`,
   ]);

@@ -1,7 +1,7 @@
 import 'server-only';
 import { RespondentLink } from '@/entities/respondent-link';
 import type { z } from 'zod';
-import type { studyLinkSchema } from '@/lib/schemas/study-link.schema';
+import type { respondentLinkSchema } from '@/lib/schemas/respondent-link.schema';
 import { em } from '@/lib/server/db/orm';
 import { env } from '@/lib/server/platform/env';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
@@ -11,7 +11,7 @@ import { loadStudy } from './studies';
 import { randomToken } from '@/lib/server/platform/tokens';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
-export interface StudyLinkDto {
+export interface RespondentLinkDto {
   id: string;
   source: string;
   url: string;
@@ -27,7 +27,7 @@ export interface StudyLinkDto {
 export const newLinkToken = randomToken;
 export const linkUrl = (token: string) => `${env().APP_URL.replace(/\/$/, '')}/r/${token}`;
 
-function toDto(l: { id: string; source: string; token: string; quota?: number | null; acceptsPid: boolean; closedAt?: Date | null; createdAt: Date }, counts?: { completes: number; started: number }): StudyLinkDto {
+function toDto(l: { id: string; source: string; token: string; quota?: number | null; acceptsPid: boolean; closedAt?: Date | null; createdAt: Date }, counts?: { completes: number; started: number }): RespondentLinkDto {
   return {
     id: l.id,
     source: l.source,
@@ -41,7 +41,7 @@ function toDto(l: { id: string; source: string; token: string; quota?: number | 
   };
 }
 
-export async function listLinks(ctx: WorkspaceContext, studyId: string): Promise<StudyLinkDto[]> {
+export async function listLinks(ctx: WorkspaceContext, studyId: string): Promise<RespondentLinkDto[]> {
   const db = await em();
   const study = await loadStudy(db, ctx, studyId);
   const links = await db.find(RespondentLink, { study: study.id, workspace: ctx.workspace.id }, { orderBy: { createdAt: 'asc' } });
@@ -54,7 +54,7 @@ export async function listLinks(ctx: WorkspaceContext, studyId: string): Promise
   return links.map((l) => toDto(l, counts.get(l.id)));
 }
 
-export async function createLink(ctx: WorkspaceContext, studyId: string, input: z.output<typeof studyLinkSchema>): Promise<StudyLinkDto> {
+export async function createLink(ctx: WorkspaceContext, studyId: string, input: z.output<typeof respondentLinkSchema>): Promise<RespondentLinkDto> {
   const db = await em();
   const study = await loadStudy(db, ctx, studyId);
   if (study.state === 'closed' || study.state === 'imported') throw new AppError(409, 'conflict', 'This study is closed; it takes no new links.');
@@ -73,7 +73,7 @@ async function loadLink(ctx: WorkspaceContext, studyId: string, linkId: string) 
 }
 
 /** Closing is one-way and idempotent: closing a closed link keeps its first closing time. */
-export async function closeLink(ctx: WorkspaceContext, studyId: string, linkId: string): Promise<StudyLinkDto> {
+export async function closeLink(ctx: WorkspaceContext, studyId: string, linkId: string): Promise<RespondentLinkDto> {
   const { db, study, link } = await loadLink(ctx, studyId, linkId);
   if (!link.closedAt) {
     link.closedAt = new Date();

@@ -33,7 +33,7 @@ export async function signUp(input: SignUpInput): Promise<{ userId: string; work
       const workspace = tx.create(Workspace, { slug: await freeSlug(tx, input.workspaceName), name: input.workspaceName });
       await tx.flush();
       tx.create(Membership, { workspace, user, role: 'owner' });
-      addWelcomeSeats(tx, workspace.id);
+      await addWelcomeSeats(tx, workspace.id);
       tx.create(AuditEvent, { workspace, actor: user, action: 'workspace.created', target: workspace.name });
       await tx.flush();
       return { userId: user.id, workspaceSlug: workspace.slug };

@@ -39,8 +39,10 @@ describe('createRng', () => {
     const xs = Array.from({ length: 5 }, () => a.next());
     expect(Array.from({ length: 5 }, () => b.next())).toEqual(xs);
     expect(Array.from({ length: 5 }, () => c.next())).not.toEqual(xs);
-    // pinned stream: a change in the generator would silently change every stored trial order
-    expect(createRng('notchwise').int(1_000_000)).toBe(createRng('notchwise').int(1_000_000));
+    // Pinned stream (literal values, not the generator against itself): a change in the
+    // generator would silently change every stored trial order.
+    expect(createRng('notchwise').int(1_000_000)).toBe(611281);
+    expect(createRng('notchwise').shuffle([1, 2, 3, 4, 5, 6, 7, 8])).toEqual([1, 8, 4, 3, 7, 2, 6, 5]);
   });
 
   it('next is uniform on [0,1), normal has mean 0 and sd 1', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { planDesign, respondentsForWidth } from '@/lib/psychometrics/planner';
+import { assumedObserver, planDesign, respondentsForWidth } from '@/lib/psychometrics/planner';
 
 const design = {
   basePrices: [9.99, 99], rungs: [0.01, 0.02, 0.04, 0.08, 0.16, 0.32], repetitions: 2, task: 'pick' as const,
@@ -31,5 +31,16 @@ describe('planner', () => {
 
   it('rejects a design without an assumed threshold', () => {
     expect(() => planDesign({ ...design, weberFraction: undefined, respondents: 10 })).toThrow(/alpha or a weberFraction/);
+  });
+});
+
+describe('the observer a plan assumes from a fit', () => {
+  it('takes the middle slope (not pulled by one runaway base) and the mean lapse and guess', () => {
+    const bases = [{ slope: 2, lapse: 0, guess: 0.5 }, { slope: 90, lapse: 0.04, guess: 0.5 }, { slope: 3, lapse: 0.02, guess: 0.2 }];
+    const o = assumedObserver(bases);
+    expect(o.beta).toBe(3);
+    expect(o.lapse).toBeCloseTo(0.02, 12);
+    expect(o.guess).toBeCloseTo(0.4, 12);
+    expect(assumedObserver(bases.slice(0, 2)).beta).toBe(90);
   });
 });

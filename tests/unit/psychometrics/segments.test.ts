@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { chiSquareP } from '@/lib/psychometrics/chi2';
 import { createRng } from '@/lib/psychometrics/random';
 import { compareGroups } from '@/lib/psychometrics/segments';
 import { geometricLadder, type Observer, simulateCells } from '@/lib/psychometrics/simulate';
@@ -29,8 +30,11 @@ describe('compareGroups', () => {
       { label: 'b', ...simulateCells(weberish, bases, ladder, 150, rng) },
     ], { task: 'pick', bootstrap: 0 });
     expect(r.test.p!).toBeGreaterThan(0.01);
-    expect(r.test.chi2).toBeGreaterThanOrEqual(0);
+    // The LR statistic is twice the log-likelihood the separate curves gain over the shared one
+    // (a clamped or mis-summed statistic fails here), and its p-value is that statistic's χ² tail.
     expect(r.shared.logLik).toBeLessThanOrEqual(r.groups[0].logLik + r.groups[1].logLik + 1e-6);
+    expect(r.test.chi2).toBeCloseTo(2 * (r.groups[0].logLik + r.groups[1].logLik - r.shared.logLik), 8);
+    expect(r.test.p).toBeCloseTo(chiSquareP(r.test.chi2, r.test.df)!, 12);
   });
 
   it('names the group whose data is bad', () => {

@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { connection } from 'next/server';
 import { requireRole } from '@/lib/server/http/page-guard';
-import { listAuditEvents } from '@/lib/server/team/audit-list';
+import { listAuditEvents } from '@/lib/server/team/audit';
 import { PageTitle } from '@/components/ui/page-title';
 import { EmptyState } from '@/components/ui/empty-state';
 import { describeAction } from './describe-action';

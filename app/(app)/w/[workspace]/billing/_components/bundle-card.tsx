@@ -1,7 +1,8 @@
 'use client';
 import { useState } from 'react';
 import { fetchJson } from '@/lib/fetch-json';
-import { formatMoney, type Bundle } from '@/lib/billing-bundles';
+import { BUNDLE_CURRENCY, type Bundle } from '@/lib/billing-bundles';
+import { formatCents } from '@/lib/money';
 
 /** One bundle; the owner's "Buy" opens a Checkout Session and goes to its page. */
 export function BundleCard({ slug, bundle, canBuy }: { slug: string; bundle: Bundle; canBuy: boolean }) {
@@ -22,7 +23,7 @@ export function BundleCard({ slug, bundle, canBuy }: { slug: string; bundle: Bun
     <div className="card flex flex-col p-5" data-testid={`bundle-${bundle.id}`}>
       <h3 className="text-lg">{bundle.name}</h3>
       <p className="num mt-1 text-2xl">{bundle.seats.toLocaleString('en')} <span className="font-sans text-sm text-muted">seats</span></p>
-      <p className="num text-muted">{formatMoney(bundle.amountCents)} · {formatMoney(Math.round(bundle.amountCents / bundle.seats))} a seat</p>
+      <p className="num text-muted">{formatCents(bundle.amountCents, BUNDLE_CURRENCY)} · {formatCents(Math.round(bundle.amountCents / bundle.seats), BUNDLE_CURRENCY)} a seat</p>
       <p className="mt-2 flex-1 text-sm text-muted">{bundle.blurb}</p>
       {canBuy ? (
         <button type="button" className="btn btn-primary mt-4" onClick={buy} disabled={busy} aria-label={`Buy ${bundle.name} bundle`}>

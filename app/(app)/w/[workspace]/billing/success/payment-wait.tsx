@@ -2,7 +2,8 @@
 import Link from 'next/link';
 import { useQuery } from '@tanstack/react-query';
 import { checkoutStatusQuery } from '@/lib/queries/billing';
-import { findBundle, formatMoney } from '@/lib/billing-bundles';
+import { findBundle } from '@/lib/billing-bundles';
+import { formatCents } from '@/lib/money';
 
 /** Polls the purchase until the verified webhook has credited the seats. */
 export function PaymentWait({ slug, sessionId }: { slug: string; sessionId: string }) {
@@ -15,7 +16,7 @@ export function PaymentWait({ slug, sessionId }: { slug: string; sessionId: stri
       {data.status === 'paid' ? (
         <>
           <h2 className="text-xl"><span aria-hidden="true" className="text-moss">✓ </span>Payment confirmed</h2>
-          <p className="mt-2">{data.seats} seats from the {name} bundle ({formatMoney(data.amountCents, data.currency)}) were added. A receipt is on its way by e-mail.</p>
+          <p className="mt-2">{data.seats} seats from the {name} bundle ({formatCents(data.amountCents, data.currency)}) were added. A receipt is on its way by e-mail.</p>
           <p className="mt-4 text-sm text-muted">Seat balance</p>
           <p className="num text-3xl" data-testid="seat-balance">{data.balance?.toLocaleString('en')}</p>
         </>

@@ -1,10 +1,11 @@
 'use client';
 import { useWatch } from 'react-hook-form';
-import { TASKS, TASK_LABELS, type TaskId } from '@/lib/schemas/study.schema';
+import type { Task } from '@/lib/psychometrics/types';
+import { TASKS, TASK_LABELS } from '@/lib/schemas/study.schema';
 import { errorAt, Field, fieldId, Section, type BuilderForm } from './form-bits';
 
 // One plain sentence per task, in the product's words (DESIGN.md → Tasks).
-export const TASK_EXPLAINED: Record<TaskId, string> = {
+export const TASK_EXPLAINED: Record<Task, string> = {
   spot: 'Respondents first remember a short shelf of items at their regular prices; later each item returns at a test price and they say whether it is lower than usual or the same.',
   pick: 'Two price tags for the same item show for a moment, one at the base price and one discounted, then hide; the respondent picks the lower one.',
   trip: 'The item at its base price here, or discounted somewhere that takes extra minutes to reach; the respondent decides whether the saving is worth the trip.',
@@ -12,7 +13,7 @@ export const TASK_EXPLAINED: Record<TaskId, string> = {
 
 export function BuilderTask({ form }: { form: BuilderForm }) {
   const { register, formState } = form;
-  const task = useWatch({ control: form.control, name: 'task' }) as TaskId;
+  const task = useWatch({ control: form.control, name: 'task' }) as Task;
   const e = (p: string) => errorAt(formState.errors, p);
   return (
     <Section title="Task" intro="What each trial asks. Each keeps the comparison perceptual, as a shopper meets prices in a store.">

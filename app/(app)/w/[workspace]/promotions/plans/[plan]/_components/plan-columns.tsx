@@ -1,7 +1,8 @@
 import { createColumnHelper } from '@tanstack/react-table';
 import type { FloorRow } from '@/lib/promo/floor-table';
 import { FLAGS, rowFlags } from '@/lib/promo/flags';
-import { formatMoney, formatPct } from '@/lib/promo/format';
+import { formatMoney } from '@/lib/money';
+import { formatPct } from '@/lib/promo/format';
 
 const col = createColumnHelper<FloorRow>();
 const numeric = { numeric: true };

@@ -2,16 +2,16 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { linksQuery, studyApi } from '@/lib/queries/studies';
 import { fetchJson } from '@/lib/fetch-json';
-import type { StudyLinkDto } from '@/lib/server/studies/respondent-links';
+import type { RespondentLinkDto } from '@/lib/server/studies/respondent-links';
 import { CopyButton } from './copy-button';
 import { NewLinkForm } from './new-link-form';
 
-export function LinksManager({ slug, studyId, initial, canManage }: { slug: string; studyId: string; initial: StudyLinkDto[]; canManage: boolean }) {
+export function LinksManager({ slug, studyId, initial, canManage }: { slug: string; studyId: string; initial: RespondentLinkDto[]; canManage: boolean }) {
   const qc = useQueryClient();
   const q = linksQuery(slug, studyId);
   const { data: links = initial } = useQuery({ ...q, initialData: initial });
   const refresh = () => qc.invalidateQueries({ queryKey: q.queryKey });
-  const close = async (l: StudyLinkDto) => {
+  const close = async (l: RespondentLinkDto) => {
     if (!window.confirm(`Close the link for “${l.source}”? New respondents will be told it is closed; this cannot be undone.`)) return;
     await fetchJson(`${studyApi(slug, studyId)}/links/${l.id}`, { method: 'PATCH', body: JSON.stringify({ closed: true }) });
     await refresh();

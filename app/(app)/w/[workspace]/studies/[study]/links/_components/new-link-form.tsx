@@ -3,14 +3,14 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { studyLinkSchema, type StudyLinkInput } from '@/lib/schemas/study-link.schema';
+import { respondentLinkSchema, type RespondentLinkInput } from '@/lib/schemas/respondent-link.schema';
 import { ApiRequestError, fetchJson } from '@/lib/fetch-json';
 import { studyApi } from '@/lib/queries/studies';
 
 export function NewLinkForm({ slug, studyId, onCreated }: { slug: string; studyId: string; onCreated: () => Promise<unknown> }) {
   const [status, setStatus] = useState<string | null>(null);
-  const { register, handleSubmit, setError, reset, formState } = useForm<StudyLinkInput, unknown, z.output<typeof studyLinkSchema>>({
-    resolver: zodResolver(studyLinkSchema),
+  const { register, handleSubmit, setError, reset, formState } = useForm<RespondentLinkInput, unknown, z.output<typeof respondentLinkSchema>>({
+    resolver: zodResolver(respondentLinkSchema),
     defaultValues: { source: '', quota: '', acceptsPid: false },
   });
   const onSubmit = handleSubmit(async (values) => {
@@ -21,7 +21,7 @@ export function NewLinkForm({ slug, studyId, onCreated }: { slug: string; studyI
       await onCreated();
       setStatus('Link added.');
     } catch (err) {
-      if (err instanceof ApiRequestError && err.issues) for (const i of err.issues) setError(i.path as keyof StudyLinkInput, { message: i.message });
+      if (err instanceof ApiRequestError && err.issues) for (const i of err.issues) setError(i.path as keyof RespondentLinkInput, { message: i.message });
       setStatus(err instanceof Error ? err.message : 'Could not add the link.');
     }
   });

@@ -1,7 +1,8 @@
 import { z } from 'zod';
-import { STUDY_ACTIONS } from '@/lib/study-states';
 
-export const studyLinkSchema = z.object({
+// A respondent link as the analyst creates and closes it (form, route handler, data layer).
+
+export const respondentLinkSchema = z.object({
   source: z.string().trim().min(1, 'Name the source, e.g. “newsletter” or “store QR”.').max(80, 'At most 80 characters.'),
   /** Completes this link accepts; empty for no quota. */
   quota: z
@@ -10,8 +11,6 @@ export const studyLinkSchema = z.object({
     .transform((v) => v ?? null),
   acceptsPid: z.boolean().default(false),
 });
-export type StudyLinkInput = z.input<typeof studyLinkSchema>;
+export type RespondentLinkInput = z.input<typeof respondentLinkSchema>;
 
-export const studyLinkPatchSchema = z.object({ closed: z.literal(true, { error: 'Only closing a link is supported: send {"closed": true}.' }) });
-
-export const studyStateChangeSchema = z.object({ action: z.enum(STUDY_ACTIONS, { error: 'Use one of: launch, pause, resume, close.' }) });
+export const respondentLinkPatchSchema = z.object({ closed: z.literal(true, { error: 'Only closing a link is supported: send {"closed": true}.' }) });
