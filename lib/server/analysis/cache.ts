@@ -3,6 +3,7 @@ import { createHash, randomUUID } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { PsychometricsInputError } from '@/lib/psychometrics/errors';
 import { em } from '@/lib/server/db/orm';
+import { sql, sqlOne } from '@/lib/server/db/sql';
 import { enqueue, type QueueName } from '@/lib/server/platform/jobs';
 
 // AnalysisResult rows as a cache with a status: one row per (study, kind, cache key), where
@@ -28,11 +29,11 @@ export function hashKey(parts: unknown): string {
 }
 
 export async function readCache<T>(db: EntityManager, studyId: string, kind: string, cacheKey: string): Promise<CacheRow<T> | null> {
-  const rows: { status: CacheStatus; result: T | null; error: string | null; updated_at: Date; created_at: Date }[] = await db.execute(
+  const r = await sqlOne<{ status: CacheStatus; result: T | null; error: string | null; updated_at: Date; created_at: Date }>(
+    db,
     'select status, result, error, updated_at, created_at from analysis_result where study_id = ? and kind = ? and cache_key = ?',
     [studyId, kind, cacheKey],
   );
-  const r = rows[0];
   return r ? { status: r.status, result: r.result, error: r.error, updatedAt: new Date(r.updated_at), createdAt: new Date(r.created_at) } : null;
 }
 
@@ -60,7 +61,8 @@ export async function requestComputation<T>(db: EntityManager, req: JobRequest):
   const existing = await readCache<T>(db, req.studyId, req.kind, req.cacheKey);
   if (existing && existing.status !== 'queued') return existing;
   if (!existing) {
-    await db.execute(
+    await sql(
+      db,
       `insert into analysis_result (id, study_id, kind, cache_key, data_version, status, created_at, updated_at)
        values (?, ?, ?, ?, ?, 'queued', now(), now()) on conflict (study_id, kind, cache_key) do nothing`,
       [randomUUID(), req.studyId, req.kind, req.cacheKey, req.dataVersion],
@@ -85,7 +87,7 @@ export async function runCached(data: JobData, lastAttempt: boolean, compute: (d
     const result = await compute(db);
     if (result === 'obsolete') {
       // The data changed after the job was queued: nobody asks for this key any more.
-      await db.execute('delete from analysis_result where study_id = ? and kind = ? and cache_key = ?', [data.studyId, data.kind, data.cacheKey]);
+      await sql(db, 'delete from analysis_result where study_id = ? and kind = ? and cache_key = ?', [data.studyId, data.kind, data.cacheKey]);
       return;
     }
     await setStatus(db, data, 'done', result, null);
@@ -100,7 +102,8 @@ export async function runCached(data: JobData, lastAttempt: boolean, compute: (d
 }
 
 async function setStatus(db: EntityManager, data: JobData, status: CacheStatus, result: Record<string, unknown> | null, error: string | null) {
-  await db.execute(
+  await sql(
+    db,
     'update analysis_result set status = ?, result = ?::jsonb, error = ?, updated_at = now() where study_id = ? and kind = ? and cache_key = ?',
     [status, result === null ? null : JSON.stringify(result), error, data.studyId, data.kind, data.cacheKey],
   );
@@ -108,11 +111,12 @@ async function setStatus(db: EntityManager, data: JobData, status: CacheStatus, 
 
 /** The newest finished result of a kind whose options match (shown while a newer one computes). */
 export async function latestDone<T>(db: EntityManager, studyId: string, kind: string, optionsKey: string): Promise<{ result: T; dataVersion: number } | null> {
-  const rows: { result: T; data_version: number }[] = await db.execute(
+  const row = await sqlOne<{ result: T; data_version: number }>(
+    db,
     `select result, data_version from analysis_result
       where study_id = ? and kind = ? and status = 'done' and result ->> 'optionsKey' = ?
       order by data_version desc, updated_at desc limit 1`,
     [studyId, kind, optionsKey],
   );
-  return rows[0] ? { result: rows[0].result, dataVersion: rows[0].data_version } : null;
+  return row ? { result: row.result, dataVersion: row.data_version } : null;
 }

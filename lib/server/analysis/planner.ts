@@ -36,7 +36,7 @@ export async function getPlan(ctx: WorkspaceContext, studyId: string, widthPoint
     guess: report.bases.reduce((a, b) => a + b.guess, 0) / report.bases.length,
   };
   const payload = {
-    widthPoints, assumed, task: s.task, rungs: s.ladder, repetitions: s.repetitions,
+    widthPoints, assumed, task: s.design.task, rungs: s.design.ladder, repetitions: s.design.repetitions,
     currentCompletes: fit.counts?.respondents.after ?? 0,
     bases: report.bases.map((b) => ({ basePrice: b.basePrice, alpha: Math.log(b.threshold.fraction), fraction: b.threshold.fraction, ci: b.threshold.fractionCi })),
   };

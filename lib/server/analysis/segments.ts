@@ -23,7 +23,7 @@ export type SegmentState =
 export async function getSegmentComparison(ctx: WorkspaceContext, studyId: string, questionId: string): Promise<SegmentState> {
   const db = await em();
   const study = await findStudy(db, ctx.workspace.id, studyId);
-  const q = study.segmentQuestions.find((x) => x.id === questionId);
+  const q = study.design.segmentQuestions.find((x) => x.id === questionId);
   if (!q) throw new AppError(422, 'validation_failed', 'This study has no such segment question.');
   if (!(await hasAnsweredTests(db, study.id))) return { status: 'empty', message: 'No finished respondent has answered a test trial yet.' };
   const cacheKey = hashKey({ v: study.dataVersion, rules: study.exclusionRules, questionId, b: SEGMENT_BOOTSTRAP, seed: FIT_SEED });
@@ -39,7 +39,7 @@ export async function runSegmentsJob(data: JobData & { questionId: string }, las
   await runCached(data, lastAttempt, async (db) => {
     const loaded = await loadFitInput(db, data.studyId, data.dataVersion, null);
     if (loaded === 'obsolete') return 'obsolete';
-    const q = loaded.study.segmentQuestions.find((x) => x.id === data.questionId);
+    const q = loaded.study.design.segmentQuestions.find((x) => x.id === data.questionId);
     if (!q) throw new PsychometricsInputError('the segment question no longer exists');
     const groups = [];
     const respondents: Record<string, number> = {};
@@ -49,10 +49,10 @@ export async function runSegmentsJob(data: JobData & { questionId: string }, las
       respondents[answer] = ids.length;
       const cells = await loadCells(db, data.studyId, ids);
       if (!cells.cells.length) { skipped.push(answer); continue; }
-      groups.push({ label: answer, cells: cells.cells, catchCells: loaded.study.task === 'spot' ? cells.catchCells : [] });
+      groups.push({ label: answer, cells: cells.cells, catchCells: loaded.study.design.task === 'spot' ? cells.catchCells : [] });
     }
     if (groups.length < 2) throw new PsychometricsInputError('fewer than two answer groups have data, so there is nothing to compare');
-    const result = compareGroups(groups, { task: loaded.study.task, bootstrap: SEGMENT_BOOTSTRAP, seed: FIT_SEED });
+    const result = compareGroups(groups, { task: loaded.study.design.task, bootstrap: SEGMENT_BOOTSTRAP, seed: FIT_SEED });
     return { ...result, respondents, skipped } as SegmentResult;
   });
 }
