@@ -30,7 +30,7 @@ export async function fitNow(studyId: string, opts: { segment?: { questionId: st
   const s = toDetail(await db.findOneOrFail(Study, { id: studyId }, { refresh: true }));
   const { cacheKey } = fitCacheKey(s, opts);
   const { requestComputation } = await import('@/lib/server/analysis/cache');
-  await requestComputation(db, { studyId, kind: 'fit', cacheKey, dataVersion: s.dataVersion, queue: 'analysis', payload: { segment: opts.segment ?? null, target: null } });
+  await requestComputation({ studyId, kind: 'fit', cacheKey, dataVersion: s.dataVersion, queue: 'analysis', payload: { segment: opts.segment ?? null, target: null } });
   await runFitJob({ studyId, kind: 'fit', cacheKey, dataVersion: s.dataVersion, segment: opts.segment ?? null, target: null });
 }
 

@@ -5,6 +5,7 @@ import { brokenRules, emptyCounts, type ExclusionCounts, type RespondentQuality 
 import type { ExclusionRuleId, ExclusionRules } from '@/lib/schemas/exclusions.schema';
 import type { StudyDesign } from '@/lib/schemas/study.schema';
 import type { Cell, CatchCell } from '@/lib/psychometrics/types';
+import { em } from '@/lib/server/db/orm';
 import { sql, sqlOne } from '@/lib/server/db/sql';
 import { loadStudy, toDetail, type StudyDetail } from '@/lib/server/studies/studies';
 
@@ -26,7 +27,7 @@ export function toStudyInfo(s: IStudy): StudyInfo {
   return { ...detail, task, currency, locale, itemName, category, basePrices, segmentQuestions };
 }
 
-/** The study if it belongs to the workspace; a foreign or missing id is a 404. */
+/** The study if it belongs to the workspace; a foreign or missing id is a 404 (pages pass em()). */
 export async function findStudy(db: EntityManager, workspaceId: string, studyId: string): Promise<StudyInfo> {
   return toStudyInfo(await loadStudy(db, workspaceId, studyId));
 }
@@ -38,9 +39,9 @@ export interface RespondentRow extends RespondentQuality {
 }
 
 /** Per finished respondent: what the exclusion rules judge. A response time of 0 means not recorded (imports). */
-export async function respondentRows(db: EntityManager, studyId: string): Promise<RespondentRow[]> {
+export async function respondentRows(studyId: string): Promise<RespondentRow[]> {
   const rows = await sql(
-    db,
+    await em(),
     `select r.id, r.segment_answers, r.attention_passed,
             count(t.id) filter (where t.kind = 'catch')::int as catch_n,
             coalesce(sum(t.answer) filter (where t.kind = 'catch'), 0)::int as catch_k,
@@ -98,13 +99,13 @@ export interface CellData { cells: Cell[]; catchCells: CatchCell[] }
  * Cells from the kept respondents, optionally only those who gave `answer` to segment
  * question `questionId`. Discount-0 trials and kind 'catch' both count as catch trials.
  */
-export async function loadCells(db: EntityManager, studyId: string, keptIds: string[], segment?: { questionId: string; answer: string } | null): Promise<CellData> {
+export async function loadCells(studyId: string, keptIds: string[], segment?: { questionId: string; answer: string } | null): Promise<CellData> {
   if (!keptIds.length) return { cells: [], catchCells: [] };
   const params: unknown[] = [studyId, JSON.stringify(keptIds)];
   let segmentSql = '';
   if (segment) { segmentSql = 'and r.segment_answers ->> ? = ?'; params.push(segment.questionId, segment.answer); }
   const rows = await sql<{ base_price: number; discount: number; catch: boolean; n: number; k: number }>(
-    db,
+    await em(),
     `select t.base_price, t.discount, (t.kind = 'catch' or t.discount = 0) as catch, count(*)::int as n, sum(t.answer)::int as k
        from trial t join respondent r on r.id = t.respondent_id
       where t.study_id = ? and t.kind in ('test', 'catch')
@@ -126,9 +127,9 @@ export async function loadCells(db: EntityManager, studyId: string, keptIds: str
 }
 
 /** Whether any finished respondent answered a test trial (cheap check before queueing a fit). */
-export async function hasAnsweredTests(db: EntityManager, studyId: string): Promise<boolean> {
+export async function hasAnsweredTests(studyId: string): Promise<boolean> {
   const row = await sqlOne<{ ok: boolean }>(
-    db,
+    await em(),
     `select exists (select 1 from trial t join respondent r on r.id = t.respondent_id
        where t.study_id = ? and t.kind = 'test' and r.state in ('completed', 'imported')) as ok`,
     [studyId],

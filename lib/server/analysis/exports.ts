@@ -117,7 +117,7 @@ export async function exportFile(ctx: WorkspaceContext, studyId: string, file: E
 export async function trialsCsv(ctx: WorkspaceContext, studyId: string): Promise<string> {
   const db = await em();
   const study = await findStudy(db, ctx.workspace.id, studyId);
-  const { excluded } = screen(await respondentRows(db, study.id), study.exclusionRules);
+  const { excluded } = screen(await respondentRows(study.id), study.exclusionRules);
   const rows = await sql<{ rid: string; source: string | null; seg: Record<string, string>; att: boolean | null; base_price: number; discount: number; kind: string; answer: number; response_ms: number }>(
     db,
     `select r.id as rid, l.source, r.segment_answers as seg, r.attention_passed as att, t.base_price, t.discount, t.kind, t.answer, t.response_ms

@@ -25,9 +25,9 @@ export async function getSegmentComparison(ctx: WorkspaceContext, studyId: strin
   const study = await findStudy(db, ctx.workspace.id, studyId);
   const q = study.design.segmentQuestions.find((x) => x.id === questionId);
   if (!q) throw new AppError(422, 'validation_failed', 'This study has no such segment question.');
-  if (!(await hasAnsweredTests(db, study.id))) return { status: 'empty', message: 'No finished respondent has answered a test trial yet.' };
+  if (!(await hasAnsweredTests(study.id))) return { status: 'empty', message: 'No finished respondent has answered a test trial yet.' };
   const cacheKey = hashKey({ v: study.dataVersion, rules: study.exclusionRules, questionId, b: SEGMENT_BOOTSTRAP, seed: FIT_SEED });
-  const row = await requestComputation<SegmentResult>(db, {
+  const row = await requestComputation<SegmentResult>({
     studyId: study.id, kind: 'segments', cacheKey, dataVersion: study.dataVersion, queue: 'analysis', payload: { questionId },
   });
   if (row.status === 'done' && row.result) return { status: 'ready', result: row.result, questionText: q.text };
@@ -36,8 +36,8 @@ export async function getSegmentComparison(ctx: WorkspaceContext, studyId: strin
 }
 
 export async function runSegmentsJob(data: JobData & { questionId: string }, lastAttempt = true) {
-  await runCached(data, lastAttempt, async (db) => {
-    const loaded = await loadFitInput(db, data.studyId, data.dataVersion, null);
+  await runCached(data, lastAttempt, async () => {
+    const loaded = await loadFitInput(data.studyId, data.dataVersion, null);
     if (loaded === 'obsolete') return 'obsolete';
     const q = loaded.study.design.segmentQuestions.find((x) => x.id === data.questionId);
     if (!q) throw new PsychometricsInputError('the segment question no longer exists');
@@ -47,7 +47,7 @@ export async function runSegmentsJob(data: JobData & { questionId: string }, las
     for (const answer of q.options) {
       const ids = loaded.kept.filter((r) => r.segmentAnswers[q.id] === answer).map((r) => r.id);
       respondents[answer] = ids.length;
-      const cells = await loadCells(db, data.studyId, ids);
+      const cells = await loadCells(data.studyId, ids);
       if (!cells.cells.length) { skipped.push(answer); continue; }
       groups.push({ label: answer, cells: cells.cells, catchCells: loaded.study.design.task === 'spot' ? cells.catchCells : [] });
     }

@@ -1,5 +1,4 @@
 import 'server-only';
-import type { EntityManager } from '@mikro-orm/postgresql';
 import { Study } from '@/entities/study';
 import { analyse } from '@/lib/psychometrics/analyse';
 import { chiSquareP } from '@/lib/psychometrics/chi2';
@@ -77,10 +76,10 @@ export async function getFitState(ctx: WorkspaceContext, studyId: string, opts: 
   const study = await findStudy(db, ctx.workspace.id, studyId);
   const { cacheKey, optionsKey } = fitCacheKey(study, opts);
   const base = { study, counts: null, cells: null, previous: null, job: null };
-  if (!(await hasAnsweredTests(db, study.id))) {
+  if (!(await hasAnsweredTests(study.id))) {
     return { ...base, fit: { status: 'empty', message: 'No finished respondent has answered a test trial yet.' } };
   }
-  const row = await requestComputation<FitResult>(db, {
+  const row = await requestComputation<FitResult>({
     studyId: study.id, kind: 'fit', cacheKey, dataVersion: study.dataVersion, queue: 'analysis',
     payload: { segment: opts.segment ?? null, target: opts.target ?? null },
   });
@@ -98,7 +97,7 @@ export async function getFitState(ctx: WorkspaceContext, studyId: string, opts: 
   }
   const job = { status: row.status, since: row.updatedAt.toISOString() };
   if (row.status === 'failed') return { ...base, job, fit: { status: 'empty', message: row.error ?? 'The fit could not be computed.' } };
-  const prev = await latestDone<FitResult>(db, study.id, 'fit', optionsKey);
+  const prev = await latestDone<FitResult>(study.id, 'fit', optionsKey);
   return {
     ...base, job,
     previous: prev ? { report: prev.result.report, counts: prev.result.counts, cells: prev.result.cells, catchCells: prev.result.catchCells, dataVersion: prev.dataVersion } : null,
@@ -112,9 +111,9 @@ export async function getStudyFit(ctx: WorkspaceContext, studyId: string, opts: 
 
 /** Job handler of kind 'fit' (also called directly by tests). */
 export async function runFitJob(data: JobData & { segment: Segment | null; target: number | null }, lastAttempt = true): Promise<void> {
-  await runCached(data, lastAttempt, async (db) => {
+  await runCached(data, lastAttempt, async () => {
     const started = Date.now();
-    const loaded = await loadFitInput(db, data.studyId, data.dataVersion, data.segment);
+    const loaded = await loadFitInput(data.studyId, data.dataVersion, data.segment);
     if (loaded === 'obsolete') return 'obsolete';
     const { study, cells, catchCells, counts } = loaded;
     const report = analyse({
@@ -128,14 +127,15 @@ export async function runFitJob(data: JobData & { segment: Segment | null; targe
 }
 
 /** Study, screened cells and counts at exactly `dataVersion`, or 'obsolete' when the data moved on. */
-export async function loadFitInput(db: EntityManager, studyId: string, dataVersion: number, segment: Segment | null) {
+export async function loadFitInput(studyId: string, dataVersion: number, segment: Segment | null) {
+  const db = await em();
   const s = await db.findOne(Study, { id: studyId }, { refresh: true });
   if (!s || s.dataVersion !== dataVersion) return 'obsolete' as const;
   const study = toDetail(s);
-  const rows = await respondentRows(db, studyId);
+  const rows = await respondentRows(studyId);
   const { counts, kept } = screen(rows, study.exclusionRules);
   const inSegment = segment ? kept.filter((r) => r.segmentAnswers[segment.questionId] === segment.answer) : kept;
-  const { cells, catchCells } = await loadCells(db, studyId, inSegment.map((r) => r.id));
+  const { cells, catchCells } = await loadCells(studyId, inSegment.map((r) => r.id));
   const again = await db.findOne(Study, { id: studyId }, { refresh: true, fields: ['dataVersion'] });
   if (!again || again.dataVersion !== dataVersion) return 'obsolete' as const;
   return { study, cells, catchCells, counts, kept };
