@@ -34,16 +34,8 @@ export interface StudyDetail {
   closedAt: string | null;
 }
 
-export interface StudySummary {
-  id: string;
-  name: string;
-  category: string;
-  task: StudyDesign['task'];
-  state: StudyStateName;
-  completes: number;
-  targetCompletes: number;
-  updatedAt: string;
-}
+/** A row of the studies list: a projection of StudyDetail plus the completes counted so far. */
+export type StudySummary = Pick<StudyDetail, 'id' | 'name' | 'state' | 'updatedAt'> & Pick<StudyDesign, 'category' | 'task' | 'targetCompletes'> & { completes: number };
 
 export function toDetail(s: IStudy): StudyDetail {
   return {
@@ -79,17 +71,8 @@ export async function listStudies(ctx: WorkspaceContext): Promise<StudySummary[]
   );
   const completes = new Map(counts.map((r) => [r.study_id, Number(r.n)]));
   return studies.map((s) => {
-    const d = readDesign(s.design, s.state);
-    return {
-      id: s.id,
-      name: s.name,
-      category: d.category,
-      task: d.task,
-      state: s.state,
-      completes: completes.get(s.id) ?? 0,
-      targetCompletes: d.targetCompletes,
-      updatedAt: s.updatedAt.toISOString(),
-    };
+    const { id, name, state, updatedAt, design } = toDetail(s);
+    return { id, name, state, updatedAt, category: design.category, task: design.task, targetCompletes: design.targetCompletes, completes: completes.get(id) ?? 0 };
   });
 }
 
