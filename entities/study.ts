@@ -1,10 +1,9 @@
 import { randomUUID } from 'node:crypto';
 import { defineEntity, type InferEntity } from '@mikro-orm/core';
+import type { StudyDesign } from '../lib/schemas/study.schema';
+import { STUDY_STATES } from '../lib/study-states';
 import { Workspace } from './workspace';
 import { User } from './user';
-
-export const STUDY_STATES = ['draft', 'live', 'paused', 'closed', 'imported'] as const;
-export type StudyState = (typeof STUDY_STATES)[number];
 
 export const Study = defineEntity({
   name: 'Study',
@@ -15,8 +14,12 @@ export const Study = defineEntity({
     workspace: p.manyToOne(Workspace).deleteRule('cascade'),
     name: p.string().length(160),
     state: p.enum([...STUDY_STATES]).default('draft'),
-    /** The validated design (lib/schemas/study.schema.ts); frozen once the study goes live. */
-    design: p.json<Record<string, unknown>>(),
+    /**
+     * The design as saved through the builder's schema (or an import's); frozen once the study
+     * goes live. Read it with `readDesign` (lib/schemas/study.schema.ts), which validates it and
+     * fills the defaults of fields added since it was stored.
+     */
+    design: p.json<StudyDesign>(),
     /** Exclusion rules in force for results and exports. */
     exclusionRules: p.json<Record<string, unknown>>().nullable(),
     /** Bumped whenever the data behind results change (answers, imports, rules); keys cached fits. */

@@ -1,36 +1,35 @@
-import { DEFAULT_CONSENT, type StudyDesignInput } from '@/lib/schemas/study.schema';
+import { DEFAULT_CONSENT, DESIGN_DEFAULTS, type StudyDesignInput } from '@/lib/schemas/study.schema';
+
+// A new study's starting point in the builder. The values a left-out field takes are the
+// schema's own (DESIGN_DEFAULTS, which readDesign fills into older stored designs too); the
+// rest are the builder's first suggestions for the choices every study must make.
 
 /** A random seed for the trial order (crypto-quality is not needed, only a fresh number). */
 export const randomSeed = () => Math.floor(Math.random() * 2_147_483_647);
 
 /**
- * What a new study starts from: a plain spot-the-saving design on three base prices and an
- * eight-rung ladder; numbers are our working defaults (common practice, no source).
+ * A plain spot-the-saving design on three base prices and an eight-rung ladder; the numbers
+ * are our working defaults (common practice, no source).
  */
 export function newStudyDefaults(seed: number): StudyDesignInput {
   return {
+    ...DESIGN_DEFAULTS,
     name: '',
     itemName: '',
-    itemPictureId: null,
     category: '',
     currency: 'EUR',
-    locale: 'en-GB',
     task: 'spot',
-    shelfSize: 6,
-    viewMs: 1200,
-    tripMinutes: 20,
     basePrices: ['2.49', '9.99', '49'],
     ladder: [0.01, 0.02, 0.03, 0.05, 0.08, 0.12, 0.18, 0.25],
     repetitions: 4,
     catchShare: 0.15,
     practiceTrials: 3,
     orderSeed: seed,
-    adaptive: { enabled: false, rule: '1u2d', trialsPerBase: 24, reversals: 8 },
+    adaptive: { enabled: false, ...DESIGN_DEFAULTS.adaptive },
     consentText: DEFAULT_CONSENT,
     segmentQuestions: [],
-    attentionCheck: { enabled: true, question: 'To show you are reading carefully, choose “Often”.', options: ['Never', 'Sometimes', 'Often', 'Always'], correct: 'Often' },
+    attentionCheck: { enabled: true, ...DESIGN_DEFAULTS.attentionCheck, options: [...DESIGN_DEFAULTS.attentionCheck.options] },
     targetCompletes: 200,
-    redirectUrl: '',
     priceEnding: 'ends-99',
   };
 }

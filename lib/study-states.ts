@@ -1,14 +1,17 @@
-// Study states and the moves between them; shared by the server (which enforces them) and the
-// screens (which only offer the moves that are allowed).
+// Study states and the moves between them: the one list of states (the Study entity's enum
+// column and the screens' filters derive from it), shared by the server (which enforces the
+// moves) and the screens (which only offer the moves that are allowed).
 
-export const STUDY_STATE_LABELS = {
+export const STUDY_STATES = ['draft', 'live', 'paused', 'closed', 'imported'] as const;
+export type StudyStateName = (typeof STUDY_STATES)[number];
+
+export const STUDY_STATE_LABELS: Record<StudyStateName, string> = {
   draft: 'Draft',
   live: 'Live',
   paused: 'Paused',
   closed: 'Closed',
   imported: 'Imported',
-} as const;
-export type StudyStateName = keyof typeof STUDY_STATE_LABELS;
+};
 
 export const STUDY_ACTIONS = ['launch', 'pause', 'resume', 'close'] as const;
 export type StudyAction = (typeof STUDY_ACTIONS)[number];

@@ -4,6 +4,8 @@ import { STUDY_ACTIONS } from '@/lib/study-states';
 
 // The study design: one schema for the builder form, the server actions and route handlers,
 // and the respondent flow. Stored as Study.design (jsonb) and frozen once a study goes live.
+// Every read of a stored design goes through `readDesign` below, so a design is validated on
+// save and on read alike, and a field added later reads with its default in older rows.
 
 export const TASKS = ['spot', 'pick', 'trip'] as const satisfies readonly Task[];
 export const TASK_LABELS: Record<Task, string> = {
@@ -37,6 +39,21 @@ export const DEFAULT_CONSENT =
   'and your answers are stored under a random number. Taking part is voluntary and you may stop at any time; ' +
   'answers given until then may be kept for the research unless you ask for them to be deleted.';
 
+/**
+ * What a left-out field becomes: the builder's starting values and what an older stored design
+ * reads as. The schema's `.default()`s and lib/study-defaults.ts both take them from here.
+ */
+export const DESIGN_DEFAULTS = {
+  itemPictureId: null,
+  locale: 'en-GB',
+  shelfSize: 6,
+  viewMs: 1200,
+  tripMinutes: 20,
+  adaptive: { rule: '1u2d', trialsPerBase: 24, reversals: 8 },
+  attentionCheck: { question: 'To show you are reading carefully, choose “Often”.', options: ['Never', 'Sometimes', 'Often', 'Always'], correct: 'Often' },
+  redirectUrl: '',
+} as const;
+
 const money = z.coerce.number({ error: 'Enter a price.' }).finite('Enter a price.').gt(0, 'Prices must be above zero.').max(1_000_000, 'At most 1,000,000.');
 const depth = z.coerce.number({ error: 'Enter a depth.' }).finite().gt(0, 'Depths must be above 0 %.').lt(1, 'Depths must be below 100 %.');
 
@@ -56,66 +73,114 @@ export type SegmentQuestion = z.infer<typeof segmentQuestionSchema>;
 export const attentionCheckSchema = z
   .object({
     enabled: z.boolean(),
-    question: z.string().trim().max(200).default('To show you are reading carefully, choose “Often”.'),
-    options: z.array(z.string().trim().min(1).max(80)).min(2).max(6).default(['Never', 'Sometimes', 'Often', 'Always']),
-    correct: z.string().trim().default('Often'),
+    question: z.string().trim().max(200).default(DESIGN_DEFAULTS.attentionCheck.question),
+    options: z.array(z.string().trim().min(1).max(80)).min(2).max(6).default([...DESIGN_DEFAULTS.attentionCheck.options]),
+    correct: z.string().trim().default(DESIGN_DEFAULTS.attentionCheck.correct),
   })
   .refine((a) => !a.enabled || a.options.includes(a.correct), { message: 'The right answer must be one of the answers.', path: ['correct'] });
 
 export const adaptiveSchema = z.object({
   enabled: z.boolean(),
-  rule: z.enum(STAIRCASE_RULES).default('1u2d'),
+  rule: z.enum(STAIRCASE_RULES).default(DESIGN_DEFAULTS.adaptive.rule),
   /** Trials per base price when adaptive (the staircase stops earlier when its reversals are reached). */
-  trialsPerBase: z.coerce.number().int().min(8, 'At least 8.').max(80, 'At most 80.').default(24),
-  reversals: z.coerce.number().int().min(4).max(20).default(8),
+  trialsPerBase: z.coerce.number().int().min(8, 'At least 8.').max(80, 'At most 80.').default(DESIGN_DEFAULTS.adaptive.trialsPerBase),
+  reversals: z.coerce.number().int().min(4).max(20).default(DESIGN_DEFAULTS.adaptive.reversals),
 });
 
-export const studyDesignSchema = z
-  .object({
-    name: z.string().trim().min(3, 'Name the study (at least 3 characters).').max(160, 'At most 160 characters.'),
-    itemName: z.string().trim().min(2, 'Name the item shown to respondents.').max(80, 'At most 80 characters.'),
-    /** StudyAsset id of the uploaded picture, if any. */
-    itemPictureId: z.uuid().nullable().default(null),
-    category: z.string().trim().min(2, 'Give the item category.').max(80, 'At most 80 characters.'),
-    currency: z.enum(CURRENCIES),
-    locale: z.enum(LOCALES).default('en-GB'),
-    task: z.enum(TASKS),
-    /** Spot the saving: items on the remembered shelf. */
-    shelfSize: z.coerce.number().int().min(3, 'At least 3 items.').max(12, 'At most 12 items.').default(6),
-    /** Pick the lower price: how long the two tags stay visible. */
-    viewMs: z.coerce.number().int().min(300, 'At least 300 ms.').max(5000, 'At most 5,000 ms.').default(1200),
-    /** Worth the trip: minutes of extra effort for the discounted offer. */
-    tripMinutes: z.coerce.number().int().min(1, 'At least 1 minute.').max(120, 'At most 120 minutes.').default(20),
-    basePrices: z
-      .array(money)
-      .min(1, 'Give at least one base price.')
-      .max(12, 'At most 12 base prices.')
-      .refine(uniqueSorted, 'Each base price only once.'),
-    ladder: z
-      .array(depth)
-      .min(2, 'The ladder needs at least two rungs.')
-      .max(20, 'At most 20 rungs.')
-      .refine(uniqueSorted, 'Each rung only once.'),
-    repetitions: z.coerce.number().int().min(1, 'At least once.').max(20, 'At most 20.'),
-    /** Share of all trials that are catch trials (no discount). */
-    catchShare: z.coerce.number().min(0, 'At least 0 %.').max(0.5, 'At most 50 %.'),
-    practiceTrials: z.coerce.number().int().min(0).max(10, 'At most 10.'),
-    orderSeed: z.coerce.number().int().min(0).max(2_147_483_647),
-    adaptive: adaptiveSchema,
-    consentText: z.string().trim().min(40, 'Write a consent text of at least 40 characters.').max(4000, 'At most 4,000 characters.'),
-    segmentQuestions: z
-      .array(segmentQuestionSchema)
-      .max(MAX_SEGMENT_QUESTIONS, `At most ${MAX_SEGMENT_QUESTIONS} segment questions.`)
-      .refine((qs) => new Set(qs.map((q) => q.id)).size === qs.length, 'Each question needs its own id.'),
-    attentionCheck: attentionCheckSchema,
-    targetCompletes: z.coerce.number().int().min(1, 'At least 1.').max(100_000, 'At most 100,000.'),
-    redirectUrl: z.union([z.literal(''), z.url('Enter a full URL starting with https://').refine((u) => /^https?:\/\//.test(u), 'Use an http(s) URL.')]).default(''),
-    priceEnding: z.enum(PRICE_ENDINGS),
-  })
-  .transform((d) => ({ ...d, basePrices: [...d.basePrices].sort((a, b) => a - b), ladder: [...d.ladder].sort((a, b) => a - b) }));
+const designFields = z.object({
+  name: z.string().trim().min(3, 'Name the study (at least 3 characters).').max(160, 'At most 160 characters.'),
+  itemName: z.string().trim().min(2, 'Name the item shown to respondents.').max(80, 'At most 80 characters.'),
+  /** StudyAsset id of the uploaded picture, if any. */
+  itemPictureId: z.uuid().nullable().default(DESIGN_DEFAULTS.itemPictureId),
+  category: z.string().trim().min(2, 'Give the item category.').max(80, 'At most 80 characters.'),
+  currency: z.enum(CURRENCIES),
+  locale: z.enum(LOCALES).default(DESIGN_DEFAULTS.locale),
+  task: z.enum(TASKS),
+  /** Spot the saving: items on the remembered shelf. */
+  shelfSize: z.coerce.number().int().min(3, 'At least 3 items.').max(12, 'At most 12 items.').default(DESIGN_DEFAULTS.shelfSize),
+  /** Pick the lower price: how long the two tags stay visible. */
+  viewMs: z.coerce.number().int().min(300, 'At least 300 ms.').max(5000, 'At most 5,000 ms.').default(DESIGN_DEFAULTS.viewMs),
+  /** Worth the trip: minutes of extra effort for the discounted offer. */
+  tripMinutes: z.coerce.number().int().min(1, 'At least 1 minute.').max(120, 'At most 120 minutes.').default(DESIGN_DEFAULTS.tripMinutes),
+  basePrices: z
+    .array(money)
+    .min(1, 'Give at least one base price.')
+    .max(12, 'At most 12 base prices.')
+    .refine(uniqueSorted, 'Each base price only once.'),
+  ladder: z
+    .array(depth)
+    .min(2, 'The ladder needs at least two rungs.')
+    .max(20, 'At most 20 rungs.')
+    .refine(uniqueSorted, 'Each rung only once.'),
+  repetitions: z.coerce.number().int().min(1, 'At least once.').max(20, 'At most 20.'),
+  /** Share of all trials that are catch trials (no discount). */
+  catchShare: z.coerce.number().min(0, 'At least 0 %.').max(0.5, 'At most 50 %.'),
+  practiceTrials: z.coerce.number().int().min(0).max(10, 'At most 10.'),
+  orderSeed: z.coerce.number().int().min(0).max(2_147_483_647),
+  adaptive: adaptiveSchema,
+  consentText: z.string().trim().min(40, 'Write a consent text of at least 40 characters.').max(4000, 'At most 4,000 characters.'),
+  segmentQuestions: z
+    .array(segmentQuestionSchema)
+    .max(MAX_SEGMENT_QUESTIONS, `At most ${MAX_SEGMENT_QUESTIONS} segment questions.`)
+    .refine((qs) => new Set(qs.map((q) => q.id)).size === qs.length, 'Each question needs its own id.'),
+  attentionCheck: attentionCheckSchema,
+  targetCompletes: z.coerce.number().int().min(1, 'At least 1.').max(100_000, 'At most 100,000.'),
+  redirectUrl: z.union([z.literal(''), z.url('Enter a full URL starting with https://').refine((u) => /^https?:\/\//.test(u), 'Use an http(s) URL.')]).default(DESIGN_DEFAULTS.redirectUrl),
+  priceEnding: z.enum(PRICE_ENDINGS),
+});
+
+const sortPrices = <D extends { basePrices: number[]; ladder: number[] }>(d: D): D => ({ ...d, basePrices: [...d.basePrices].sort((a, b) => a - b), ladder: [...d.ladder].sort((a, b) => a - b) });
+
+/** A design an analyst saves (and launches): every limit of the builder applies. */
+export const studyDesignSchema = designFields.transform(sortPrices);
 
 export type StudyDesignInput = z.input<typeof studyDesignSchema>;
 export type StudyDesign = z.output<typeof studyDesignSchema>;
+
+/**
+ * A design the builder's limits do not bind (yet): an imported study's records what its file
+ * held (any number of base prices, depths — none when the file has only catch trials — and
+ * segment columns, answers seen only once), and a draft copied from one keeps that until it is
+ * edited. The limits are for studies that run, so saving in the builder and launching check
+ * them; the types, ranges and defaults apply here too.
+ */
+export const importedDesignSchema = designFields
+  .extend({
+    basePrices: z.array(money).min(1, 'Give at least one base price.').refine(uniqueSorted, 'Each base price only once.'),
+    ladder: z.array(depth).refine(uniqueSorted, 'Each rung only once.'),
+    segmentQuestions: z.array(segmentQuestionSchema.extend({
+      text: z.string().trim().min(1, 'Write the question.').max(200, 'At most 200 characters.'),
+      options: z.array(z.string().trim().min(1, 'An answer cannot be empty.').max(80, 'At most 80 characters.')).min(1, 'Give at least one answer.'),
+    })),
+    targetCompletes: z.coerce.number().int().min(1, 'At least 1.'),
+  })
+  .transform(sortPrices);
+
+export interface DesignIssue { path: string; message: string }
+
+/** A stored design that does not read: the data are damaged, or the schema moved past them. */
+export class StoredDesignError extends Error {
+  constructor(public readonly issues: DesignIssue[]) {
+    super(`The stored study design is not valid: ${issues.slice(0, 5).map((i) => `${i.path || '(design)'}: ${i.message}`).join('; ')}`);
+    this.name = 'StoredDesignError';
+  }
+}
+
+/** States whose design passed the builder's limits at launch; drafts and imports may not have. */
+const LAUNCHED_STATES: readonly string[] = ['live', 'paused', 'closed'];
+
+/**
+ * The one way to read a stored design (entity column or raw row): validated, sorted and with
+ * the defaults of fields it lacks filled in. `state` says which limits apply: a study that was
+ * launched (or an unknown state) is read with the builder's, a draft or an import with
+ * `importedDesignSchema`. Throws StoredDesignError naming each bad field.
+ */
+export function readDesign(raw: unknown, state?: string): StudyDesign {
+  const bound = state === undefined || LAUNCHED_STATES.includes(state);
+  const parsed = (bound ? studyDesignSchema : importedDesignSchema).safeParse(raw);
+  if (!parsed.success) throw new StoredDesignError(parsed.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message })));
+  return parsed.data;
+}
 
 /** Geometric spacing between a minimum and maximum depth (fractions), N rungs, rounded to 0.1 %. */
 export function geometricLadder(min: number, max: number, rungs: number): number[] {

@@ -1,9 +1,9 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import type { StudyDesign } from '@/lib/schemas/study.schema';
+import { readDesign, type StudyDesign } from '@/lib/schemas/study.schema';
 import type { TrialPlan } from '@/respondent/shared/types';
+import { sqlOne } from '@/lib/server/db/sql';
 import { AppError } from '@/lib/server/http/errors';
-import { storedDesign } from './trials';
 
 /** What never changes for a respondent once started: plan, seed, frozen design. Cached per process. */
 export interface RespondentContext {
@@ -31,18 +31,18 @@ export async function respondentContext(db: EntityManager, linkToken: string, re
   if (!resumeToken || resumeToken.length > 64) throw missing;
   let ctx = cache.get(resumeToken);
   if (!ctx) {
-    const rows = await db.getConnection().execute<Record<string, unknown>[]>(
-      `select r.id, r.seed, r.plan, r.pid, r.study_id, r.workspace_id, s.design, l.token as link_token
+    const r = await sqlOne(
+      db,
+      `select r.id, r.seed, r.plan, r.pid, r.study_id, r.workspace_id, s.state, s.design, l.token as link_token
          from respondent r join study s on s.id = r.study_id left join respondent_link l on l.id = r.link_id
         where r.resume_token = ? and r.plan is not null`,
       [resumeToken],
     );
-    const r = rows[0];
     if (!r) throw missing;
     ctx = {
       id: String(r.id), studyId: String(r.study_id), workspaceId: String(r.workspace_id),
       linkToken: (r.link_token as string | null) ?? null, seed: Number(r.seed), pid: (r.pid as string | null) ?? null,
-      plan: r.plan as TrialPlan, design: storedDesign(r.design),
+      plan: r.plan as TrialPlan, design: readDesign(r.design, String(r.state)),
     };
     if (cache.size >= MAX_CACHED) cache.delete(cache.keys().next().value!);
     cache.set(resumeToken, ctx);

@@ -1,8 +1,8 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import type { StudyDesign } from '@/lib/schemas/study.schema';
+import { readDesign, type StudyDesign } from '@/lib/schemas/study.schema';
+import { sqlOne } from '@/lib/server/db/sql';
 import { AppError } from '@/lib/server/http/errors';
-import { storedDesign } from './trials';
 
 /** A respondent link as the respondent side sees it: the link with its study's state and design and its workspace's retention. */
 export interface RespondentLinkWithStudy {
@@ -21,13 +21,13 @@ export interface RespondentLinkWithStudy {
 /** A respondent link with its study and workspace facts, one query; null when unknown. */
 export async function loadLink(db: EntityManager, token: string): Promise<RespondentLinkWithStudy | null> {
   if (!/^[A-Za-z0-9_-]{8,64}$/.test(token)) return null;
-  const rows = await db.getConnection().execute<Record<string, unknown>[]>(
+  const r = await sqlOne(
+    db,
     `select l.id as link_id, l.closed_at, l.quota, l.accepts_pid, s.id as study_id, s.state, s.design, s.workspace_id, w.retention_days
        from respondent_link l join study s on s.id = l.study_id join workspace w on w.id = s.workspace_id
       where l.token = ?`,
     [token],
   );
-  const r = rows[0];
   if (!r) return null;
   return {
     token,
@@ -38,7 +38,7 @@ export async function loadLink(db: EntityManager, token: string): Promise<Respon
     closed: r.closed_at != null,
     quota: r.quota == null ? null : Number(r.quota),
     acceptsPid: Boolean(r.accepts_pid),
-    design: storedDesign(r.design),
+    design: readDesign(r.design, String(r.state)),
     retentionDays: Number(r.retention_days),
   };
 }

@@ -4,6 +4,7 @@
 // rows as CSV (tests/fixtures/demo-price-list.csv, checked against this module by a unit test).
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { PriceList } from '@/entities/price-list';
+import { insertPriceListItems } from '@/lib/server/promotions/price-list-items';
 import { toCsv } from '@/lib/csv';
 import { createRng } from '@/lib/psychometrics/random';
 
@@ -98,8 +99,6 @@ export async function seedDemoPriceList(db: EntityManager, workspaceId: string):
   await db.transactional(async (tx) => {
     const list = tx.create(PriceList, { workspace: workspaceId, name: DEMO_PRICE_LIST_NAME, currency: DEMO_PRICE_LIST_CURRENCY, itemCount: rows.length, createdBy: null });
     await tx.flush();
-    await tx.getConnection().getKnex()('price_list_item')
-      .insert(rows.map((r, i) => ({ price_list_id: list.id, row: i + 2, sku: r.sku, name: r.name, regular_price: r.regularPrice, unit_cost: r.unitCost, category: r.category })))
-      .transacting(tx.getTransactionContext()!);
+    await insertPriceListItems(tx, list.id, rows.map((r, i) => ({ ...r, row: i + 2 })));
   });
 }

@@ -2,8 +2,10 @@
 // invented for the fictional Harbourline scenario and every answer is drawn from a model
 // observer (scripts/seed/simulate-responses.ts): no shopper took part, nothing here is a
 // finding about real people. Idempotent: a study with this name in the demo workspace is kept.
-import { randomBytes, randomUUID } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/postgresql';
+import { RespondentLink } from '@/entities/respondent-link';
+import { Study } from '@/entities/study';
+import { randomToken } from '@/lib/server/platform/tokens';
 import { DEFAULT_CONSENT, studyDesignSchema } from '@/lib/schemas/study.schema';
 import { DEFAULT_EXCLUSION_RULES } from '@/lib/schemas/exclusions.schema';
 import { insertRespondents, simulateRespondents, type SimParams } from './simulate-responses';
@@ -63,27 +65,21 @@ export const DEMO_SIM: SimParams = {
 };
 
 export async function seedDemoStudy(db: EntityManager, workspaceId: string) {
-  const rows: { id: string }[] = await db.execute('select id from study where workspace_id = ? and name = ?', [workspaceId, DEMO_STUDY_NAME]);
-  if (rows.length) return { id: rows[0].id, created: false };
-  const knex = db.getKnex();
-  const studyId = randomUUID();
+  const existing = await db.findOne(Study, { workspace: workspaceId, name: DEMO_STUDY_NAME }, { fields: ['id'] });
+  if (existing) return { id: existing.id, created: false };
   const closedAt = new Date('2026-03-20T17:00:00Z');
   const launchedAt = new Date('2026-03-02T08:00:00Z');
-  await knex.transaction(async (trx) => {
-    await trx('study').insert({
-      id: studyId, workspace_id: workspaceId, name: DEMO_STUDY_NAME, state: 'closed', design: JSON.stringify(DEMO_DESIGN),
-      exclusion_rules: JSON.stringify(DEFAULT_EXCLUSION_RULES), data_version: 1, created_at: launchedAt, updated_at: closedAt,
-      launched_at: launchedAt, closed_at: closedAt,
+  const id = await db.transactional(async (tx) => {
+    const study = tx.create(Study, {
+      workspace: workspaceId, name: DEMO_STUDY_NAME, state: 'closed', design: DEMO_DESIGN, exclusionRules: DEFAULT_EXCLUSION_RULES,
+      dataVersion: 1, createdAt: launchedAt, updatedAt: closedAt, launchedAt, closedAt,
     });
-    const links = [
-      { source: 'Newsletter', id: randomUUID() },
-      { source: 'Store QR', id: randomUUID() },
-    ];
-    await trx('respondent_link').insert(links.map((l) => ({
-      id: l.id, workspace_id: workspaceId, study_id: studyId, token: randomBytes(24).toString('base64url'),
-      source: l.source, quota: null, accepts_pid: false, closed_at: closedAt, created_at: launchedAt,
-    })));
-    await insertRespondents(db, trx, { workspaceId, studyId, respondents: simulateRespondents(DEMO_SIM), linkIds: links.map((l) => l.id), startedAt: launchedAt });
+    const links = ['Newsletter', 'Store QR'].map((source) => tx.create(RespondentLink, {
+      workspace: workspaceId, study, token: randomToken(), source, quota: null, acceptsPid: false, closedAt, createdAt: launchedAt,
+    }));
+    await tx.flush();
+    await insertRespondents(tx, { workspaceId, studyId: study.id, respondents: simulateRespondents(DEMO_SIM), linkIds: links.map((l) => l.id), startedAt: launchedAt });
+    return study.id;
   });
-  return { id: studyId, created: true };
+  return { id, created: true };
 }

@@ -1,8 +1,8 @@
 // Simulated respondents for the demo study and for tests: every number here is invented and
 // every answer drawn from a model observer; no real shopper answered any of it.
-import { randomBytes, randomUUID } from 'node:crypto';
-import type { EntityManager, Knex } from '@mikro-orm/postgresql';
+import type { EntityManager } from '@mikro-orm/postgresql';
 import { createRng, type Rng } from '@/lib/psychometrics/random';
+import { insertFinishedRespondents, type FinishedRespondent } from '@/lib/server/studies/finished-respondents';
 
 export interface SimParams {
   basePrices: number[];
@@ -78,36 +78,24 @@ export function simulateRespondents(p: SimParams): SimRespondent[] {
 }
 
 /**
- * Bulk insert (multi-row INSERTs through knex, in chunks) of finished respondents and their
- * trials. `links` spreads respondents over respondent links (their "source").
+ * Writes simulated finished respondents and their trials in the caller's transaction (bulk
+ * rows, lib/server/studies/finished-respondents.ts). `linkIds` spreads respondents over
+ * respondent links (their "source"); each one starts 7 minutes after the previous and takes 9.
  */
 export async function insertRespondents(
-  db: EntityManager,
-  trx: Knex.Transaction,
+  tx: EntityManager,
   { workspaceId, studyId, respondents, linkIds = [], state = 'completed', startedAt = new Date() }:
   { workspaceId: string; studyId: string; respondents: SimRespondent[]; linkIds?: string[]; state?: 'completed' | 'imported'; startedAt?: Date },
 ) {
-  const knex = db.getKnex();
-  const rRows: Record<string, unknown>[] = [];
-  const tRows: Record<string, unknown>[] = [];
-  respondents.forEach((r, i) => {
-    const id = randomUUID();
-    const begin = new Date(startedAt.getTime() + i * 7 * 60_000);
-    const done = new Date(begin.getTime() + 9 * 60_000);
-    rRows.push({
-      id, workspace_id: workspaceId, study_id: studyId, link_id: linkIds.length ? linkIds[i % linkIds.length] : null,
-      resume_token: randomBytes(24).toString('base64url'), external_ref: state === 'imported' ? `R${i + 1}` : null,
-      seed: i + 1, state, segment_answers: JSON.stringify(r.segmentAnswers), attention_passed: r.attentionPassed,
-      answered_count: r.trials.length, started_at: begin, last_seen_at: done, completed_at: done,
-    });
-    for (const t of r.trials) {
-      tRows.push({
-        study_id: studyId, respondent_id: id, idx: t.idx, kind: t.kind, base_price: t.basePrice, discount: t.discount,
-        answer: t.answer, response_ms: t.responseMs, client_id: randomUUID(), answered_at: done,
-      });
-    }
+  return insertFinishedRespondents(tx, {
+    workspaceId, studyId, state,
+    respondents: respondents.map((r, i): FinishedRespondent => {
+      const begin = new Date(startedAt.getTime() + i * 7 * 60_000);
+      return {
+        externalRef: state === 'imported' ? `R${i + 1}` : null, linkId: linkIds.length ? linkIds[i % linkIds.length] : null, seed: i + 1,
+        segmentAnswers: r.segmentAnswers, attentionPassed: r.attentionPassed, startedAt: begin, completedAt: new Date(begin.getTime() + 9 * 60_000),
+        trials: r.trials,
+      };
+    }),
   });
-  await knex.batchInsert('respondent', rRows, 1000).transacting(trx);
-  await knex.batchInsert('trial', tRows, 2000).transacting(trx);
-  return { respondents: rRows.length, trials: tRows.length };
 }

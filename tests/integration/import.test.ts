@@ -3,6 +3,7 @@ import { POST as importInto } from '@/app/api/w/[workspace]/studies/[study]/impo
 import { POST as importNew } from '@/app/api/w/[workspace]/imports/route';
 import { GET as exportGet } from '@/app/api/w/[workspace]/studies/[study]/exports/[file]/route';
 import { em } from '@/lib/server/db/orm';
+import { refuseRowsWhere } from '../support/failing-rows';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { makeSimulatedStudy, multipart } from '../support/studies';
 
@@ -92,6 +93,31 @@ describe('response import', () => {
     expect(s.design.segmentQuestions.map((q) => q.id)).toEqual(['shop_often']);
     const bad = await callRoute(importNew, { method: 'POST', params: { workspace: ws.slug }, ...(await multipart(VALID, { name: 'x' })) });
     expect(bad.status).toBe(422);
+  });
+
+  it('a database failure at row 11,000 of 12,000 (past the first bulk statement) writes nothing, into a closed study or a new one', async () => {
+    signInAs(ws.owner);
+    // 400 respondents × 30 trials; the trial on file row 11,000 is refused by the database.
+    const lines = Array.from({ length: 12_000 }, (_, i) => `F${Math.floor(i / 30)},${[3.49, 39, 449][i % 3]},${i % 10 ? 0.05 : 0},${i % 2},${i + 2 === 11_000 ? 3_599_999 : 900}`);
+    const file = `respondent,base_price,discount,response,response_ms\n${lines.join('\n')}\n`;
+    const before = await counts(studyId);
+    const audits = async () => (await (await em()).execute<{ n: number }[]>(
+      `select count(*)::int as n from audit_event a join workspace w on w.id = a.workspace_id where w.slug = ? and a.action in ('study.responses_imported', 'study.created_by_import')`, [ws.slug]))[0].n;
+    const auditsBefore = await audits();
+    await refuseRowsWhere('trial', 'new.response_ms = 3599999', async () => {
+      expect((await post(file, true)).status).toBe(200);
+      const res = await post(file);
+      expect(res.status).toBe(500);
+      expect(await counts(studyId)).toEqual(before);
+      const body = await multipart(file, { name: 'Failing import', itemName: 'Kitchenware', category: 'Kitchen & home', currency: 'EUR', task: 'spot' });
+      expect((await callRoute(importNew, { method: 'POST', params: { workspace: ws.slug }, ...body })).status).toBe(500);
+    });
+    const [made] = await (await em()).execute<{ n: number }[]>(`select count(*)::int as n from study s join workspace w on w.id = s.workspace_id where w.slug = ? and s.name = 'Failing import'`, [ws.slug]);
+    expect(made.n).toBe(0);
+    expect(await audits()).toBe(auditsBefore);
+    // The same file without the refusal goes in whole, so the refusal above was the only cause.
+    expect((await post(file)).status).toBe(201);
+    expect(await counts(studyId)).toEqual({ n: before.n + 400, t: before.t + 12_000, v: before.v + 1 });
   });
 
   it('viewers may not import (403); a live study takes no import (409)', async () => {

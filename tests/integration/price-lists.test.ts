@@ -4,6 +4,7 @@ import { POST as previewPOST } from '@/app/api/w/[workspace]/price-lists/preview
 import { DELETE as itemDELETE, GET as itemGET } from '@/app/api/w/[workspace]/price-lists/[list]/route';
 import { em } from '@/lib/server/db/orm';
 import { callRoute, makeMember, makeWorkspace, signInAs, uid } from '../support/factories';
+import { refuseRowsWhere } from '../support/failing-rows';
 
 const HEADER = 'sku,name,regular_price,unit_cost,category';
 const csv = (...rows: string[]) => [HEADER, ...rows].join('\n');
@@ -50,6 +51,16 @@ describe('price list upload', () => {
     const paths = (await res.json()).error.issues.map((i: { path: string }) => i.path);
     expect(paths).toEqual(['rows.3.regular_price', 'rows.5.sku']);
     expect(await countItems(ws.slug)).toEqual({ items: 0, lists: 0 });
+  });
+
+  it('a database failure at row 12,000 of 15,000 (past the first bulk statement) stores no list and no item', async () => {
+    signInAs(ws.owner);
+    const rows = Array.from({ length: 15_000 }, (_, i) => `${i + 2 === 12_000 ? 'REFUSE-ME' : `S-${i}`},Item ${i},${(1 + (i % 500)).toFixed(2)},,`);
+    const before = await countItems(ws.slug);
+    await refuseRowsWhere('price_list_item', `new.sku = 'REFUSE-ME'`, async () => {
+      expect((await store(csv(...rows), 'Refused list')).status).toBe(500);
+    });
+    expect(await countItems(ws.slug)).toEqual(before);
   });
 
   it('a 60,000-row file is refused with a clear error; nothing stored', async () => {

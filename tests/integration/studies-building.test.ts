@@ -5,6 +5,7 @@ import { em } from '@/lib/server/db/orm';
 import { Study } from '@/entities/study';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { validDesign } from '../support/study-fixtures';
+import { sql } from '@/lib/server/db/sql';
 
 type Issue = { path: string; message: string };
 
@@ -72,6 +73,18 @@ describe('building a study: POST/PATCH validate with the shared design schema', 
     expect((await (await callRoute(oneGET, { params: { workspace: ws.slug, study: s.id } })).json()).design.repetitions).toBe(5);
     expect((await callRoute(oneDELETE, { method: 'DELETE', params: { workspace: ws.slug, study: s.id } })).status).toBe(204);
     expect((await callRoute(oneGET, { params: { workspace: ws.slug, study: s.id } })).status).toBe(404);
+  });
+
+  it('a stored design without the fields that have defaults reads with them filled in; a damaged one is our error (500), not the caller’s', async () => {
+    const s = await (await create(validDesign({ locale: 'de-DE', viewMs: 2000 }))).json();
+    const db = await em();
+    await sql(db, `update study set design = design - 'locale' - 'viewMs' - 'shelfSize' - 'redirectUrl' - 'itemPictureId' where id = ?`, [s.id]);
+    const got = await (await callRoute(oneGET, { params: { workspace: ws.slug, study: s.id } })).json();
+    expect(got.design).toMatchObject({ locale: 'en-GB', viewMs: 1200, shelfSize: 6, redirectUrl: '', itemPictureId: null, itemName: 'Extra virgin olive oil, 1 l' });
+    await sql(db, `update study set design = jsonb_set(design, '{task}', '"guess"') where id = ?`, [s.id]);
+    const damaged = await callRoute(oneGET, { params: { workspace: ws.slug, study: s.id } });
+    expect(damaged.status).toBe(500);
+    expect((await damaged.json()).error.code).toBe('internal');
   });
 
   it('a malformed study id is a 404, not a database error', async () => {

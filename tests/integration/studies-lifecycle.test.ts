@@ -3,10 +3,12 @@ import { POST as createPOST } from '@/app/api/w/[workspace]/studies/route';
 import { GET as oneGET, PATCH as onePATCH, DELETE as oneDELETE } from '@/app/api/w/[workspace]/studies/[study]/route';
 import { POST as statePOST } from '@/app/api/w/[workspace]/studies/[study]/state/route';
 import { POST as dupPOST } from '@/app/api/w/[workspace]/studies/[study]/duplicate/route';
+import { POST as importNew } from '@/app/api/w/[workspace]/imports/route';
 import { em } from '@/lib/server/db/orm';
 import { AuditEvent } from '@/entities/audit-event';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { validDesign } from '../support/study-fixtures';
+import { multipart } from '../support/studies';
 
 describe('launching, freezing, pausing, closing and duplicating a study', () => {
   let ws: Awaited<ReturnType<typeof makeWorkspace>>;
@@ -102,5 +104,22 @@ describe('launching, freezing, pausing, closing and duplicating a study', () => 
     const edit = await callRoute(onePATCH, { method: 'PATCH', params: p(copy.id), body: validDesign({ name: 'Olive oil, deeper ladder', ladder: [0.05, 0.1, 0.3] }) });
     expect(edit.status).toBe(200);
     expect((await read(id)).design.ladder).toEqual([0.02, 0.05, 0.1, 0.2]);
+  });
+
+  it('a draft copied from an imported study reads as the file had it, but launches only once the builder’s limits are met', async () => {
+    // One depth on the ladder and a segment column with one answer: fine for an import, not for a study that runs.
+    const file = 'respondent,base_price,discount,response,segment_household\nR1,2.49,0.1,1,2\nR1,2.49,0,0,2\nR2,9.99,0.1,0,2\n';
+    const body = await multipart(file, { name: 'Imported olive oil', itemName: 'Olive oil', category: 'Pantry', currency: 'EUR', task: 'spot' });
+    const imported = await callRoute(importNew, { method: 'POST', params: { workspace: ws.slug }, ...body });
+    expect(imported.status).toBe(201);
+    const source = (await imported.json()).imported.studyId as string;
+    expect((await read(source)).design).toMatchObject({ ladder: [0.1], segmentQuestions: [{ id: 'household', options: ['2'] }], locale: 'en-GB', shelfSize: 6 });
+    const copy = await (await callRoute(dupPOST, { method: 'POST', params: p(source) })).json();
+    expect((await read(copy.id)).design).toMatchObject({ name: 'Imported olive oil (copy)', ladder: [0.1] });
+    const launch = await act(copy.id, 'launch');
+    expect(launch.status).toBe(409);
+    const paths = (await launch.json()).error.issues.map((i: { path: string }) => i.path);
+    expect(paths).toEqual(expect.arrayContaining(['ladder', 'segmentQuestions.0.options']));
+    expect((await read(copy.id)).state).toBe('draft');
   });
 });

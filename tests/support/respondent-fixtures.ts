@@ -23,7 +23,7 @@ export async function makeLiveStudy(slug: string, opts: { design?: StudyDesign; 
   const db = await em();
   const ws = await db.findOneOrFail(Workspace, { slug });
   const design = opts.design ?? testDesign();
-  const study = db.create(Study, { workspace: ws, name: design.name, state: opts.state ?? 'live', design: design as unknown as Record<string, unknown>, launchedAt: new Date() });
+  const study = db.create(Study, { workspace: ws, name: design.name, state: opts.state ?? 'live', design, launchedAt: new Date() });
   const token = randomBytes(24).toString('base64url');
   const link = db.create(RespondentLink, { workspace: ws, study, token, source: `test ${uid()}`, quota: opts.quota ?? null, acceptsPid: opts.acceptsPid ?? false });
   await db.flush();

@@ -1,8 +1,8 @@
 import 'server-only';
 import { createHash, randomUUID } from 'node:crypto';
-import type { EntityManager } from '@mikro-orm/postgresql';
 import { PsychometricsInputError } from '@/lib/psychometrics/errors';
 import { em } from '@/lib/server/db/orm';
+import { sql, sqlOne } from '@/lib/server/db/sql';
 import { enqueue, type QueueName } from '@/lib/server/platform/jobs';
 
 // AnalysisResult rows as a cache with a status: one row per (study, kind, cache key), where
@@ -27,12 +27,12 @@ export function hashKey(parts: unknown): string {
   return createHash('sha256').update(JSON.stringify({ f: CACHE_FORMAT, parts })).digest('hex');
 }
 
-export async function readCache<T>(db: EntityManager, studyId: string, kind: string, cacheKey: string): Promise<CacheRow<T> | null> {
-  const rows: { status: CacheStatus; result: T | null; error: string | null; updated_at: Date; created_at: Date }[] = await db.execute(
+export async function readCache<T>(studyId: string, kind: string, cacheKey: string): Promise<CacheRow<T> | null> {
+  const r = await sqlOne<{ status: CacheStatus; result: T | null; error: string | null; updated_at: Date; created_at: Date }>(
+    await em(),
     'select status, result, error, updated_at, created_at from analysis_result where study_id = ? and kind = ? and cache_key = ?',
     [studyId, kind, cacheKey],
   );
-  const r = rows[0];
   return r ? { status: r.status, result: r.result, error: r.error, updatedAt: new Date(r.updated_at), createdAt: new Date(r.created_at) } : null;
 }
 
@@ -56,11 +56,12 @@ export interface JobData extends Record<string, unknown> {
  * The cached row, or a freshly queued one. A row still 'queued' is sent again: the singleton
  * key makes that a no-op while the job waits, and recovers a job lost before it was stored.
  */
-export async function requestComputation<T>(db: EntityManager, req: JobRequest): Promise<CacheRow<T>> {
-  const existing = await readCache<T>(db, req.studyId, req.kind, req.cacheKey);
+export async function requestComputation<T>(req: JobRequest): Promise<CacheRow<T>> {
+  const existing = await readCache<T>(req.studyId, req.kind, req.cacheKey);
   if (existing && existing.status !== 'queued') return existing;
   if (!existing) {
-    await db.execute(
+    await sql(
+      await em(),
       `insert into analysis_result (id, study_id, kind, cache_key, data_version, status, created_at, updated_at)
        values (?, ?, ?, ?, ?, 'queued', now(), now()) on conflict (study_id, kind, cache_key) do nothing`,
       [randomUUID(), req.studyId, req.kind, req.cacheKey, req.dataVersion],
@@ -68,7 +69,7 @@ export async function requestComputation<T>(db: EntityManager, req: JobRequest):
   }
   const data: JobData = { ...req.payload, studyId: req.studyId, kind: req.kind, cacheKey: req.cacheKey, dataVersion: req.dataVersion };
   await enqueue(req.queue, data, `${req.kind}:${req.studyId}:${req.cacheKey}`);
-  return (await readCache<T>(db, req.studyId, req.kind, req.cacheKey))!;
+  return (await readCache<T>(req.studyId, req.kind, req.cacheKey))!;
 }
 
 /**
@@ -76,43 +77,44 @@ export async function requestComputation<T>(db: EntityManager, req: JobRequest):
  * the result. Input the engine cannot fit is a final 'failed' with the engine's message; other
  * errors are rethrown so pg-boss retries, and marked failed only on the last attempt.
  */
-export async function runCached(data: JobData, lastAttempt: boolean, compute: (db: EntityManager) => Promise<Record<string, unknown> | 'obsolete'>): Promise<void> {
-  const db = await em();
-  const row = await readCache(db, data.studyId, data.kind, data.cacheKey);
+export async function runCached(data: JobData, lastAttempt: boolean, compute: () => Promise<Record<string, unknown> | 'obsolete'>): Promise<void> {
+  const row = await readCache(data.studyId, data.kind, data.cacheKey);
   if (!row || row.status === 'done') return;
-  await setStatus(db, data, 'running', null, null);
+  await setStatus(data, 'running', null, null);
   try {
-    const result = await compute(db);
+    const result = await compute();
     if (result === 'obsolete') {
       // The data changed after the job was queued: nobody asks for this key any more.
-      await db.execute('delete from analysis_result where study_id = ? and kind = ? and cache_key = ?', [data.studyId, data.kind, data.cacheKey]);
+      await sql(await em(), 'delete from analysis_result where study_id = ? and kind = ? and cache_key = ?', [data.studyId, data.kind, data.cacheKey]);
       return;
     }
-    await setStatus(db, data, 'done', result, null);
+    await setStatus(data, 'done', result, null);
   } catch (err) {
     if (err instanceof PsychometricsInputError) {
-      await setStatus(db, data, 'failed', null, err.message);
+      await setStatus(data, 'failed', null, err.message);
       return;
     }
-    if (lastAttempt) await setStatus(db, data, 'failed', null, 'The computation failed on our side; change the data or rules to try again.');
+    if (lastAttempt) await setStatus(data, 'failed', null, 'The computation failed on our side; change the data or rules to try again.');
     throw err;
   }
 }
 
-async function setStatus(db: EntityManager, data: JobData, status: CacheStatus, result: Record<string, unknown> | null, error: string | null) {
-  await db.execute(
+async function setStatus(data: JobData, status: CacheStatus, result: Record<string, unknown> | null, error: string | null) {
+  await sql(
+    await em(),
     'update analysis_result set status = ?, result = ?::jsonb, error = ?, updated_at = now() where study_id = ? and kind = ? and cache_key = ?',
     [status, result === null ? null : JSON.stringify(result), error, data.studyId, data.kind, data.cacheKey],
   );
 }
 
 /** The newest finished result of a kind whose options match (shown while a newer one computes). */
-export async function latestDone<T>(db: EntityManager, studyId: string, kind: string, optionsKey: string): Promise<{ result: T; dataVersion: number } | null> {
-  const rows: { result: T; data_version: number }[] = await db.execute(
+export async function latestDone<T>(studyId: string, kind: string, optionsKey: string): Promise<{ result: T; dataVersion: number } | null> {
+  const row = await sqlOne<{ result: T; data_version: number }>(
+    await em(),
     `select result, data_version from analysis_result
       where study_id = ? and kind = ? and status = 'done' and result ->> 'optionsKey' = ?
       order by data_version desc, updated_at desc limit 1`,
     [studyId, kind, optionsKey],
   );
-  return rows[0] ? { result: rows[0].result, dataVersion: rows[0].data_version } : null;
+  return row ? { result: row.result, dataVersion: row.data_version } : null;
 }

@@ -1,13 +1,13 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { Study, type IStudy } from '@/entities/study';
+import type { IStudy } from '@/entities/study';
 import { brokenRules, emptyCounts, type ExclusionCounts, type RespondentQuality } from '@/lib/exclusions';
 import type { ExclusionRuleId, ExclusionRules } from '@/lib/schemas/exclusions.schema';
-import { rulesOrDefault } from '@/lib/schemas/exclusions.schema';
-import type { Cell, CatchCell, Task } from '@/lib/psychometrics/types';
-import { notFoundError } from '@/lib/server/http/errors';
-import { requireUuid } from '@/lib/server/platform/ids';
+import type { StudyDesign } from '@/lib/schemas/study.schema';
+import type { Cell, CatchCell } from '@/lib/psychometrics/types';
 import { em } from '@/lib/server/db/orm';
+import { sql, sqlOne } from '@/lib/server/db/sql';
+import { loadStudy, toDetail, type StudyDetail } from '@/lib/server/studies/studies';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
 // Trials → the engine's cells, after the study's exclusion rules. Aggregation happens in SQL
@@ -15,51 +15,22 @@ import type { WorkspaceContext } from '@/lib/server/team/membership';
 // Only finished respondents count: completed ones and imported ones (drop-outs are fieldwork
 // information, not data for the fit).
 
-export interface StudyInfo {
-  id: string;
-  workspaceId: string;
-  name: string;
-  state: string;
-  task: Task;
-  currency: string;
-  locale: string;
-  itemName: string;
-  category: string;
-  basePrices: number[];
-  ladder: number[];
-  repetitions: number;
-  segmentQuestions: { id: string; text: string; options: string[] }[];
-  exclusionRules: ExclusionRules;
-  dataVersion: number;
-  closedAt: Date | null;
-  updatedAt: Date;
+/**
+ * The study as the analysis returns it: the one study DTO, plus the design facts the results,
+ * print and import pages still read at the top level (copied from `design`, never defaulted
+ * apart). Server code reads `study.design`; once those pages do too, this is StudyDetail.
+ */
+export type StudyInfo = StudyDetail & Pick<StudyDesign, 'task' | 'currency' | 'locale' | 'itemName' | 'category' | 'basePrices' | 'segmentQuestions'>;
+
+export function toStudyInfo(s: IStudy): StudyInfo {
+  const detail = toDetail(s);
+  const { task, currency, locale, itemName, category, basePrices, segmentQuestions } = detail.design;
+  return { ...detail, task, currency, locale, itemName, category, basePrices, segmentQuestions };
 }
 
-type Design = {
-  task?: Task; currency?: string; locale?: string; itemName?: string; category?: string;
-  basePrices?: number[]; ladder?: number[]; repetitions?: number;
-  segmentQuestions?: { id: string; text: string; options: string[] }[];
-};
-
-export function toStudyInfo(s: Pick<IStudy, 'id' | 'workspace' | 'name' | 'state' | 'design' | 'exclusionRules' | 'dataVersion' | 'closedAt' | 'updatedAt'>): StudyInfo {
-  const d = s.design as Design;
-  return {
-    id: s.id, workspaceId: s.workspace.id, name: s.name, state: s.state,
-    task: d.task ?? 'spot', currency: d.currency ?? 'EUR', locale: d.locale ?? 'en-GB',
-    itemName: d.itemName ?? '', category: d.category ?? '',
-    basePrices: [...(d.basePrices ?? [])].sort((a, b) => a - b), ladder: [...(d.ladder ?? [])].sort((a, b) => a - b),
-    repetitions: d.repetitions ?? 1, segmentQuestions: d.segmentQuestions ?? [],
-    exclusionRules: rulesOrDefault(s.exclusionRules), dataVersion: s.dataVersion,
-    closedAt: s.closedAt ?? null, updatedAt: s.updatedAt,
-  };
-}
-
-/** The study if it belongs to the workspace; a foreign or missing id is a 404. */
+/** The study if it belongs to the workspace; a foreign or missing id is a 404 (pages pass em()). */
 export async function findStudy(db: EntityManager, workspaceId: string, studyId: string): Promise<StudyInfo> {
-  requireUuid(studyId, 'That study');
-  const s = await db.findOne(Study, { id: studyId, workspace: workspaceId });
-  if (!s) throw notFoundError('That study');
-  return toStudyInfo(s);
+  return toStudyInfo(await loadStudy(db, workspaceId, studyId));
 }
 
 export interface RespondentRow extends RespondentQuality {
@@ -69,8 +40,9 @@ export interface RespondentRow extends RespondentQuality {
 }
 
 /** Per finished respondent: what the exclusion rules judge. A response time of 0 means not recorded (imports). */
-export async function respondentRows(db: EntityManager, studyId: string): Promise<RespondentRow[]> {
-  const rows: Record<string, unknown>[] = await db.execute(
+export async function respondentRows(studyId: string): Promise<RespondentRow[]> {
+  const rows = await sql(
+    await em(),
     `select r.id, r.segment_answers, r.attention_passed,
             count(t.id) filter (where t.kind = 'catch')::int as catch_n,
             coalesce(sum(t.answer) filter (where t.kind = 'catch'), 0)::int as catch_k,
@@ -128,12 +100,13 @@ export interface CellData { cells: Cell[]; catchCells: CatchCell[] }
  * Cells from the kept respondents, optionally only those who gave `answer` to segment
  * question `questionId`. Discount-0 trials and kind 'catch' both count as catch trials.
  */
-export async function loadCells(db: EntityManager, studyId: string, keptIds: string[], segment?: { questionId: string; answer: string } | null): Promise<CellData> {
+export async function loadCells(studyId: string, keptIds: string[], segment?: { questionId: string; answer: string } | null): Promise<CellData> {
   if (!keptIds.length) return { cells: [], catchCells: [] };
   const params: unknown[] = [studyId, JSON.stringify(keptIds)];
   let segmentSql = '';
   if (segment) { segmentSql = 'and r.segment_answers ->> ? = ?'; params.push(segment.questionId, segment.answer); }
-  const rows: { base_price: number; discount: number; catch: boolean; n: number; k: number }[] = await db.execute(
+  const rows = await sql<{ base_price: number; discount: number; catch: boolean; n: number; k: number }>(
+    await em(),
     `select t.base_price, t.discount, (t.kind = 'catch' or t.discount = 0) as catch, count(*)::int as n, sum(t.answer)::int as k
        from trial t join respondent r on r.id = t.respondent_id
       where t.study_id = ? and t.kind in ('test', 'catch')
@@ -155,13 +128,14 @@ export async function loadCells(db: EntityManager, studyId: string, keptIds: str
 }
 
 /** Whether any finished respondent answered a test trial (cheap check before queueing a fit). */
-export async function hasAnsweredTests(db: EntityManager, studyId: string): Promise<boolean> {
-  const rows: { ok: boolean }[] = await db.execute(
+export async function hasAnsweredTests(studyId: string): Promise<boolean> {
+  const row = await sqlOne<{ ok: boolean }>(
+    await em(),
     `select exists (select 1 from trial t join respondent r on r.id = t.respondent_id
        where t.study_id = ? and t.kind = 'test' and r.state in ('completed', 'imported')) as ok`,
     [studyId],
   );
-  return Boolean(rows[0]?.ok);
+  return Boolean(row?.ok);
 }
 
 /** For pages: the caller's study with its design read for analysis; another workspace's is a 404. */

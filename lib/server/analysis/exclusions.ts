@@ -10,7 +10,7 @@ import { findStudy, respondentRows, screen } from './cells';
 export async function getExclusions(ctx: WorkspaceContext, studyId: string) {
   const db = await em();
   const study = await findStudy(db, ctx.workspace.id, studyId);
-  const { counts } = screen(await respondentRows(db, study.id), study.exclusionRules);
+  const { counts } = screen(await respondentRows(study.id), study.exclusionRules);
   return { rules: study.exclusionRules, counts, dataVersion: study.dataVersion };
 }
 

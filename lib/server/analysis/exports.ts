@@ -5,6 +5,7 @@ import { describeRules } from '@/lib/schemas/exclusions.schema';
 import { fitCautions, modelLabel } from '@/lib/results-text';
 import { getFitState, isPoorFit, type FitState, type Segment } from './study-fit';
 import { em } from '@/lib/server/db/orm';
+import { sql } from '@/lib/server/db/sql';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import { csvFile, jsonFile, type FileDownload, type PendingFile } from '@/lib/server/http/download';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
@@ -24,7 +25,7 @@ async function readyFits(ctx: WorkspaceContext, studyId: string, segmentQuestion
   const all = await getFitState(ctx, studyId);
   const groups: { segment: Segment | null; state: FitState }[] = [];
   if (segmentQuestion) {
-    const q = all.study.segmentQuestions.find((x) => x.id === segmentQuestion);
+    const q = all.study.design.segmentQuestions.find((x) => x.id === segmentQuestion);
     if (!q) throw new AppError(422, 'validation_failed', `This study has no segment question "${segmentQuestion}".`);
     for (const answer of q.options) {
       const segment = { questionId: q.id, answer };
@@ -38,14 +39,14 @@ async function readyFits(ctx: WorkspaceContext, studyId: string, segmentQuestion
 
 function about(state: FitState, report: AnalysisReport, segmentQuestion: string | null) {
   const s = state.study;
-  const q = segmentQuestion ? s.segmentQuestions.find((x) => x.id === segmentQuestion) : null;
+  const q = segmentQuestion ? s.design.segmentQuestions.find((x) => x.id === segmentQuestion) : null;
   return {
     study: s.name,
     studyId: s.id,
-    item: s.itemName,
-    category: s.category,
-    currency: s.currency,
-    task: s.task,
+    item: s.design.itemName,
+    category: s.design.category,
+    currency: s.design.currency,
+    task: s.design.task,
     dataVersion: s.dataVersion,
     generatedAt: new Date().toISOString(),
     exclusionRules: describeRules(s.exclusionRules),
@@ -63,7 +64,7 @@ function about(state: FitState, report: AnalysisReport, segmentQuestion: string 
 }
 
 function thresholdRows(state: FitState, report: AnalysisReport, segment: Segment | null, questionText: string | null) {
-  const cur = state.study.currency;
+  const cur = state.study.design.currency;
   return report.bases.map((b) => ({
     'Segment question': questionText ?? '',
     'Segment answer': segment?.answer ?? 'All respondents',
@@ -85,7 +86,7 @@ function thresholdRows(state: FitState, report: AnalysisReport, segment: Segment
 
 async function thresholds(ctx: WorkspaceContext, studyId: string, segmentQuestion: string | null) {
   const { all, groups } = await readyFits(ctx, studyId, segmentQuestion);
-  const q = segmentQuestion ? all.study.segmentQuestions.find((x) => x.id === segmentQuestion)! : null;
+  const q = segmentQuestion ? all.study.design.segmentQuestions.find((x) => x.id === segmentQuestion)! : null;
   const rows = groups.flatMap((g) => g.state.fit.status === 'ready' ? thresholdRows(g.state, g.state.fit.report, g.segment, q?.text ?? null) : []);
   const report = all.fit.status === 'ready' ? all.fit.report : null;
   return { all, report: report!, rows };
@@ -114,15 +115,16 @@ export async function exportFile(ctx: WorkspaceContext, studyId: string, file: E
 export async function trialsCsv(ctx: WorkspaceContext, studyId: string): Promise<string> {
   const db = await em();
   const study = await findStudy(db, ctx.workspace.id, studyId);
-  const { excluded } = screen(await respondentRows(db, study.id), study.exclusionRules);
-  const rows: { rid: string; source: string | null; seg: Record<string, string>; att: boolean | null; base_price: number; discount: number; kind: string; answer: number; response_ms: number }[] = await db.execute(
+  const { excluded } = screen(await respondentRows(study.id), study.exclusionRules);
+  const rows = await sql<{ rid: string; source: string | null; seg: Record<string, string>; att: boolean | null; base_price: number; discount: number; kind: string; answer: number; response_ms: number }>(
+    db,
     `select r.id as rid, l.source, r.segment_answers as seg, r.attention_passed as att, t.base_price, t.discount, t.kind, t.answer, t.response_ms
        from trial t join respondent r on r.id = t.respondent_id left join respondent_link l on l.id = r.link_id
       where t.study_id = ? and r.workspace_id = ? and r.state in ('completed', 'imported') and t.kind in ('test', 'catch')
       order by r.started_at, r.id, t.idx`,
     [study.id, ctx.workspace.id],
   );
-  const qs = study.segmentQuestions;
+  const qs = study.design.segmentQuestions;
   const header = ['respondent', 'link_source', ...qs.map((q) => `segment_${q.id}`), 'attention_passed', 'base_price', 'discount', 'kind', 'response', 'response_ms', 'excluded_by'];
   return toCsv(header, rows.map((r) => [
     r.rid, r.source ?? '', ...qs.map((q) => r.seg?.[q.id] ?? ''), r.att === null ? '' : r.att,

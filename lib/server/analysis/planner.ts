@@ -3,7 +3,6 @@ import { assumedObserver, respondentsForWidth } from '@/lib/psychometrics/planne
 import { hashKey, requestComputation, runCached, type JobData } from './cache';
 import { fitCacheKey, getFitState, FIT_SEED } from './study-fit';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
-import { em } from '@/lib/server/db/orm';
 
 // Sample-size planner on the current fit: simulate this design (its base prices, ladder and
 // repetitions) under the fitted thresholds, slope, lapse and guess rate, and search the
@@ -31,13 +30,12 @@ export async function getPlan(ctx: WorkspaceContext, studyId: string, widthPoint
   const report = fit.fit.report;
   const assumed = assumedObserver(report.bases);
   const payload = {
-    widthPoints, assumed, task: s.task, rungs: s.ladder, repetitions: s.repetitions,
+    widthPoints, assumed, task: s.design.task, rungs: s.design.ladder, repetitions: s.design.repetitions,
     currentCompletes: fit.counts?.respondents.after ?? 0,
     bases: report.bases.map((b) => ({ basePrice: b.basePrice, alpha: Math.log(b.threshold.fraction), fraction: b.threshold.fraction, ci: b.threshold.fractionCi })),
   };
-  const db = await em();
   const cacheKey = hashKey({ fit: fitCacheKey(s, {}).cacheKey, widthPoints, sims: PLANNER_SIMULATIONS });
-  const row = await requestComputation<PlannerResult>(db, { studyId: s.id, kind: 'planner', cacheKey, dataVersion: s.dataVersion, queue: 'planner', payload });
+  const row = await requestComputation<PlannerResult>({ studyId: s.id, kind: 'planner', cacheKey, dataVersion: s.dataVersion, queue: 'planner', payload });
   if (row.status === 'done' && row.result) return { status: 'ready', result: row.result };
   if (row.status === 'failed') return { status: 'empty', message: row.error ?? 'The planner could not run.' };
   return { status: 'pending', message: `Simulating ${PLANNER_SIMULATIONS} studies per candidate sample size…` };

@@ -23,11 +23,11 @@ export type SegmentState =
 export async function getSegmentComparison(ctx: WorkspaceContext, studyId: string, questionId: string): Promise<SegmentState> {
   const db = await em();
   const study = await findStudy(db, ctx.workspace.id, studyId);
-  const q = study.segmentQuestions.find((x) => x.id === questionId);
+  const q = study.design.segmentQuestions.find((x) => x.id === questionId);
   if (!q) throw new AppError(422, 'validation_failed', 'This study has no such segment question.');
-  if (!(await hasAnsweredTests(db, study.id))) return { status: 'empty', message: 'No finished respondent has answered a test trial yet.' };
+  if (!(await hasAnsweredTests(study.id))) return { status: 'empty', message: 'No finished respondent has answered a test trial yet.' };
   const cacheKey = hashKey({ v: study.dataVersion, rules: study.exclusionRules, questionId, b: SEGMENT_BOOTSTRAP, seed: FIT_SEED });
-  const row = await requestComputation<SegmentResult>(db, {
+  const row = await requestComputation<SegmentResult>({
     studyId: study.id, kind: 'segments', cacheKey, dataVersion: study.dataVersion, queue: 'analysis', payload: { questionId },
   });
   if (row.status === 'done' && row.result) return { status: 'ready', result: row.result, questionText: q.text };
@@ -36,10 +36,10 @@ export async function getSegmentComparison(ctx: WorkspaceContext, studyId: strin
 }
 
 export async function runSegmentsJob(data: JobData & { questionId: string }, lastAttempt = true) {
-  await runCached(data, lastAttempt, async (db) => {
-    const loaded = await loadFitInput(db, data.studyId, data.dataVersion, null);
+  await runCached(data, lastAttempt, async () => {
+    const loaded = await loadFitInput(data.studyId, data.dataVersion, null);
     if (loaded === 'obsolete') return 'obsolete';
-    const q = loaded.study.segmentQuestions.find((x) => x.id === data.questionId);
+    const q = loaded.study.design.segmentQuestions.find((x) => x.id === data.questionId);
     if (!q) throw new PsychometricsInputError('the segment question no longer exists');
     const groups = [];
     const respondents: Record<string, number> = {};
@@ -47,12 +47,12 @@ export async function runSegmentsJob(data: JobData & { questionId: string }, las
     for (const answer of q.options) {
       const ids = loaded.kept.filter((r) => r.segmentAnswers[q.id] === answer).map((r) => r.id);
       respondents[answer] = ids.length;
-      const cells = await loadCells(db, data.studyId, ids);
+      const cells = await loadCells(data.studyId, ids);
       if (!cells.cells.length) { skipped.push(answer); continue; }
-      groups.push({ label: answer, cells: cells.cells, catchCells: loaded.study.task === 'spot' ? cells.catchCells : [] });
+      groups.push({ label: answer, cells: cells.cells, catchCells: loaded.study.design.task === 'spot' ? cells.catchCells : [] });
     }
     if (groups.length < 2) throw new PsychometricsInputError('fewer than two answer groups have data, so there is nothing to compare');
-    const result = compareGroups(groups, { task: loaded.study.task, bootstrap: SEGMENT_BOOTSTRAP, seed: FIT_SEED });
+    const result = compareGroups(groups, { task: loaded.study.design.task, bootstrap: SEGMENT_BOOTSTRAP, seed: FIT_SEED });
     return { ...result, respondents, skipped } as SegmentResult;
   });
 }

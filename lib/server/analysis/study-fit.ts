@@ -1,5 +1,4 @@
 import 'server-only';
-import type { EntityManager } from '@mikro-orm/postgresql';
 import { Study } from '@/entities/study';
 import { analyse } from '@/lib/psychometrics/analyse';
 import { chiSquareP } from '@/lib/psychometrics/chi2';
@@ -10,8 +9,10 @@ import { poorFitReason } from '@/lib/results-text';
 import type { ExclusionRules } from '@/lib/schemas/exclusions.schema';
 import { hashKey, latestDone, requestComputation, runCached, type CacheRow, type JobData } from './cache';
 import { em } from '@/lib/server/db/orm';
+import { sql } from '@/lib/server/db/sql';
+import { toDetail, type StudyDetail } from '@/lib/server/studies/studies';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
-import { findStudy, hasAnsweredTests, loadCells, respondentRows, screen, toStudyInfo, type StudyInfo } from './cells';
+import { findStudy, hasAnsweredTests, loadCells, respondentRows, screen, type StudyInfo } from './cells';
 
 // The fitted study: per-base fits and the joint Weber models with bootstrap intervals, computed
 // by the 'analysis' job and cached per data version, exclusion rules and options.
@@ -43,7 +44,7 @@ function optionsKeyOf(rules: ExclusionRules, opts: FitOptions): string {
   return hashKey({ rules, segment: opts.segment ?? null, target: opts.target ?? null, bootstrap: FIT_BOOTSTRAP, seed: FIT_SEED });
 }
 
-export function fitCacheKey(study: Pick<StudyInfo, 'dataVersion' | 'exclusionRules'>, opts: FitOptions) {
+export function fitCacheKey(study: Pick<StudyDetail, 'dataVersion' | 'exclusionRules'>, opts: FitOptions) {
   const optionsKey = optionsKeyOf(study.exclusionRules, opts);
   return { optionsKey, cacheKey: hashKey({ v: study.dataVersion, optionsKey }) };
 }
@@ -75,10 +76,10 @@ export async function getFitState(ctx: WorkspaceContext, studyId: string, opts: 
   const study = await findStudy(db, ctx.workspace.id, studyId);
   const { cacheKey, optionsKey } = fitCacheKey(study, opts);
   const base = { study, counts: null, cells: null, previous: null, job: null };
-  if (!(await hasAnsweredTests(db, study.id))) {
+  if (!(await hasAnsweredTests(study.id))) {
     return { ...base, fit: { status: 'empty', message: 'No finished respondent has answered a test trial yet.' } };
   }
-  const row = await requestComputation<FitResult>(db, {
+  const row = await requestComputation<FitResult>({
     studyId: study.id, kind: 'fit', cacheKey, dataVersion: study.dataVersion, queue: 'analysis',
     payload: { segment: opts.segment ?? null, target: opts.target ?? null },
   });
@@ -89,14 +90,14 @@ export async function getFitState(ctx: WorkspaceContext, studyId: string, opts: 
       poorFitWhy: isPoorFit(r.report) ? poorFitReason(r.report, preferredP(r.report)) : null,
       fit: {
         status: 'ready', report: r.report, dataVersion: study.dataVersion, exclusionRules: study.exclusionRules,
-        poorFit: isPoorFit(r.report), task: study.task, currency: study.currency, locale: study.locale,
+        poorFit: isPoorFit(r.report), task: study.design.task, currency: study.design.currency, locale: study.design.locale,
         basePrices: r.report.bases.map((b) => b.basePrice), segment: opts.segment ?? null,
       },
     };
   }
   const job = { status: row.status, since: row.updatedAt.toISOString() };
   if (row.status === 'failed') return { ...base, job, fit: { status: 'empty', message: row.error ?? 'The fit could not be computed.' } };
-  const prev = await latestDone<FitResult>(db, study.id, 'fit', optionsKey);
+  const prev = await latestDone<FitResult>(study.id, 'fit', optionsKey);
   return {
     ...base, job,
     previous: prev ? { report: prev.result.report, counts: prev.result.counts, cells: prev.result.cells, catchCells: prev.result.catchCells, dataVersion: prev.dataVersion } : null,
@@ -110,30 +111,31 @@ export async function getStudyFit(ctx: WorkspaceContext, studyId: string, opts: 
 
 /** Job handler of kind 'fit' (also called directly by tests). */
 export async function runFitJob(data: JobData & { segment: Segment | null; target: number | null }, lastAttempt = true): Promise<void> {
-  await runCached(data, lastAttempt, async (db) => {
+  await runCached(data, lastAttempt, async () => {
     const started = Date.now();
-    const loaded = await loadFitInput(db, data.studyId, data.dataVersion, data.segment);
+    const loaded = await loadFitInput(data.studyId, data.dataVersion, data.segment);
     if (loaded === 'obsolete') return 'obsolete';
     const { study, cells, catchCells, counts } = loaded;
     const report = analyse({
-      cells, catchCells: study.task === 'spot' ? catchCells : [], task: study.task,
+      cells, catchCells: study.design.task === 'spot' ? catchCells : [], task: study.design.task,
       target: data.target ?? undefined, bootstrap: FIT_BOOTSTRAP, seed: FIT_SEED,
     });
-    if (study.task !== 'spot' && catchCells.length) report.warnings.push(`catch trials ignored: the ${study.task} task does not estimate a guess rate from them`);
+    if (study.design.task !== 'spot' && catchCells.length) report.warnings.push(`catch trials ignored: the ${study.design.task} task does not estimate a guess rate from them`);
     const result: FitResult = { report, counts, cells, catchCells, optionsKey: optionsKeyOf(study.exclusionRules, { segment: data.segment, target: data.target ?? undefined }), computedMs: Date.now() - started };
     return result;
   });
 }
 
 /** Study, screened cells and counts at exactly `dataVersion`, or 'obsolete' when the data moved on. */
-export async function loadFitInput(db: EntityManager, studyId: string, dataVersion: number, segment: Segment | null) {
+export async function loadFitInput(studyId: string, dataVersion: number, segment: Segment | null) {
+  const db = await em();
   const s = await db.findOne(Study, { id: studyId }, { refresh: true });
   if (!s || s.dataVersion !== dataVersion) return 'obsolete' as const;
-  const study = toStudyInfo(s);
-  const rows = await respondentRows(db, studyId);
+  const study = toDetail(s);
+  const rows = await respondentRows(studyId);
   const { counts, kept } = screen(rows, study.exclusionRules);
   const inSegment = segment ? kept.filter((r) => r.segmentAnswers[segment.questionId] === segment.answer) : kept;
-  const { cells, catchCells } = await loadCells(db, studyId, inSegment.map((r) => r.id));
+  const { cells, catchCells } = await loadCells(studyId, inSegment.map((r) => r.id));
   const again = await db.findOne(Study, { id: studyId }, { refresh: true, fields: ['dataVersion'] });
   if (!again || again.dataVersion !== dataVersion) return 'obsolete' as const;
   return { study, cells, catchCells, counts, kept };
@@ -142,7 +144,8 @@ export async function loadFitInput(db: EntityManager, studyId: string, dataVersi
 /** Studies with answered test trials, for pickers (promotion plans, exports). */
 export async function listFittableStudies(ctx: WorkspaceContext) {
   const db = await em();
-  const rows: { id: string }[] = await db.execute(
+  const rows = await sql<{ id: string }>(
+    db,
     `select s.id from study s where s.workspace_id = ? and exists (
        select 1 from trial t join respondent r on r.id = t.respondent_id
         where t.study_id = s.id and t.kind = 'test' and r.state in ('completed', 'imported'))`,
@@ -151,7 +154,7 @@ export async function listFittableStudies(ctx: WorkspaceContext) {
   if (!rows.length) return [];
   const studies = await db.find(Study, { id: { $in: rows.map((r) => r.id) }, workspace: ctx.workspace.id }, { orderBy: { name: 'asc' } });
   return studies.map((s) => {
-    const i = toStudyInfo(s);
-    return { id: i.id, name: i.name, state: i.state, task: i.task, currency: i.currency, basePrices: i.basePrices, segmentQuestions: i.segmentQuestions };
+    const { id, name, state, design } = toDetail(s);
+    return { id, name, state, task: design.task, currency: design.currency, basePrices: design.basePrices, segmentQuestions: design.segmentQuestions };
   });
 }

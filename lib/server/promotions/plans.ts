@@ -10,6 +10,7 @@ import { unreachableTarget } from '@/lib/promo/floor-table';
 import { getStudyFit } from '@/lib/server/analysis/study-fit';
 import { recordAudit } from '@/lib/server/team/audit';
 import { em } from '@/lib/server/db/orm';
+import { lockKey } from '@/lib/server/db/sql';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import { isUuid } from '@/lib/server/platform/ids';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
@@ -89,7 +90,7 @@ export async function createPromoPlan(ctx: WorkspaceContext, input: PromoPlanCre
   };
   const id = await db.transactional(async (tx) => {
     // Serialises plan creation per workspace so a double-submitted form stores one plan.
-    await tx.getConnection().execute('select pg_advisory_xact_lock(hashtext(?))', [`promo_plan:${ctx.workspace.id}`], 'all', tx.getTransactionContext());
+    await lockKey(tx, `promo_plan:${ctx.workspace.id}`);
     if (await tx.count(PromoPlan, { workspace: ctx.workspace.id, name: input.name })) {
       throw new AppError(409, 'conflict', `A plan named “${input.name}” already exists in this workspace.`, [{ path: 'name', message: 'A plan with this name already exists.' }]);
     }

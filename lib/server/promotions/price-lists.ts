@@ -6,10 +6,15 @@ import { parsePriceList, type ParsedPriceList, type UploadIssue } from '@/lib/pr
 import type { PlanItem } from '@/lib/promo/floor-table';
 import { recordAudit } from '@/lib/server/team/audit';
 import { em } from '@/lib/server/db/orm';
+import { lockKey } from '@/lib/server/db/sql';
+import { insertPriceListItems, readPriceListItems } from './price-list-items';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import { requireUuid } from '@/lib/server/platform/ids';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 import { zodIssues } from '@/lib/server/http/route';
+
+// Item price lists for promotion plans: an upload is read (multipart or raw CSV), validated row
+// by row and stored all-or-nothing; then listed, read back for plans, and deleted.
 
 export interface PriceListDto {
   id: string;
@@ -64,8 +69,6 @@ export type PriceListPreview = ReturnType<typeof previewDto>;
 
 const issuePath = (i: UploadIssue) => (i.row === null ? `file${i.column ? `.${i.column}` : ''}` : `rows.${i.row}${i.column ? `.${i.column}` : ''}`);
 
-const CHUNK = 10_000;
-
 /** Stores a valid list in one transaction (multi-row inserts in chunks); nothing on any error. */
 export async function createPriceList(ctx: WorkspaceContext, meta: PriceListMeta, text: string): Promise<PriceListDto> {
   const parsed = parsePriceList(text);
@@ -75,28 +78,16 @@ export async function createPriceList(ctx: WorkspaceContext, meta: PriceListMeta
   }
   const db = await em();
   const id = await db.transactional(async (tx) => {
-    const knex = tx.getConnection().getKnex();
-    const trx = tx.getTransactionContext();
     // Serialises uploads per workspace so a double-submitted form cannot store the list twice.
-    await knex.raw('select pg_advisory_xact_lock(hashtext(?))', [`price_list:${ctx.workspace.id}`]).transacting(trx);
+    await lockKey(tx, `price_list:${ctx.workspace.id}`);
     if (await tx.count(PriceList, { workspace: ctx.workspace.id, name: meta.name })) {
       throw new AppError(409, 'conflict', `A price list named “${meta.name}” already exists in this workspace.`, [{ path: 'name', message: 'A price list with this name already exists.' }]);
     }
     const list = tx.create(PriceList, { workspace: ctx.workspace.id, name: meta.name, currency: meta.currency, itemCount: parsed.rows.length, createdBy: ctx.user.id });
     await tx.flush();
-    // One multi-row INSERT per chunk, the rows passed as a single JSON parameter: far cheaper
-    // to build and send than one placeholder per cell.
-    for (let i = 0; i < parsed.rows.length; i += CHUNK) {
-      const chunk = parsed.rows.slice(i, i + CHUNK).map((r) => ({ row: r.row, sku: r.sku, name: r.name, regular_price: r.regular_price, unit_cost: r.unit_cost, category: r.category }));
-      await knex
-        .raw(
-          `insert into price_list_item (price_list_id, "row", sku, name, regular_price, unit_cost, category)
-           select ?::uuid, r."row", r.sku, r.name, r.regular_price, r.unit_cost, r.category
-             from json_to_recordset(?::json) as r("row" int, sku text, name text, regular_price float8, unit_cost float8, category text)`,
-          [list.id, JSON.stringify(chunk)],
-        )
-        .transacting(trx);
-    }
+    await insertPriceListItems(tx, list.id, parsed.rows.map((r) => ({
+      row: r.row, sku: r.sku, name: r.name, regularPrice: r.regular_price, unitCost: r.unit_cost, category: r.category,
+    })));
     await recordAudit(tx, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'price_list.uploaded', target: meta.name, detail: { priceListId: list.id, items: parsed.rows.length, currency: meta.currency } });
     return list.id;
   });
@@ -124,17 +115,11 @@ export async function listPriceLists(ctx: WorkspaceContext): Promise<PriceListDt
   return rows.map(toDto);
 }
 
-/** The items in file order, read with one plain query (50,000 rows would be slow as entities). */
+/** The items of one of the workspace's lists, in file order. */
 export async function loadPriceListItems(ctx: WorkspaceContext, id: string): Promise<PlanItem[]> {
   const db = await em();
   await findList(db, ctx, id);
-  const rows: { sku: string; name: string; regular_price: number; unit_cost: number | null; category: string | null }[] = await db
-    .getConnection()
-    .getKnex()('price_list_item')
-    .select('sku', 'name', 'regular_price', 'unit_cost', 'category')
-    .where('price_list_id', id)
-    .orderBy('row');
-  return rows.map((r) => ({ sku: r.sku, name: r.name, regularPrice: r.regular_price, unitCost: r.unit_cost, category: r.category }));
+  return readPriceListItems(db, id);
 }
 
 export async function deletePriceList(ctx: WorkspaceContext, id: string): Promise<void> {

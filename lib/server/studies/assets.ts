@@ -1,6 +1,7 @@
 import 'server-only';
 import { StudyAsset } from '@/entities/study-asset';
 import { em } from '@/lib/server/db/orm';
+import { sqlOne } from '@/lib/server/db/sql';
 import { AppError } from '@/lib/server/http/errors';
 import { recordAudit } from '@/lib/server/team/audit';
 import { isUuid } from '@/lib/server/platform/ids';
@@ -49,6 +50,6 @@ export async function savePicture(ctx: WorkspaceContext, file: unknown): Promise
 export async function readPicture(id: string): Promise<{ contentType: string; bytes: Buffer } | null> {
   if (!isUuid(id)) return null;
   const db = await em();
-  const rows = await db.getConnection().execute<{ content_type: string; bytes: Buffer }[]>('select content_type, bytes from study_asset where id = ?', [id]);
-  return rows[0] ? { contentType: rows[0].content_type, bytes: rows[0].bytes } : null;
+  const row = await sqlOne<{ content_type: string; bytes: Buffer }>(db, 'select content_type, bytes from study_asset where id = ?', [id]);
+  return row ? { contentType: row.content_type, bytes: row.bytes } : null;
 }

@@ -1,7 +1,8 @@
 import 'server-only';
-import type { StudyDesign } from '@/lib/schemas/study.schema';
+import { readDesign } from '@/lib/schemas/study.schema';
 import type { StudyStateName } from '@/lib/study-states';
 import { em } from '@/lib/server/db/orm';
+import { sql } from '@/lib/server/db/sql';
 import { loadStudy } from './studies';
 import { seatBalance } from '@/lib/server/billing/seat-ledger';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
@@ -32,11 +33,11 @@ const key = (v: number) => Number(v).toFixed(6);
 
 export async function getFieldwork(ctx: WorkspaceContext, studyId: string): Promise<FieldworkDto> {
   const db = await em();
-  const study = await loadStudy(db, ctx, studyId);
-  const design = study.design as unknown as StudyDesign;
-  const conn = db.getConnection();
+  const study = await loadStudy(db, ctx.workspace.id, studyId);
+  const design = readDesign(study.design, study.state);
   // Last activity: the latest answer, or the start (lastSeenAt too, should the flow touch it).
-  const [status] = await conn.execute<{ completes: string; in_progress: string; drop_outs: string }[]>(
+  const [status] = await sql<{ completes: string; in_progress: string; drop_outs: string }>(
+    db,
     `select count(*) filter (where r.state = 'completed') as completes,
             count(*) filter (where r.state = 'started' and a.last_at > now() - make_interval(mins => ?)) as in_progress,
             count(*) filter (where r.state = 'started' and a.last_at <= now() - make_interval(mins => ?)) as drop_outs
@@ -45,13 +46,15 @@ export async function getFieldwork(ctx: WorkspaceContext, studyId: string): Prom
       where r.study_id = ? and r.workspace_id = ?`,
     [DROP_OUT_MINUTES, DROP_OUT_MINUTES, study.id, ctx.workspace.id],
   );
-  const perLink = await conn.execute<{ id: string; source: string; closed_at: Date | null; completes: string }[]>(
+  const perLink = await sql<{ id: string; source: string; closed_at: Date | null; completes: string }>(
+    db,
     `select l.id, l.source, l.closed_at, count(r.id) filter (where r.state = 'completed') as completes
        from respondent_link l left join respondent r on r.link_id = l.id
       where l.study_id = ? and l.workspace_id = ? group by l.id order by l.created_at`,
     [study.id, ctx.workspace.id],
   );
-  const cellRows = await conn.execute<{ kind: string; base_price: number; discount: number; n: string }[]>(
+  const cellRows = await sql<{ kind: string; base_price: number; discount: number; n: string }>(
+    db,
     `select kind, base_price, discount, count(*) as n from trial
       where study_id = ? and kind in ('test', 'catch') group by kind, base_price, discount`,
     [study.id],

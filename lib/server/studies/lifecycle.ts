@@ -1,12 +1,11 @@
 import 'server-only';
 import { Study } from '@/entities/study';
-import { studyDesignSchema } from '@/lib/schemas/study.schema';
+import { StoredDesignError, readDesign } from '@/lib/schemas/study.schema';
 import { STUDY_STATE_LABELS, TRANSITIONS, type StudyAction, type StudyStateName } from '@/lib/study-states';
 import { em } from '@/lib/server/db/orm';
 import { AppError } from '@/lib/server/http/errors';
 import { recordAudit } from '@/lib/server/team/audit';
 import { loadStudy, toDetail, type StudyDetail } from './studies';
-import { zodIssues } from '@/lib/server/http/route';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
 const AUDIT_ACTIONS: Record<StudyAction, string> = { launch: 'study.launched', pause: 'study.paused', resume: 'study.resumed', close: 'study.closed' };
@@ -14,7 +13,7 @@ const AUDIT_ACTIONS: Record<StudyAction, string> = { launch: 'study.launched', p
 /** Moves a study along draft → live ⇄ paused → closed; any other move is a 409. */
 export async function changeStudyState(ctx: WorkspaceContext, id: string, action: StudyAction): Promise<StudyDetail> {
   const db = await em();
-  const study = await loadStudy(db, ctx, id);
+  const study = await loadStudy(db, ctx.workspace.id, id);
   const t = TRANSITIONS[action];
   if (!t.from.includes(study.state)) {
     throw new AppError(409, 'conflict', `A ${STUDY_STATE_LABELS[study.state as StudyStateName].toLowerCase()} study cannot be ${action === 'launch' ? 'launched' : action === 'close' ? 'closed' : action === 'pause' ? 'paused' : 'resumed'}.`);
@@ -22,9 +21,14 @@ export async function changeStudyState(ctx: WorkspaceContext, id: string, action
   const now = new Date();
   const changes: Partial<{ state: typeof t.to; launchedAt: Date; closedAt: Date; updatedAt: Date }> = { state: t.to, updatedAt: now };
   if (action === 'launch') {
-    // The stored design was valid when saved; check again so nothing unrunnable goes live.
-    const parsed = studyDesignSchema.safeParse(study.design);
-    if (!parsed.success) throw new AppError(409, 'conflict', 'The design is not complete enough to launch; edit the draft first.', zodIssues(parsed.error));
+    // Read as a live study's design is read: with every limit of the builder (a draft copied
+    // from an import may not meet them yet), so nothing unrunnable goes live.
+    try {
+      readDesign(study.design, t.to);
+    } catch (err) {
+      if (err instanceof StoredDesignError) throw new AppError(409, 'conflict', 'The design is not complete enough to launch; edit the draft first.', err.issues);
+      throw err;
+    }
     changes.launchedAt = now;
   }
   if (action === 'close') changes.closedAt = now;

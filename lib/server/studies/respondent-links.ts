@@ -3,6 +3,7 @@ import { RespondentLink } from '@/entities/respondent-link';
 import type { z } from 'zod';
 import type { respondentLinkSchema } from '@/lib/schemas/respondent-link.schema';
 import { em } from '@/lib/server/db/orm';
+import { sql } from '@/lib/server/db/sql';
 import { env } from '@/lib/server/platform/env';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import { recordAudit } from '@/lib/server/team/audit';
@@ -43,9 +44,10 @@ function toDto(l: { id: string; source: string; token: string; quota?: number | 
 
 export async function listLinks(ctx: WorkspaceContext, studyId: string): Promise<RespondentLinkDto[]> {
   const db = await em();
-  const study = await loadStudy(db, ctx, studyId);
+  const study = await loadStudy(db, ctx.workspace.id, studyId);
   const links = await db.find(RespondentLink, { study: study.id, workspace: ctx.workspace.id }, { orderBy: { createdAt: 'asc' } });
-  const rows = await db.getConnection().execute<{ link_id: string; completes: string; started: string }[]>(
+  const rows = await sql<{ link_id: string; completes: string; started: string }>(
+    db,
     `select link_id, count(*) filter (where state = 'completed') as completes, count(*) as started
        from respondent where study_id = ? and workspace_id = ? and link_id is not null group by link_id`,
     [study.id, ctx.workspace.id],
@@ -56,7 +58,7 @@ export async function listLinks(ctx: WorkspaceContext, studyId: string): Promise
 
 export async function createLink(ctx: WorkspaceContext, studyId: string, input: z.output<typeof respondentLinkSchema>): Promise<RespondentLinkDto> {
   const db = await em();
-  const study = await loadStudy(db, ctx, studyId);
+  const study = await loadStudy(db, ctx.workspace.id, studyId);
   if (study.state === 'closed' || study.state === 'imported') throw new AppError(409, 'conflict', 'This study is closed; it takes no new links.');
   const link = db.create(RespondentLink, { workspace: ctx.workspace.id, study: study.id, token: newLinkToken(), source: input.source, quota: input.quota, acceptsPid: input.acceptsPid });
   await db.flush();
@@ -66,7 +68,7 @@ export async function createLink(ctx: WorkspaceContext, studyId: string, input: 
 
 async function loadLink(ctx: WorkspaceContext, studyId: string, linkId: string) {
   const db = await em();
-  const study = await loadStudy(db, ctx, studyId);
+  const study = await loadStudy(db, ctx.workspace.id, studyId);
   const link = isUuid(linkId) ? await db.findOne(RespondentLink, { id: linkId, study: study.id, workspace: ctx.workspace.id }) : null;
   if (!link) throw notFoundError('That link');
   return { db, study, link };

@@ -1,5 +1,4 @@
 import 'server-only';
-import { randomBytes, randomUUID } from 'node:crypto';
 import Papa from 'papaparse';
 import { Study } from '@/entities/study';
 import { DEFAULT_EXCLUSION_RULES } from '@/lib/schemas/exclusions.schema';
@@ -7,15 +6,18 @@ import {
   IMPORT_MAX_BYTES, OPTIONAL_COLUMNS, REQUIRED_COLUMNS, SEGMENT_PREFIX, importRowSchema,
   type ImportRow, type ImportedStudyInput,
 } from '@/lib/schemas/import.schema';
-import { DEFAULT_CONSENT } from '@/lib/schemas/study.schema';
+import { DEFAULT_CONSENT, StoredDesignError, readDesign, type StudyDesign } from '@/lib/schemas/study.schema';
 import { recordAudit } from '@/lib/server/team/audit';
 import { em } from '@/lib/server/db/orm';
-import { AppError, notFoundError } from '@/lib/server/http/errors';
-import { requireUuid } from '@/lib/server/platform/ids';
+import { sql } from '@/lib/server/db/sql';
+import { AppError } from '@/lib/server/http/errors';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
+import { insertFinishedRespondents, type FinishedRespondent } from './finished-respondents';
+import { loadStudy } from './studies';
 
 // Response import: parse (papaparse), validate every row (zod), and only when the whole file is
-// valid write respondents and trials in one transaction. Errors name their row (header = row 1).
+// valid write respondents, trials, the data-version bump and the audit event in one
+// transaction, so a failure at any row leaves nothing behind. Errors name their row (header = row 1).
 
 export interface ImportIssue { row: number; message: string }
 export interface ImportCheck {
@@ -35,7 +37,8 @@ export function sizeError() {
   return new AppError(413, 'payload_too_large', `The file is larger than ${IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files and import them one after another.`);
 }
 
-interface Parsed { check: ImportCheck; valid: (ImportRow & { segments: Record<string, string> })[] }
+type ValidRow = ImportRow & { segments: Record<string, string> };
+interface Parsed { check: ImportCheck; valid: ValidRow[] }
 
 export function checkCsv(text: string, opts: { allowedBasePrices?: number[]; existingRefs?: Set<string> } = {}): Parsed {
   const errors: ImportIssue[] = [];
@@ -83,13 +86,11 @@ export function checkCsv(text: string, opts: { allowedBasePrices?: number[]; exi
 }
 
 async function loadTarget(ctx: WorkspaceContext, studyId: string) {
-  requireUuid(studyId, 'That study');
   const db = await em();
-  const s = await db.findOne(Study, { id: studyId, workspace: ctx.workspace.id });
-  if (!s) throw notFoundError('That study');
+  const s = await loadStudy(db, ctx.workspace.id, studyId);
   if (s.state !== 'closed' && s.state !== 'imported') throw new AppError(409, 'conflict', 'Responses can be imported only into a closed study or one created by an import.');
-  const refs: { external_ref: string }[] = await db.execute('select external_ref from respondent where study_id = ? and external_ref is not null', [s.id]);
-  const basePrices = s.state === 'closed' ? ((s.design as { basePrices?: number[] }).basePrices ?? []) : undefined;
+  const refs = await sql<{ external_ref: string }>(db, 'select external_ref from respondent where study_id = ? and external_ref is not null', [s.id]);
+  const basePrices = s.state === 'closed' ? readDesign(s.design, s.state).basePrices : undefined;
   return { db, study: s, existingRefs: new Set(refs.map((r) => r.external_ref)), basePrices };
 }
 
@@ -98,72 +99,70 @@ export async function importIntoStudy(ctx: WorkspaceContext, studyId: string, te
   const { db, study, existingRefs, basePrices } = await loadTarget(ctx, studyId);
   const { check, valid } = checkCsv(text, { allowedBasePrices: basePrices, existingRefs });
   if (!check.ok || dryRun) return { check, imported: null };
-  await db.getKnex().transaction(async (trx) => {
-    await writeRows(trx, ctx.workspace.id, study.id, valid);
-    await trx('study').where({ id: study.id, workspace_id: ctx.workspace.id }).update({ data_version: trx.raw('data_version + 1'), updated_at: new Date() });
+  await db.transactional(async (tx) => {
+    await insertFinishedRespondents(tx, { workspaceId: ctx.workspace.id, studyId: study.id, state: 'imported', respondents: finishedRespondents(valid) });
+    // Atomic bump: answers arriving meanwhile bump the same counter.
+    await sql(tx, 'update study set data_version = data_version + 1, updated_at = now() where id = ? and workspace_id = ?', [study.id, ctx.workspace.id]);
+    await recordAudit(tx, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.responses_imported', target: study.id, detail: { rows: check.rows, respondents: check.respondents } });
   });
-  await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.responses_imported', target: study.id, detail: { rows: check.rows, respondents: check.respondents } });
+  // The bump bypassed the identity map that this request shares; later reads see it.
+  await db.refresh(study);
   return { check, imported: { studyId: study.id, respondents: check.respondents, trials: check.rows } };
 }
 
-/** Creates a study of state "imported" from a minimal design and the file, in one transaction. */
-export async function importNewStudy(ctx: WorkspaceContext, design: ImportedStudyInput, text: string, dryRun: boolean) {
-  const { check, valid } = checkCsv(text);
-  if (!check.ok || dryRun) return { check, imported: null };
-  const db = await em();
-  const studyId = randomUUID();
-  const ladder = [...new Set(valid.filter((v) => v.discount > 0).map((v) => v.discount))].sort((a, b) => a - b);
+/** The design of a study made by an import: what the file holds, the builder's defaults for the rest. */
+function importedDesign(input: ImportedStudyInput, check: ImportCheck, valid: ValidRow[]): StudyDesign {
+  const ladder = [...new Set(valid.filter((v) => v.discount > 0).map((v) => v.discount))];
   const segmentQuestions = check.segmentColumns.map((c) => {
     const id = c.slice(SEGMENT_PREFIX.length);
     return { id, text: id.replace(/_/g, ' '), options: [...new Set(valid.map((v) => v.segments[id]).filter(Boolean))].slice(0, 8) };
   }).filter((q) => q.options.length >= 1);
   const nCatch = valid.filter((v) => v.discount === 0).length;
-  const fullDesign = {
-    ...design, itemPictureId: null, locale: 'en-GB', shelfSize: 6, viewMs: 1200, tripMinutes: 20,
-    basePrices: check.basePrices, ladder, repetitions: 1, catchShare: Math.min(0.5, nCatch / valid.length), practiceTrials: 0, orderSeed: 0,
-    adaptive: { enabled: false, rule: '1u2d', trialsPerBase: 24, reversals: 8 }, consentText: DEFAULT_CONSENT, segmentQuestions,
-    attentionCheck: { enabled: false, question: '', options: ['Yes', 'No'], correct: 'Yes' }, targetCompletes: Math.max(1, check.respondents), redirectUrl: '', priceEnding: 'exact',
-  };
-  await db.getKnex().transaction(async (trx) => {
-    await trx('study').insert({
-      id: studyId, workspace_id: ctx.workspace.id, name: design.name, state: 'imported', design: JSON.stringify(fullDesign),
-      exclusion_rules: JSON.stringify(DEFAULT_EXCLUSION_RULES), data_version: 1, created_by_id: ctx.user.id, created_at: new Date(), updated_at: new Date(), closed_at: new Date(),
+  try {
+    return readDesign({
+      ...input, basePrices: check.basePrices, ladder, repetitions: 1, catchShare: Math.min(0.5, nCatch / valid.length), practiceTrials: 0, orderSeed: 0,
+      adaptive: { enabled: false }, consentText: DEFAULT_CONSENT, segmentQuestions, attentionCheck: { enabled: false, question: '', options: ['Yes', 'No'], correct: 'Yes' },
+      targetCompletes: Math.max(1, check.respondents), priceEnding: 'exact',
+    }, 'imported');
+  } catch (err) {
+    if (err instanceof StoredDesignError) throw new AppError(422, 'validation_failed', 'The file does not make a valid study design; nothing was imported.', err.issues);
+    throw err;
+  }
+}
+
+/** Creates a study of state "imported" from a minimal design and the file, in one transaction. */
+export async function importNewStudy(ctx: WorkspaceContext, input: ImportedStudyInput, text: string, dryRun: boolean) {
+  const { check, valid } = checkCsv(text);
+  if (!check.ok || dryRun) return { check, imported: null };
+  const design = importedDesign(input, check, valid);
+  const db = await em();
+  const studyId = await db.transactional(async (tx) => {
+    const now = new Date();
+    const study = tx.create(Study, {
+      workspace: ctx.workspace.id, name: input.name, state: 'imported', design, exclusionRules: DEFAULT_EXCLUSION_RULES,
+      dataVersion: 1, createdBy: ctx.user.id, closedAt: now,
     });
-    await writeRows(trx, ctx.workspace.id, studyId, valid);
+    await tx.flush();
+    await insertFinishedRespondents(tx, { workspaceId: ctx.workspace.id, studyId: study.id, state: 'imported', respondents: finishedRespondents(valid) });
+    await recordAudit(tx, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.created_by_import', target: study.id, detail: { rows: check.rows, respondents: check.respondents } });
+    return study.id;
   });
-  await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.created_by_import', target: studyId, detail: { rows: check.rows, respondents: check.respondents } });
   return { check, imported: { studyId, respondents: check.respondents, trials: check.rows } };
 }
 
-type Trx = Parameters<Parameters<ReturnType<Awaited<ReturnType<typeof em>>['getKnex']>['transaction']>[0]>[0];
-
-async function writeRows(trx: Trx, workspaceId: string, studyId: string, valid: Parsed['valid']) {
-  const ids = new Map<string, string>();
-  const idx = new Map<string, number>();
-  const respondents: Record<string, unknown>[] = [];
-  const trials: Record<string, unknown>[] = [];
+/** The file's rows grouped by respondent, in file order; trials numbered per respondent from 1. */
+function finishedRespondents(valid: ValidRow[]): FinishedRespondent[] {
+  const byRef = new Map<string, FinishedRespondent>();
   const now = new Date();
   for (const v of valid) {
-    let id = ids.get(v.respondent);
-    if (!id) {
-      id = randomUUID();
-      ids.set(v.respondent, id);
-      respondents.push({
-        id, workspace_id: workspaceId, study_id: studyId, resume_token: randomBytes(24).toString('base64url'), external_ref: v.respondent,
-        seed: 0, state: 'imported', segment_answers: JSON.stringify(v.segments), attention_passed: null, answered_count: 0,
-        started_at: now, last_seen_at: now, completed_at: now,
-      });
+    let r = byRef.get(v.respondent);
+    if (!r) {
+      r = { externalRef: v.respondent, segmentAnswers: v.segments, attentionPassed: null, startedAt: now, completedAt: now, trials: [] };
+      byRef.set(v.respondent, r);
     }
-    const n = (idx.get(v.respondent) ?? 0) + 1;
-    idx.set(v.respondent, n);
-    trials.push({
-      study_id: studyId, respondent_id: id, idx: n, kind: v.discount === 0 ? 'catch' : 'test', base_price: v.base_price, discount: v.discount,
-      answer: v.response, response_ms: v.response_ms, client_id: randomUUID(), answered_at: now,
-    });
+    r.trials.push({ idx: r.trials.length + 1, kind: v.discount === 0 ? 'catch' : 'test', basePrice: v.base_price, discount: v.discount, answer: v.response, responseMs: v.response_ms });
   }
-  for (const r of respondents) r.answered_count = idx.get(String(r.external_ref));
-  await trx.batchInsert('respondent', respondents, 1000).transacting(trx);
-  await trx.batchInsert('trial', trials, 2000).transacting(trx);
+  return [...byRef.values()];
 }
 
 /** The upload from a multipart form (field "file"), size-checked before and after reading. */

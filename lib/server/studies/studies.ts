@@ -2,20 +2,31 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Study, type IStudy } from '@/entities/study';
 import { StudyAsset } from '@/entities/study-asset';
-import type { StudyDesign } from '@/lib/schemas/study.schema';
+import { rulesOrDefault, type ExclusionRules } from '@/lib/schemas/exclusions.schema';
+import { readDesign, studyDesignSchema, type StudyDesign, type StudyDesignInput } from '@/lib/schemas/study.schema';
 import { isEditable, type StudyStateName } from '@/lib/study-states';
 import { em } from '@/lib/server/db/orm';
+import { sql } from '@/lib/server/db/sql';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import { isUuid } from '@/lib/server/platform/ids';
+import { zodIssues } from '@/lib/server/http/route';
 import { recordAudit } from '@/lib/server/team/audit';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
+// Studies in the analyst's workspace: the one study DTO (StudyDetail, shared by the builder,
+// the study pages, fieldwork and the analysis), the list, and the draft's create, update,
+// duplicate and delete. The design is read through `readDesign`, never cast.
 
 export interface StudyDetail {
   id: string;
+  workspaceId: string;
   name: string;
   state: StudyStateName;
   design: StudyDesign;
+  /** The rules in force for results and exports (the defaults when never changed). */
+  exclusionRules: ExclusionRules;
+  /** Bumped whenever the data behind results change; keys cached fits. */
+  dataVersion: number;
   copiedFrom: string | null;
   createdAt: string;
   updatedAt: string;
@@ -23,23 +34,18 @@ export interface StudyDetail {
   closedAt: string | null;
 }
 
-export interface StudySummary {
-  id: string;
-  name: string;
-  category: string;
-  task: StudyDesign['task'];
-  state: StudyStateName;
-  completes: number;
-  targetCompletes: number;
-  updatedAt: string;
-}
+/** A row of the studies list: a projection of StudyDetail plus the completes counted so far. */
+export type StudySummary = Pick<StudyDetail, 'id' | 'name' | 'state' | 'updatedAt'> & Pick<StudyDesign, 'category' | 'task' | 'targetCompletes'> & { completes: number };
 
 export function toDetail(s: IStudy): StudyDetail {
   return {
     id: s.id,
+    workspaceId: s.workspace.id,
     name: s.name,
     state: s.state,
-    design: s.design as unknown as StudyDesign,
+    design: readDesign(s.design, s.state),
+    exclusionRules: rulesOrDefault(s.exclusionRules),
+    dataVersion: s.dataVersion,
     copiedFrom: s.copiedFrom ?? null,
     createdAt: s.createdAt.toISOString(),
     updatedAt: s.updatedAt.toISOString(),
@@ -48,9 +54,9 @@ export function toDetail(s: IStudy): StudyDetail {
   };
 }
 
-/** The study with this id in the caller's workspace; a foreign or malformed id is a 404. */
-export async function loadStudy(db: EntityManager, ctx: WorkspaceContext, id: string) {
-  const study = isUuid(id) ? await db.findOne(Study, { id, workspace: ctx.workspace.id }) : null;
+/** The study with this id in the workspace; a foreign or malformed id is a 404. */
+export async function loadStudy(db: EntityManager, workspaceId: string, id: string) {
+  const study = isUuid(id) ? await db.findOne(Study, { id, workspace: workspaceId }) : null;
   if (!study) throw notFoundError('That study');
   return study;
 }
@@ -58,28 +64,20 @@ export async function loadStudy(db: EntityManager, ctx: WorkspaceContext, id: st
 export async function listStudies(ctx: WorkspaceContext): Promise<StudySummary[]> {
   const db = await em();
   const studies = await db.find(Study, { workspace: ctx.workspace.id }, { orderBy: { updatedAt: 'desc' } });
-  const counts = await db.getConnection().execute<{ study_id: string; n: string }[]>(
+  const counts = await sql<{ study_id: string; n: string }>(
+    db,
     `select study_id, count(*) as n from respondent where workspace_id = ? and state = 'completed' group by study_id`,
     [ctx.workspace.id],
   );
   const completes = new Map(counts.map((r) => [r.study_id, Number(r.n)]));
   return studies.map((s) => {
-    const d = s.design as unknown as StudyDesign;
-    return {
-      id: s.id,
-      name: s.name,
-      category: d.category,
-      task: d.task,
-      state: s.state,
-      completes: completes.get(s.id) ?? 0,
-      targetCompletes: d.targetCompletes,
-      updatedAt: s.updatedAt.toISOString(),
-    };
+    const { id, name, state, updatedAt, design } = toDetail(s);
+    return { id, name, state, updatedAt, category: design.category, task: design.task, targetCompletes: design.targetCompletes, completes: completes.get(id) ?? 0 };
   });
 }
 
 export async function getStudy(ctx: WorkspaceContext, id: string): Promise<StudyDetail> {
-  return toDetail(await loadStudy(await em(), ctx, id));
+  return toDetail(await loadStudy(await em(), ctx.workspace.id, id));
 }
 
 /** The picture must be one of this workspace's uploads (ids are guessable only in theory, but scope anyway). */
@@ -89,10 +87,18 @@ async function checkPicture(db: EntityManager, ctx: WorkspaceContext, design: St
   if (!n) throw new AppError(422, 'validation_failed', 'Some fields are not valid.', [{ path: 'itemPictureId', message: 'Upload the picture again.' }]);
 }
 
-export async function createStudy(ctx: WorkspaceContext, design: StudyDesign): Promise<StudyDetail> {
+/** Validation on save, whatever the caller checked before: the builder's schema, all its limits. */
+function designToSave(input: StudyDesignInput): StudyDesign {
+  const parsed = studyDesignSchema.safeParse(input);
+  if (!parsed.success) throw new AppError(422, 'validation_failed', 'Some fields are not valid.', zodIssues(parsed.error));
+  return parsed.data;
+}
+
+export async function createStudy(ctx: WorkspaceContext, input: StudyDesignInput): Promise<StudyDetail> {
+  const design = designToSave(input);
   const db = await em();
   await checkPicture(db, ctx, design);
-  const study = db.create(Study, { workspace: ctx.workspace.id, name: design.name, design: { ...design }, createdBy: ctx.user.id });
+  const study = db.create(Study, { workspace: ctx.workspace.id, name: design.name, design, createdBy: ctx.user.id });
   await db.flush();
   await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.created', target: study.name, detail: { studyId: study.id } });
   return toDetail(study);
@@ -100,13 +106,14 @@ export async function createStudy(ctx: WorkspaceContext, design: StudyDesign): P
 
 const frozen = () => new AppError(409, 'conflict', 'This study has been launched, so its design is frozen. Duplicate it to make a changed copy.');
 
-export async function updateStudy(ctx: WorkspaceContext, id: string, design: StudyDesign): Promise<StudyDetail> {
+export async function updateStudy(ctx: WorkspaceContext, id: string, input: StudyDesignInput): Promise<StudyDetail> {
+  const design = designToSave(input);
   const db = await em();
-  const study = await loadStudy(db, ctx, id);
+  const study = await loadStudy(db, ctx.workspace.id, id);
   if (!isEditable(study.state)) throw frozen();
   await checkPicture(db, ctx, design);
   // The state is part of the WHERE so a launch racing this save cannot be overwritten.
-  const n = await db.nativeUpdate(Study, { id: study.id, workspace: ctx.workspace.id, state: 'draft' }, { name: design.name, design: { ...design }, updatedAt: new Date() });
+  const n = await db.nativeUpdate(Study, { id: study.id, workspace: ctx.workspace.id, state: 'draft' }, { name: design.name, design, updatedAt: new Date() });
   if (!n) throw frozen();
   await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.updated', target: design.name, detail: { studyId: study.id } });
   return toDetail(await db.findOneOrFail(Study, { id: study.id }, { refresh: true }));
@@ -114,9 +121,9 @@ export async function updateStudy(ctx: WorkspaceContext, id: string, design: Stu
 
 export async function duplicateStudy(ctx: WorkspaceContext, id: string): Promise<StudyDetail> {
   const db = await em();
-  const source = await loadStudy(db, ctx, id);
+  const source = await loadStudy(db, ctx.workspace.id, id);
   const name = `${source.name} (copy)`.slice(0, 160);
-  const design = { ...(source.design as Record<string, unknown>), name };
+  const design = { ...readDesign(source.design, source.state), name };
   const copy = db.create(Study, { workspace: ctx.workspace.id, name, design, copiedFrom: source.id, createdBy: ctx.user.id });
   await db.flush();
   await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'study.duplicated', target: name, detail: { studyId: copy.id, copiedFrom: source.id } });
@@ -125,7 +132,7 @@ export async function duplicateStudy(ctx: WorkspaceContext, id: string): Promise
 
 export async function deleteStudy(ctx: WorkspaceContext, id: string): Promise<void> {
   const db = await em();
-  const study = await loadStudy(db, ctx, id);
+  const study = await loadStudy(db, ctx.workspace.id, id);
   if (study.state !== 'draft') throw new AppError(409, 'conflict', 'Only a draft can be deleted; close a launched study instead.');
   const n = await db.nativeDelete(Study, { id: study.id, workspace: ctx.workspace.id, state: 'draft' });
   if (!n) throw new AppError(409, 'conflict', 'Only a draft can be deleted; close a launched study instead.');

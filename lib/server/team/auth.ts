@@ -21,7 +21,8 @@ export const { handlers, auth, signIn, signOut } = NextAuth(() => ({
         const parsed = signInSchema.safeParse(raw);
         if (!parsed.success) return null;
         const db = await em();
-        const user = await db.findOne(User, { email: parsed.data.email });
+        // refresh: the request's EntityManager may hold this user from before a password change.
+        const user = await db.findOne(User, { email: parsed.data.email }, { refresh: true });
         if (!user || !(await verifyPassword(parsed.data.password, user.passwordHash))) return null;
         await recordAudit(db, { actor: user.id, action: 'auth.sign_in', target: user.email });
         return { id: user.id, email: user.email, name: user.name, sessionVersion: user.sessionVersion };

@@ -3,10 +3,12 @@ import { UniqueConstraintViolationException, type EntityManager } from '@mikro-o
 import { Invitation } from '@/entities/invitation';
 import { Membership } from '@/entities/membership';
 import { User } from '@/entities/user';
+import { Workspace } from '@/entities/workspace';
 import { ROLE_LABELS, type Role } from '@/lib/roles';
 import type { InviteInput, InviteSignUpInput } from '@/lib/schemas/team.schema';
 import { recordAudit } from './audit';
 import { em } from '@/lib/server/db/orm';
+import { sqlOne } from '@/lib/server/db/sql';
 import { env } from '@/lib/server/platform/env';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import { composeMail, sendMail } from '@/lib/server/platform/mail';
@@ -91,11 +93,11 @@ export async function describeInvitation(token: string) {
  * caller through; membership and audit are written in the same transaction.
  */
 async function consume(tx: EntityManager, token: string, user: { id: string; email: string }) {
-  const rows = await tx.execute<{ id: string; workspace_id: string; role: Role; email: string }[]>(
+  const inv = await sqlOne<{ id: string; workspace_id: string; role: Role; email: string }>(
+    tx,
     `update invitation set accepted_at = now() where token_hash = ? and accepted_at is null and revoked_at is null and expires_at > now() returning id, workspace_id, role, email`,
     [hashToken(token)],
   );
-  const inv = rows[0];
   if (!inv) {
     const state = (await describeInvitation(token)).state;
     throw new AppError(410, 'gone', REFUSED[state === 'valid' ? 'used' : state]);
@@ -109,8 +111,8 @@ async function consume(tx: EntityManager, token: string, user: { id: string; ema
   tx.create(Membership, { workspace: inv.workspace_id, user: user.id, role: inv.role });
   await tx.flush();
   await recordAudit(tx, { workspace: inv.workspace_id, actor: user.id, action: 'member.joined', target: inv.email, detail: { role: inv.role, invitationId: inv.id } });
-  const ws = await tx.execute<{ slug: string }[]>('select slug from workspace where id = ?', [inv.workspace_id]);
-  return { workspaceSlug: ws[0].slug, role: inv.role };
+  const ws = await tx.findOneOrFail(Workspace, { id: inv.workspace_id }, { fields: ['slug'] });
+  return { workspaceSlug: ws.slug, role: inv.role };
 }
 
 export async function acceptInvitation(token: string, user: SessionUser) {

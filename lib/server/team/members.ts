@@ -4,6 +4,7 @@ import { Membership } from '@/entities/membership';
 import { ROLE_LABELS, type Role } from '@/lib/roles';
 import { recordAudit } from './audit';
 import { em } from '@/lib/server/db/orm';
+import { sql } from '@/lib/server/db/sql';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import type { WorkspaceContext } from './membership';
 
@@ -28,7 +29,7 @@ export type MemberRow = Awaited<ReturnType<typeof listMembers>>[number];
  * or removals of the last two owners queue on the lock, and the second sees one owner left.
  */
 async function lockedTarget(tx: EntityManager, workspaceId: string, membershipId: string) {
-  const owners = await tx.execute(`select id from membership where workspace_id = ? and role = 'owner' for update`, [workspaceId]);
+  const owners = await sql(tx, `select id from membership where workspace_id = ? and role = 'owner' for update`, [workspaceId]);
   const m = await tx.findOne(Membership, { id: membershipId, workspace: workspaceId }, { populate: ['user'], refresh: true });
   if (!m) throw notFoundError('That member');
   return { m, ownerCount: owners.length };

@@ -3,6 +3,7 @@ import { PasswordReset } from '@/entities/password-reset';
 import { User } from '@/entities/user';
 import { recordAudit } from './audit';
 import { em } from '@/lib/server/db/orm';
+import { sql, sqlOne } from '@/lib/server/db/sql';
 import { env } from '@/lib/server/platform/env';
 import { AppError } from '@/lib/server/http/errors';
 import { composeMail, sendMail } from '@/lib/server/platform/mail';
@@ -43,16 +44,17 @@ export async function completePasswordReset(token: string, password: string): Pr
   const passwordHash = await hashPassword(password);
   const db = await em();
   return db.transactional(async (tx) => {
-    const rows = await tx.execute<{ user_id: string }[]>(
+    const used = await sqlOne<{ user_id: string }>(
+      tx,
       'update password_reset set used_at = now() where token_hash = ? and used_at is null and expires_at > now() returning user_id',
       [hashToken(token)],
     );
-    if (!rows[0]) throw new AppError(410, 'gone', RESET_REFUSED);
-    const userId = rows[0].user_id;
-    const users = await tx.execute<{ email: string }[]>('update app_user set password_hash = ?, session_version = session_version + 1 where id = ? returning email', [passwordHash, userId]);
+    if (!used) throw new AppError(410, 'gone', RESET_REFUSED);
+    const userId = used.user_id;
+    const user = await sqlOne<{ email: string }>(tx, 'update app_user set password_hash = ?, session_version = session_version + 1 where id = ? returning email', [passwordHash, userId]);
     // Any other outstanding link for this account stops working too.
-    await tx.execute('update password_reset set used_at = now() where user_id = ? and used_at is null', [userId]);
-    await recordAudit(tx, { actor: userId, action: 'auth.password_reset', target: users[0].email });
-    return { email: users[0].email };
+    await sql(tx, 'update password_reset set used_at = now() where user_id = ? and used_at is null', [userId]);
+    await recordAudit(tx, { actor: userId, action: 'auth.password_reset', target: user!.email });
+    return { email: user!.email };
   });
 }

@@ -19,7 +19,9 @@ export const currentUser = cache(async (): Promise<SessionUser | null> => {
   const id = session?.user?.id;
   if (!id) return null;
   const db = await em();
-  const user = await db.findOne(User, { id }, { fields: ['id', 'email', 'name', 'sessionVersion'] });
+  // refresh: a lookup by id would otherwise answer from the request's identity map, which may
+  // hold the user from before a password change bumped sessionVersion.
+  const user = await db.findOne(User, { id }, { fields: ['id', 'email', 'name', 'sessionVersion'], refresh: true });
   if (!user || user.sessionVersion !== session.user.sessionVersion) return null;
   return { id: user.id, email: user.email, name: user.name };
 });
