@@ -47,12 +47,12 @@ const SELECT = 'select id, pid, seed, state, plan, answered_count, segment_answe
 
 export async function findByResume(db: EntityManager, studyId: string, resumeToken: string | null): Promise<(RespondentProgress & { resumeToken: string }) | null> {
   if (!resumeToken || resumeToken.length > 64) return null;
-  const rows = await db.getConnection().execute<Record<string, unknown>[]>(`${SELECT} where study_id = ? and resume_token = ?`, [studyId, resumeToken]);
+  const rows = await sql(db, `${SELECT} where study_id = ? and resume_token = ?`, [studyId, resumeToken]);
   return rows[0] ? { ...toRow(rows[0]), resumeToken } : null;
 }
 
 async function findByPid(db: EntityManager, studyId: string, pid: string): Promise<{ state: string } | null> {
-  const found = await db.getConnection().execute<{ state: string }[]>('select state from respondent where study_id = ? and pid = ?', [studyId, pid]);
+  const found = await sql<{ state: string }>(db, 'select state from respondent where study_id = ? and pid = ?', [studyId, pid]);
   return found[0] ?? null;
 }
 
@@ -129,7 +129,7 @@ async function refuseKnownPid(db: EntityManager, studyId: string, pid: string) {
 async function resume(db: EntityManager, link: RespondentLinkWithStudy, r: RespondentProgress & { resumeToken: string }, answers: Record<string, string>) {
   if (r.state === 'completed' && r.pid) throw DONE();
   if (Object.keys(answers).length && needsQuestions(link.design, r) && r.answeredCount === 0) {
-    await db.getConnection().execute('update respondent set segment_answers = ?::jsonb, last_seen_at = now() where id = ?', [JSON.stringify(answers), r.id]);
+    await sql(db, 'update respondent set segment_answers = ?::jsonb, last_seen_at = now() where id = ?', [JSON.stringify(answers), r.id]);
     r = { ...r, segmentAnswers: answers };
   }
   return { ...(await stateOf(db, link, r)), resumeToken: r.resumeToken, studyId: link.studyId };
