@@ -104,9 +104,13 @@ describe('a respondent completes a study on a phone', () => {
     }
   });
 
+  // Protects: a finished shopper who reopens the link is thanked again, never offered consent
+  // (and with it a second respondent and a second seat).
   it('reopening the link after completing shows the thank-you page again', async () => {
     await page.goto(`${baseUrl()}/r/${study.token}`);
     await page.getByTestId('thanks').waitFor();
+    expect(await page.getByTestId('thanks').innerText()).toMatch(/thank/i);
+    expect(await page.getByRole('button', { name: 'I agree, start' }).count()).toBe(0);
   });
 
   it("an unknown link: a real 404 with the flow's own stop screen, styled by the bundle's stylesheet, and no script", async () => {
