@@ -1,6 +1,12 @@
-// A small local stand-in for the parts of Stripe that Notchwise uses: Checkout Sessions over
-// the same HTTP API the official SDK calls, a test checkout page, and signed webhooks.
-// Run: `tsx scripts/fake-stripe/server.ts` (its own process, loopback only).
+// A small local stand-in for the parts of Stripe that Notchwise uses, so development and tests
+// never reach Stripe: POST /v1/checkout/sessions and GET /v1/checkout/sessions/:id (the HTTP API
+// the official SDK calls), a test checkout page /checkout/:id (Pay / Cancel), and Stripe-signed
+// `checkout.session.completed` webhooks to FAKE_STRIPE_WEBHOOK_URL, sent after
+// FAKE_STRIPE_WEBHOOK_DELAY_MS and retried a few times. Test-only endpoints:
+// POST /_test/checkout/sessions/:id/complete[?deliver=1] returns a new signed event (delivered
+// too with deliver=1); POST /_test/events/:id/resend sends an event again (replay tests).
+// Run by `npm start` (STRIPE_FAKE_PORT, 12111) and the test app (TEST_STRIPE_PORT, 12112) via
+// scripts/lib/services.mjs; by hand: `tsx scripts/fake-stripe/server.ts` (loopback only).
 import http from 'node:http';
 import { parseStripeForm } from './form';
 import { checkoutPage } from './page';

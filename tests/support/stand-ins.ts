@@ -1,5 +1,8 @@
 // The local stand-ins (fake Stripe server, maildev) for integration tests: reused when
 // `npm test` already runs them on these ports, started here (and stopped after) otherwise.
+// The env lines below must run before the app's env module is first read, so import this
+// file before any lib/server module. Mail is read through maildev's REST API, which is
+// GET /api/email (not /email). Ports come from scripts/lib/test-env.mjs.
 import net from 'node:net';
 import type { ChildProcess } from 'node:child_process';
 import { TEST_MAIL_WEB_PORT, TEST_SMTP_PORT, TEST_STRIPE_PORT, TEST_STRIPE_WEBHOOK_SECRET } from '../../scripts/lib/test-env.mjs';

@@ -9,6 +9,12 @@ import type { WorkspaceContext } from '@/lib/server/team/membership';
 import { seatBalance, seatHistory } from './seat-ledger';
 import { stripe } from './stripe';
 
+// Buying seats, the analyst-facing half: the billing page's balance and ledger, starting a
+// Checkout Session (owner only; the Session first, then a pending Purchase keyed by its id, so
+// a failed Stripe call leaves no row), and the success page's polling of that purchase. No
+// seat is credited here: only the verified webhook (./webhook.ts) does, through the seat ledger.
+// Tests: tests/integration/billing-checkout.test.ts (creation, rights); e2e billing-team.test.ts.
+
 const HISTORY_LIMIT = 200;
 
 /** Balance and ledger history for the billing page (every member may read it). */

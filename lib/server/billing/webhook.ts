@@ -13,6 +13,14 @@ import { composeMail, sendMail } from '@/lib/server/platform/mail';
 import { creditPurchase, seatBalance } from './seat-ledger';
 import { stripe } from './stripe';
 
+// Stripe's webhook: the signature is checked over the raw body (a bad or missing one is a 400),
+// then seats are credited exactly once in one transaction — the event id goes into
+// webhook_event first (a replayed event stops there), then the ledger entry keyed by the
+// checkout session (a second event for the same session adds nothing), the purchase marked
+// paid and the `billing.purchase` audit event. Only the delivery that credited sends the
+// receipt, and a mail failure is logged, not thrown, so Stripe does not retry a paid event.
+// Tests: tests/integration/billing-webhook.test.ts (replays, two events, Promise.all, bad signatures).
+
 /** The event, if Stripe's signature over the raw body checks out; else a 400. */
 export function verifyStripeEvent(rawBody: string, signature: string | null): Stripe.Event {
   if (!signature) throw new AppError(400, 'bad_request', 'Missing Stripe-Signature header.');

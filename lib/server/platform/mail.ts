@@ -2,6 +2,12 @@ import 'server-only';
 import nodemailer, { type Transporter } from 'nodemailer';
 import { env } from './env';
 
+// Outgoing e-mail (invitations, password resets, purchase receipts): nodemailer over plain SMTP
+// to SMTP_HOST/SMTP_PORT, sent as MAIL_FROM. In development and tests the relay is the local
+// maildev catcher (tests read it through tests/support/stand-ins.ts). `composeMail` builds every
+// message the same way — short paragraphs and at most one link, as text and escaped HTML — so
+// no caller writes markup. Callers decide whether a failed send matters (a receipt's does not).
+
 export interface MailMessage {
   to: string;
   subject: string;

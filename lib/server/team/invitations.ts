@@ -17,6 +17,14 @@ import { hashPassword } from './passwords';
 import type { SessionUser } from './session';
 import { hashToken, newToken } from '@/lib/server/platform/tokens';
 
+// Invitations to a workspace (owners send and withdraw them). The e-mailed link carries a
+// 32-byte random token; only its SHA-256 is stored, so a database leak opens no invitation.
+// A new invitation to the same address withdraws the pending one. Accepting is a conditional
+// update (still pending, not expired) so each link works once, even when clicked twice at
+// once; the membership and audit event commit with it. Refusals: 410 for used, withdrawn,
+// expired or unknown links (REFUSED wording), 403 when signed in as another address, 409 for an
+// existing member. Links last INVITATION_DAYS. Tests: tests/integration/team-invitations.test.ts.
+
 export const INVITATION_DAYS = 7;
 export type InvitationState = 'valid' | 'expired' | 'revoked' | 'used' | 'unknown';
 export const REFUSED: Record<Exclude<InvitationState, 'valid'>, string> = {

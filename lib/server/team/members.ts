@@ -8,6 +8,12 @@ import { sql } from '@/lib/server/db/sql';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import type { WorkspaceContext } from './membership';
 
+// The team screen: list members, change a role, remove a member (owners only; the routes and
+// actions check). A workspace always keeps one owner: both changes first lock the workspace's
+// owner memberships `for update`, so two owners demoting or removing each other at once queue,
+// and the second is refused with 409 (LAST_OWNER). Each change writes its audit event in the
+// same transaction. Tests: tests/integration/team-members.test.ts.
+
 export const LAST_OWNER = 'A workspace needs at least one owner. Make another member an owner first.';
 
 export async function listMembers(ctx: WorkspaceContext) {

@@ -10,6 +10,12 @@ import { composeMail, sendMail } from '@/lib/server/platform/mail';
 import { hashPassword } from './passwords';
 import { hashToken, newToken } from '@/lib/server/platform/tokens';
 
+// Password reset by e-mail. The answer to a request is the same whether or not the address has
+// an account (no account discovery). The link carries a 32-byte token of which only the SHA-256
+// is stored; it works once (a conditional update) for RESET_MINUTES, and a used or expired one
+// is a 410. Setting the password bumps sessionVersion, so other signed-in sessions end, and
+// voids the user's other open links. Tests: tests/integration/team-password-reset.test.ts.
+
 export const RESET_MINUTES = 60;
 export const RESET_ANSWER = 'If an account uses that address, a link to choose a new password is on its way. It works once, for one hour.';
 export const RESET_REFUSED = 'This reset link has expired or was used already. Ask for a new one.';

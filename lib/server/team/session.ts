@@ -4,6 +4,12 @@ import { User } from '@/entities/user';
 import { auth } from './auth';
 import { em } from '@/lib/server/db/orm';
 
+// Who is signed in, for every route, action and page (through route(), action() and
+// requireRole()). The Auth.js cookie alone is not trusted: the user is read again on each
+// request (React `cache`, once per render) and a session is void when its user is gone or its
+// sessionVersion is older than the user's — a password reset bumps it, signing out every other
+// device. Integration tests replace this module (tests/support/integration-setup.ts).
+
 export interface SessionUser {
   id: string;
   email: string;

@@ -5,6 +5,10 @@ import { em } from '@/lib/server/db/orm';
 import { recordAudit } from './audit';
 import type { WorkspaceContext } from './membership';
 
+// Workspace settings: the name and how many days respondent data is kept (retentionDays, told
+// to respondents on the consent screen). Anyone in the workspace may read them; the routes let
+// only owners change them, and each change writes a `workspace.settings_changed` audit event.
+
 export async function getWorkspaceSettings(ctx: WorkspaceContext) {
   const db = await em();
   const w = await db.findOneOrFail(Workspace, { id: ctx.workspace.id });
