@@ -8,7 +8,11 @@ import { enqueue, type QueueName } from '@/lib/server/platform/jobs';
 // AnalysisResult rows as a cache with a status: one row per (study, kind, cache key), where
 // the key hashes the data version and every option that changes the numbers. The page asks;
 // a missing row is inserted as 'queued' and a job sent; the worker moves it to running → done
-// (or failed, with a message for the analyst).
+// (or failed, with a message for the analyst). The insert is `on conflict do nothing` and the
+// job's singleton key is `kind:study:cacheKey`, so many polls of one page make one computation.
+// Input the engine cannot fit (everyone excluded, an unreachable target) ends as a final
+// 'failed' shown as an empty state; other errors are retried by pg-boss. Exclusion rules are in
+// the key, so saving them needs no data-version bump. Tests: tests/integration/analysis-fit.test.ts.
 
 export type CacheStatus = 'queued' | 'running' | 'done' | 'failed';
 

@@ -7,6 +7,12 @@ import { notFoundError } from '@/lib/server/http/errors';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 import { findStudy, respondentRows, screen } from './cells';
 
+// A study's exclusion rules (attention check, false alarms on catch trials, speeders,
+// straight-lining; judged by lib/exclusions.ts) and how many finished respondents each rule
+// removes, for the exclusions panel. Viewers read, analysts save (the routes check); a save
+// writes a `study.exclusions_changed` audit event. The rules are null until first saved and read
+// with their defaults then. Tests: tests/integration/exclusions.test.ts.
+
 export async function getExclusions(ctx: WorkspaceContext, studyId: string) {
   const db = await em();
   const study = await findStudy(db, ctx.workspace.id, studyId);

@@ -15,7 +15,11 @@ import type { WorkspaceContext } from '@/lib/server/team/membership';
 import { findStudy, hasAnsweredTests, loadCells, respondentRows, screen, type StudyInfo } from './cells';
 
 // The fitted study: per-base fits and the joint Weber models with bootstrap intervals, computed
-// by the 'analysis' job and cached per data version, exclusion rules and options.
+// by the 'analysis' job and cached per data version, exclusion rules and options (./cache.ts).
+// `getStudyFit` is the contract other domains use (promotion plans, exports): ready, pending
+// (the caller answers 202 with Retry-After) or empty. 1,000 bootstrap samples with seed 1, so
+// the numbers equal `npm run fit -- trials.csv --bootstrap 1000 --seed 1`; the CLI and the app
+// are held equal to 1e-9 by tests/integration/results-cli.test.ts.
 
 /** Fixed so a study's numbers are reproducible (and equal the CLI's with --seed 1 --bootstrap 1000). */
 export const FIT_BOOTSTRAP = 1000;

@@ -4,7 +4,11 @@ import { env } from './env';
 
 // The job queue: pg-boss in its own PostgreSQL schema, shared by every app instance and
 // worker, so long computations survive restarts (an active job whose worker died expires
-// and is retried) and several workers split the work.
+// and is retried) and several workers split the work. Queues `analysis` (fits, segment
+// comparisons) and `planner`; policy 'short' with the caller's singleton key, so repeated polls
+// collapse into one queued job; jobs expire after 15 min and are retried twice. The worker
+// (scripts/worker.ts, run beside the app by `npm start` and the test app; RUN_WORKER=0 skips it)
+// runs them through ./job-handlers.ts.
 
 export const QUEUES = ['analysis', 'planner'] as const;
 export type QueueName = (typeof QUEUES)[number];

@@ -9,7 +9,12 @@ import { AppError } from '@/lib/server/http/errors';
 // Rate limits shared by every app instance: the counters live in PostgreSQL (table rate_limit,
 // created by a migration). The library's upserts go through a small pool of their own with
 // synchronous_commit off: a counter lost in a crash costs nothing, and the answer path then
-// pays no extra WAL flush per request.
+// pays no extra WAL flush per request. `limit(kind, key)` throws a 429 with Retry-After; each
+// kind's allowance is in `rules()`, the respondent ones tuned by RATE_LIMIT_RESPONDENT_PER_MIN,
+// RATE_LIMIT_ANSWERS_PER_MIN and RATE_LIMIT_ANSWERS_PER_RESPONDENT_PER_MIN (the load bench
+// raises them). The client IP is the first X-Forwarded-For hop or X-Real-IP: run behind a proxy
+// that sets them. Counters survive in a reused test database, so tests that hit a limit use
+// fresh fake IPs and e-mails. Tests: tests/integration/rate-limits.test.ts.
 
 export type LimitKind =
   | 'sign-in-email'

@@ -6,6 +6,11 @@ import { PRICE_ENDING_LABELS } from '@/lib/schemas/study.schema';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 import { planTable } from './plan-table';
 
+// A plan's downloads: `csv` (the table only, so it opens cleanly in a spreadsheet), `about-csv`
+// (the side file of Field,Value rows: settings, fit version, exclusion rules, price ending,
+// cautions) and `json` (header, summary and rows). The bytes are built by the pure
+// lib/promo/plan-export.ts, which `npm run bench:plan` times on 50,000 rows.
+
 export const EXPORT_FORMATS = ['csv', 'about-csv', 'json'] as const;
 export type ExportFormat = (typeof EXPORT_FORMATS)[number];
 

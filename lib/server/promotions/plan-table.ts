@@ -15,6 +15,9 @@ export interface PlanTable {
 
 // Plans and price lists never change once stored, so a computed table can be reused by the
 // table's page requests and the exports. Keyed by plan id; authorisation runs before every use.
+// Per process and small (CACHE_SIZE plans, oldest dropped first): a 50,000-item list is costly
+// to hold, and a table rebuilt after a restart comes out the same, since floors are recomputed
+// from the plan's stored parameters, never refitted.
 const CACHE_SIZE = 4;
 const cache = new Map<string, Omit<PlanTable, 'plan'>>();
 

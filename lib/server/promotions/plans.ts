@@ -15,6 +15,15 @@ import { AppError, notFoundError } from '@/lib/server/http/errors';
 import { isUuid } from '@/lib/server/platform/ids';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
+// Promotion plans: a study's fit (or one segment answer's) applied to a price list. Created from
+// getStudyFit, the contract the analysis offers; while that fit is still computing nothing is
+// stored and the route answers 202 with Retry-After: 5. A plan keeps only the fit's parameters
+// (StoredFit: floorParams for the chosen model, tested base prices, task, currency, …), so its
+// floors are recomputed, never refitted, and a later change to the study leaves it as it was.
+// Refusals (422): a list in another currency than the study, a target notice rate the model
+// never reaches, power with one tested base price; 409 for a name already used.
+// Tests: tests/integration/promo-plans.test.ts; e2e promotions.test.ts.
+
 /** What a plan stores about its fit (PromoPlan.fit): enough to recompute every floor. */
 export interface StoredFit {
   params: FloorParams;

@@ -13,8 +13,14 @@ import { requireUuid } from '@/lib/server/platform/ids';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 import { zodIssues } from '@/lib/server/http/route';
 
-// Item price lists for promotion plans: an upload is read (multipart or raw CSV), validated row
-// by row and stored all-or-nothing; then listed, read back for plans, and deleted.
+// Item price lists for promotion plans: an upload is read (multipart field `file`, or a text/csv
+// body with ?name=&currency=), validated row by row (lib/promo/parse-price-list.ts) and stored
+// all-or-nothing; then listed, read back for plans, and deleted (its plans go with it).
+// Refusals: 413 over 8 MB (PRICE_LIST_MAX_BYTES, checked on Content-Length first), 422 with
+// issues `rows.<row>.<column>` / `file.<column>` (header = row 1), 409 for a name already used
+// in the workspace. The store takes an advisory lock per workspace, so two uploads of one name
+// cannot both pass the name check; items go in through the bulk writer (lib/server/db/bulk.ts).
+// Tests: tests/integration/price-lists.test.ts.
 
 export interface PriceListDto {
   id: string;

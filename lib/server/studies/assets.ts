@@ -7,6 +7,12 @@ import { recordAudit } from '@/lib/server/team/audit';
 import { isUuid } from '@/lib/server/platform/ids';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
+// Item pictures an analyst uploads for a study's trials: PNG, JPEG or WebP, at most 512 KB
+// (MAX_PICTURE_BYTES; 413 beyond, checked on Content-Length before the body is read), with the
+// type judged by the file's magic bytes, not the declared type (422 when not a picture). The
+// bytes live in study_asset; GET /api/assets/[id] serves them publicly — the id is a random
+// UUID — with immutable cache headers. Tests: tests/integration/studies-assets.test.ts.
+
 export const MAX_PICTURE_BYTES = 512 * 1024;
 export const PICTURE_TYPES = ['image/png', 'image/jpeg', 'image/webp'] as const;
 type PictureType = (typeof PICTURE_TYPES)[number];

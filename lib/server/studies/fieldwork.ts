@@ -7,6 +7,13 @@ import { loadStudy } from './studies';
 import { seatBalance } from '@/lib/server/billing/seat-ledger';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
+// The fieldwork monitor of a live study (the overview polls it every 5 s, no-store): completes,
+// respondents in progress, drop-outs (started, not completed, no answer for DROP_OUT_MINUTES),
+// completes per link, test answers per base price × rung with off-ladder (adaptive) and catch
+// trials counted apart, and the workspace's seats left from the seat ledger. Counted in SQL, so
+// the cost follows the design, not the number of respondents.
+// Tests: tests/integration/studies-fieldwork.test.ts.
+
 /** A respondent with no answer for this long, and not completed, counts as dropped out. */
 export const DROP_OUT_MINUTES = 30;
 

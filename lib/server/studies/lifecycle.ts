@@ -8,6 +8,13 @@ import { recordAudit } from '@/lib/server/team/audit';
 import { loadStudy, toDetail, type StudyDetail } from './studies';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
+// A study's lifecycle: launch, pause, resume, close (the moves and labels are in
+// lib/study-states.ts, shared with the buttons). A move that the current state does not allow is
+// a 409; so is a move that lost a race, because the UPDATE is guarded by the state it started
+// from (a double click or two analysts cannot apply it twice). Launch re-reads the design with
+// the live study's limits, so nothing unrunnable goes live. Each move writes its audit event
+// (study.launched, …). Tests: tests/integration/studies-lifecycle.test.ts.
+
 const AUDIT_ACTIONS: Record<StudyAction, string> = { launch: 'study.launched', pause: 'study.paused', resume: 'study.resumed', close: 'study.closed' };
 
 /** Moves a study along draft → live ⇄ paused → closed; any other move is a 409. */

@@ -12,6 +12,12 @@ import { loadStudy } from './studies';
 import { randomToken } from '@/lib/server/platform/tokens';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
+// Respondent links of a study, one per source ("newsletter", "panel B", "store QR"): the token is
+// 32 random bytes, base64url (unguessable, so a link is its own permission), and the URL is
+// APP_URL/r/<token>. A closed or imported study takes no new link (409). Closing a link is
+// one-way and idempotent (the first closing time stays); a closed link turns respondents away
+// with 410 on the respondent side. Tests: tests/integration/studies-links.test.ts.
+
 export interface RespondentLinkDto {
   id: string;
   source: string;
