@@ -1,3 +1,8 @@
+// The promo-floor chart's data (components/charts/promo-floor-chart.tsx): the model's floor as
+// a curve over the list's price range, on a log grid because base prices span 0.89 to 899, and
+// the items' discounts after the price ending as points. A 50,000-item list is sampled
+// (every k-th item, in list order) so the browser draws a few thousand points, not all of them.
+// Pure, like the rest of lib/promo.
 import { thresholdAt, type FloorParams } from '@/lib/psychometrics/promo-floor';
 import type { FloorRow } from './floor-table';
 

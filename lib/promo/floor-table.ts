@@ -1,3 +1,9 @@
+// A plan's rows: each item's promo floor read from the plan's stored FloorParams through the
+// engine's `thresholdAt` (no refit), the promo price after the price ending (./endings.ts), and
+// the flags — outsideRange (an extrapolation beyond the tested base prices), deeperThanMargin
+// (promo price below unit cost), noPromoPrice. `unreachableTarget` explains a target notice rate
+// the model never reaches (the plan is then refused with 422). The calculator reads the model
+// once, so 50,000 items cost little (`npm run bench:plan`). Tests: tests/unit/promo/floor-table.test.ts.
 import { thresholdAt, type FloorParams, type PriceEnding } from '@/lib/psychometrics/promo-floor';
 import { promoPriceAfterEnding } from './endings';
 

@@ -1,3 +1,6 @@
+// A plan's summary figures (mean promo floor, mean discount after the ending, flag counts), from
+// its computed rows, for the plan page and the JSON export. Pure; the table cache on the
+// server (lib/server/promotions/plan-table.ts) computes it once per plan.
 import type { FloorRow } from './floor-table';
 
 export interface PlanSummary {

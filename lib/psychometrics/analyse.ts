@@ -1,3 +1,8 @@
+// The engine's entry point: trials grouped into cells → per-base fits, the four joint models
+// (free, weber, constantAmount, power), their comparison and bootstrap intervals. Pure and
+// seeded (createRng), so the app's cached fit and `npm run fit` give the same numbers for the
+// same seed and sample count. Bad input throws PsychometricsInputError, which the app shows as
+// an empty state rather than retrying. Tests: tests/unit/psychometrics/analyse-*.test.ts.
 import { fitBases, reportBase } from './base-analysis';
 import type { AnalysisContext } from './context';
 import { PsychometricsInputError } from './errors';

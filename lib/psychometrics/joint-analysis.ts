@@ -1,3 +1,8 @@
+// Reports for the joint models across base prices (free, weber, constantAmount, power): Weber
+// fraction, Weber slope, thresholds at each base price, goodness of fit, and the comparison
+// between models. Intervals come from the parametric bootstrap (percentile or BCa with a
+// jackknife), widened when a model's deviance shows overdispersion, so a poorly fitting model
+// does not report false precision.
 import { unreachable } from './base-analysis';
 import { bootstrapDesign, jackknifeDesign } from './bootstrap';
 import { chiSquareP } from './chi2';

@@ -1,3 +1,8 @@
+// Sample-size planning: how many completes a design needs for each base price's notice
+// threshold to reach a chosen 95 % interval width. Studies are simulated from an assumed
+// observer and refitted; the spread of the refits stands in for the bootstrap one study would
+// report, which keeps the search affordable. Seeded, so a plan is reproducible. Used by
+// lib/server/analysis/planner.ts on the current fit. Tests: tests/unit/psychometrics/planner.test.ts.
 import { PsychometricsInputError } from './errors';
 import { fitDesign, lapseOf } from './fit-core';
 import { quantileSorted } from './math';

@@ -1,3 +1,7 @@
+// Segment comparison on the power model: each answer group of one segment question fitted on its
+// own, then one shared model on all groups' cells; the likelihood-ratio test (chi-square) asks
+// whether the groups differ at all. Fewer bootstrap samples
+// than a full report (a comparison screen). Tests: tests/unit/psychometrics/segments.test.ts.
 import { analyse } from './analyse';
 import { chiSquareP } from './chi2';
 import { PsychometricsInputError } from './errors';

@@ -1,3 +1,8 @@
+// Adaptive placement of discounts: one up-down staircase per base price on the ln-discount
+// scale (transformed rules 1u1d/1u2d/1u3d after Levitt 1971, optional weighted steps after
+// Kaernbach 1991). State is never stored: it is replayed from the respondent's answered
+// history, so a resumed or retried respondent gets the same next trial. Used by the
+// respondent plan (respondent/shared/adaptive.ts). Tests: tests/unit/psychometrics/staircase.test.ts.
 import { PsychometricsInputError } from './errors';
 import type { Rng } from './random';
 

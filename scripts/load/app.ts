@@ -1,5 +1,9 @@
 // The production build and `next start` instances the load bench and the fault tests run
-// against: one build in its own dist dir, reused until a source file is newer than it.
+// against: one build in its own dist dir (LOAD_DIST_DIR, default .next-test-load), reused until
+// a source file is newer than it (LOAD_REUSE_BUILD=1 skips that check; LOAD_BUILD=skip, set
+// when `npm test` already built, skips building). Each run gets a fresh database; the instances'
+// environment raises the respondent rate limits far above a crowd's rate and runs no job worker.
+// LOAD_APP_NODE_ARGS passes node flags to the app (e.g. --cpu-prof); LOAD_VERBOSE=1 shows its output.
 import type { ChildProcess } from 'node:child_process';
 import { existsSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';

@@ -1,5 +1,9 @@
 // A live study with one link and a seat balance, written straight into the tables with `pg`
 // (the bench and the fault tests run outside the app, without its server-only modules).
+// `storedFacts` reads back what the exactly-once checks compare: trials (and duplicate
+// (respondent, idx) pairs), respondents, completes, seats used and the balance, so a retried answer
+// or complete that was stored twice shows up.
+// Keep the columns here in step with the entities when a migration changes them.
 import { randomBytes, randomUUID } from 'node:crypto';
 import type { Pool } from 'pg';
 import { studyDesignSchema, type StudyDesign } from '../../lib/schemas/study.schema';

@@ -1,4 +1,7 @@
-// Debian's Chromium driven by playwright-core (no browser download).
+// The end-to-end tier's browser: Debian's Chromium (CHROMIUM_PATH, default /usr/bin/chromium)
+// driven by playwright-core, so no browser is downloaded. Each test gets a throw-away profile;
+// `phone: true` gives a phone-sized viewport for the respondent flow. Screenshots go to
+// .test-output/screenshots. The app's address comes from the e2e global setup (`inject`).
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { mkdtempSync, mkdirSync } from 'node:fs';
 import os from 'node:os';

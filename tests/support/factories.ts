@@ -1,4 +1,7 @@
-// Test data: every test makes its own users and workspaces with unique names (data isolated per test).
+// Test data: every test makes its own users and workspaces with unique names (data isolated per
+// test), so tests share one database and may run in any order without cleaning up. Accounts go
+// through the real sign-up (welcome seats, owner membership, audit) so they look like production
+// ones; `signInAs` says who the mocked session returns (see ./integration-setup.ts).
 import { randomUUID } from 'node:crypto';
 import { NextRequest } from 'next/server';
 import { em } from '@/lib/server/db/orm';

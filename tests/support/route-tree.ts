@@ -1,5 +1,10 @@
 // The app's route handlers and server actions, found on disk at test time, so that a route or
 // action added later is covered by the isolation tests without anyone listing it.
+// tests/integration/tenant-isolation.test.ts calls every method signed out (401), as another
+// workspace's owner (404/403), with A's ids under B's slug (404) and as a viewer on mutations
+// (403). A new route under /api/w/[workspace]/… needs nothing; a new dynamic segment needs a
+// value in ./tenant-fixture.ts (the test names it); a new public route or action needs an
+// allow-list entry in that test, with its reason.
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import path from 'node:path';
 

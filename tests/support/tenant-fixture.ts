@@ -1,5 +1,8 @@
 // Workspace A with one real row of every kind a /api/w/[workspace]/... URL can name, and an
 // unrelated workspace B, for the route-tree isolation tests.
+// Every dynamic segment of a route ([study], [plan], [member], …) must map to one of A's rows
+// here; tenant-isolation.test.ts fails naming the segment when a new one has no value. The rows
+// are real so that a handler which forgets the workspace scope would find them and be caught.
 import { POST as storeList } from '@/app/api/w/[workspace]/price-lists/route';
 import { POST as createPlan } from '@/app/api/w/[workspace]/promo-plans/route';
 import { em } from '@/lib/server/db/orm';
