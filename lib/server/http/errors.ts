@@ -1,4 +1,5 @@
 import 'server-only';
+import type { ZodError } from 'zod';
 
 export type ErrorCode =
   | 'bad_request'
@@ -35,3 +36,8 @@ export class AppError extends Error {
 export const notFoundError = (what = 'That item') => new AppError(404, 'not_found', `${what} was not found.`);
 export const forbiddenError = (msg = 'Your role in this workspace does not allow this.') => new AppError(403, 'forbidden', msg);
 export const unauthenticatedError = () => new AppError(401, 'unauthenticated', 'Sign in first.');
+
+/** A zod failure as field issues (`path` joined with dots), for the 422 error shape. */
+export function zodIssues(err: ZodError): FieldIssue[] {
+  return err.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));
+}

@@ -10,17 +10,15 @@ import { NextRequest, NextResponse } from 'next/server';
 import { ZodError, type ZodType } from 'zod';
 import type { Role } from '@/lib/roles';
 import { withRequestContext } from '@/lib/server/db/orm';
-import { AppError, unauthenticatedError, type FieldIssue } from './errors';
+import { AppError, unauthenticatedError, zodIssues, type FieldIssue } from './errors';
+
+export { zodIssues };
 import { authorise, type WorkspaceContext } from '@/lib/server/team/membership';
 import { currentUser, type SessionUser } from '@/lib/server/team/session';
 import { authenticateToken } from '@/lib/server/team/access-tokens';
 
 function jsonError(status: number, code: string, message: string, issues?: FieldIssue[], headers?: Record<string, string>) {
   return NextResponse.json({ error: { code, message, ...(issues ? { issues } : {}) } }, { status, headers });
-}
-
-export function zodIssues(err: ZodError): FieldIssue[] {
-  return err.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));
 }
 
 /** Turns any thrown value into the one JSON error shape; unexpected errors leak nothing. */

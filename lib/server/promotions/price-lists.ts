@@ -11,7 +11,7 @@ import { insertPriceListItems, readPriceListItems } from './price-list-items';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import { requireUuid } from '@/lib/server/platform/ids';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
-import { zodIssues } from '@/lib/server/http/route';
+import { zodIssues } from '@/lib/server/http/errors';
 
 // Item price lists for promotion plans: an upload is read (multipart field `file`, or a text/csv
 // body with ?name=&currency=), validated row by row (lib/promo/parse-price-list.ts) and stored

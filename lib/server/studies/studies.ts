@@ -9,7 +9,7 @@ import { em } from '@/lib/server/db/orm';
 import { sql } from '@/lib/server/db/sql';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import { isUuid } from '@/lib/server/platform/ids';
-import { zodIssues } from '@/lib/server/http/route';
+import { zodIssues } from '@/lib/server/http/errors';
 import { recordAudit } from '@/lib/server/team/audit';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
