@@ -36,8 +36,6 @@ const USER_ROUTES: { pattern: RegExp; reason: string }[] = [
 /** Route files that answer without route(), each with its reason; none may hold workspace data. */
 const UNWRAPPED_ROUTES: { pattern: RegExp; reason: string }[] = [
   { pattern: /^\/api\/r\/\[token\](\/.*)?$/, reason: 'respondent endpoints: respondentRoute() in respondent/server/http.ts (no session, never cached)' },
-  { pattern: /^\/r\/\[token\](\/.*)?$/, reason: 'respondent entry link and flow document: HTML pages and redirects, no session' },
-  { pattern: /^\/r-assets\/\[file\]$/, reason: "the respondent bundle's static files (hashed names only), no data" },
 ];
 /** Server actions anyone may call, each with its reason; every other action must refuse an outsider. */
 const PUBLIC_ACTIONS: Record<string, string> = {
