@@ -1,4 +1,6 @@
 import type { FlowState } from '@/respondent/shared/types';
+import type { AnswerInput } from '@/respondent/shared/answer.schema';
+import { queueStorageKey } from './answer-queue';
 import type { DriverResult, FlowDriver } from './driver';
 
 async function post<T>(url: string, body: unknown, resume: () => string | null): Promise<DriverResult<T>> {
@@ -20,10 +22,14 @@ async function post<T>(url: string, body: unknown, resume: () => string | null):
   }
 }
 
-/** Talks to /api/r/[token]/...; the resume token travels in a header (the cookie is scoped to /r). */
+/**
+ * Talks to the link's endpoints; the resume token travels in a header, and in the body of a
+ * beacon, which cannot set one (the resume cookie is scoped to /r, so /r/[token]/answers gets it too).
+ */
 export function liveDriver(linkToken: string, initialResume: string | null, pid: string | null): FlowDriver {
   let resume = initialResume;
   const base = `/api/r/${encodeURIComponent(linkToken)}`;
+  const answersUrl = `/r/${encodeURIComponent(linkToken)}/answers`;
   return {
     async start(segmentAnswers) {
       const r = await post<FlowState & { resumeToken: string }>(
@@ -40,7 +46,13 @@ export function liveDriver(linkToken: string, initialResume: string | null, pid:
       }
       return r;
     },
-    answer: (a) => post(`${base}/answer`, a, () => resume),
+    sendAnswers: (answers) => post(answersUrl, { answers }, () => resume),
+    beaconAnswers(answers: AnswerInput[]) {
+      if (typeof navigator === 'undefined' || typeof navigator.sendBeacon !== 'function') return false;
+      // A plain string goes as text/plain: no preflight, and the server reads the JSON regardless.
+      return navigator.sendBeacon(answersUrl, JSON.stringify({ ...(resume ? { resumeToken: resume } : {}), answers }));
+    },
+    storageKey: () => (resume ? queueStorageKey(resume) : null),
     complete: () => post(`${base}/complete`, {}, () => resume),
   };
 }
