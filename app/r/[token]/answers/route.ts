@@ -1,9 +1,10 @@
 import type { NextRequest } from 'next/server';
 import { em } from '@/lib/server/db/orm';
 import { readJson, reply, route } from '@/lib/server/http/route';
-import { clientIp, limit } from '@/lib/server/platform/rate-limit';
+import { clientIp } from '@/lib/server/platform/rate-limit';
 import { answerBatchSchema } from '@/respondent/shared/answer.schema';
 import { answeringRespondent, recordAnswers } from '@/respondent/server/answers';
+import { limitAnswersFromIp, limitAnswersOfRespondent } from '@/respondent/server/answer-limits';
 
 /**
  * The resume token: the page's header, the body (navigator.sendBeacon cannot set headers), or
@@ -19,11 +20,11 @@ function resumeTokens(req: NextRequest, fromBody: string | undefined): string[] 
 export const POST = route<{ token: string }>(
   { auth: 'public', reason: 'respondents have no account: the link token and the resume token are the credential' },
   async ({ req, params }) => {
-    await limit('respondent-ip', clientIp(req.headers));
     const batch = await readJson(req, answerBatchSchema);
+    await limitAnswersFromIp(clientIp(req.headers), batch.answers.length);
     const db = await em();
     const respondent = await answeringRespondent(db, params.token, resumeTokens(req, batch.resumeToken));
-    await limit('respondent', respondent.id);
+    await limitAnswersOfRespondent(respondent.id, batch.answers.length);
     return reply(await recordAnswers(db, respondent, batch.answers), 200, { 'cache-control': 'no-store' });
   },
 );
