@@ -20,6 +20,7 @@ import { bin, startFakeStripe, stopService } from './lib/services.mjs';
 import { appEnv, ensureBuild, freshDatabase, groupCpuSeconds, startApp, stopApp, WEBHOOK_SECRET } from './load/app';
 import { createLoadStudy, storedFacts, type LoadStudy } from './load/study';
 import { newStats, percentile, request, runRespondent, runRespondents, type ClientStats } from './load/respondent-client';
+import { BATCH_ANSWERS as BATCH_ANSWERS_DEFAULT, BATCH_WAIT_MS as BATCH_WAIT_MS_DEFAULT } from '../respondent/client/answer-queue';
 
 const argv = process.argv;
 const arg = (name: string, fallback: number) => {
@@ -32,6 +33,9 @@ const STEP_SECONDS = arg('step-seconds', 30);
 /** New respondents of a step arrive spread over this long (a panel blast is not one instant). */
 const ARRIVAL_SECONDS = arg('arrival-seconds', 10);
 const EVERY_MS = arg('every-ms', 2000);
+/** The phone's batch rule is 4 answers or 3 s; these show what another rule would do. */
+const BATCH_ANSWERS = arg('batch-answers', BATCH_ANSWERS_DEFAULT);
+const BATCH_WAIT_MS = arg('batch-wait-ms', BATCH_WAIT_MS_DEFAULT);
 const P99_LIMIT_MS = arg('p99-limit', 150);
 const PORT = arg('port', Number(process.env.LOAD_APP_PORT ?? 3901));
 const PG_PORT = Number(process.env.TEST_PGPORT ?? 54339);
@@ -116,6 +120,7 @@ async function main() {
   const slots: Promise<void>[] = [];
   try {
     const study = await createLoadStudy(pool, { seats: 1_000_000 });
+    log(`phone batch rule: ${BATCH_ANSWERS} answers or ${BATCH_WAIT_MS} ms; one answer every ${EVERY_MS} ms per respondent; steps of ${STEP_SECONDS} s`);
     log(`machine: ${os.cpus().length} cores, load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')} before the run (other work on it moves every figure)`);
     // Warm-up: compile the routes' code paths and fill the pools before measuring.
     const warm = newStats();
@@ -124,11 +129,17 @@ async function main() {
 
     const stats = newStats();
     // One slot holds one respondent at a time: when one completes, the next starts in its place.
+    let slotsStarted = 0;
     const addSlot = (delayMs: number) => slots.push((async () => {
       await sleep(delayMs);
+      let first = true;
       while (!stopping) {
         try {
-          await runRespondent({ bases, linkToken: study.linkToken, stats, answerEveryMs: EVERY_MS, firstAnswerAfterMs: EVERY_MS, backoffMs: 1000, maxBackoffMs: 15_000, giveUpMs: 60_000, stopAnswering: () => stopping });
+          await runRespondent({
+            bases, linkToken: study.linkToken, stats, answerEveryMs: EVERY_MS, firstAnswerAfterMs: EVERY_MS, backoffMs: 1000, maxBackoffMs: 15_000, giveUpMs: 60_000,
+            batchAnswers: BATCH_ANSWERS, batchWaitMs: BATCH_WAIT_MS, stopAnswering: () => stopping,
+            onStarted: () => { if (first) { first = false; slotsStarted++; } },
+          });
         } catch (err) {
           failures.push(err as Error);
           await sleep(1000);
@@ -142,12 +153,15 @@ async function main() {
       const adding = n - held;
       for (let i = 0; i < adding; i++) addSlot((i / adding) * ARRIVAL_SECONDS * 1000);
       held = n;
-      // Measure once the new respondents have arrived and settled into their rhythm.
-      await sleep((ARRIVAL_SECONDS + EVERY_MS / 1000 * 2) * 1000);
+      // Measure once the new respondents have arrived (their starts returned) and settled into their rhythm.
+      const arrivedBy = Date.now() + (ARRIVAL_SECONDS + 60) * 1000;
+      await sleep(ARRIVAL_SECONDS * 1000);
+      while (slotsStarted < n && Date.now() < arrivedBy) await sleep(250);
+      await sleep(EVERY_MS * 2);
       stats.requestMs = [];
       stats.answerMs = [];
       stats.ackDelayMs = [];
-      const before = { acked: stats.answersAcked, batches: stats.batches, starts: stats.starts, completes: stats.completes, errors: Object.values(stats.errors).reduce((a, b) => a + b, 0), failures: failures.length };
+      const before = { acked: stats.answersAcked, batches: stats.batches, starts: stats.starts, completes: stats.completes, errors: { ...stats.errors }, failures: failures.length };
       const cpu0 = apps.reduce((a, app) => a + groupCpuSeconds(app), 0);
       const tx0 = await commits(pool);
       const t = performance.now();
@@ -162,14 +176,14 @@ async function main() {
       const [p50, p95, p99] = [50, 95, 99].map((p) => percentile(ms, p));
       const acked = stats.answersAcked - before.acked;
       const batches = stats.batches - before.batches;
-      const errors = Object.values(stats.errors).reduce((a, b) => a + b, 0) - before.errors;
+      const errors = Object.entries(stats.errors).map(([k, v]) => [k, v - (before.errors[k] ?? 0)] as const).filter(([, v]) => v > 0);
       const v = await verifyStep(pool, study, stats);
       const r: StepResult = { respondents: n, answersPerS: acked / seconds, requestsPerS: requests / seconds, p99, lost: v.lost + v.countMismatches, duplicated: v.duplicated, failures: failures.length - before.failures };
       results.push(r);
       log(`step ${n} respondents: ${r.requestsPerS.toFixed(0)} requests/s (${(batches / seconds).toFixed(0)} answer batches/s of ${(acked / Math.max(1, batches)).toFixed(2)} answers, ${((stats.starts - before.starts) / seconds).toFixed(1)} starts/s, ${((stats.completes - before.completes) / seconds).toFixed(1)} completes/s), ${r.answersPerS.toFixed(0)} answers/s`);
       log(`  respondent requests: p50 ${p50.toFixed(1)} ms, p95 ${p95.toFixed(1)} ms, p99 ${p99.toFixed(1)} ms, max ${(ms.at(-1) ?? 0).toFixed(1)} ms (answer batches p99 ${percentile(answerMs, 99).toFixed(1)} ms); answer given → acknowledged p50 ${(percentile(delays, 50) / 1000).toFixed(2)} s, p99 ${(percentile(delays, 99) / 1000).toFixed(2)} s`);
       log(`  app CPU ${(appCpu / seconds * 100).toFixed(0)} % of one core (${(appCpu * 1000 / Math.max(1, requests)).toFixed(2)} ms per request); database ${(statements / Math.max(1, requests)).toFixed(2)} committed statements per request (rate-limit counters included); load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')}`);
-      log(`  checked in the database: ${v.lost} acknowledged answers missing, ${v.duplicated} trials stored twice, ${v.countMismatches} counters off; ${errors} failed requests (retried), ${r.failures} respondents given up`);
+      log(`  checked in the database: ${v.lost} acknowledged answers missing, ${v.duplicated} trials stored twice, ${v.countMismatches} counters off; ${errors.length ? errors.map(([k, v]) => `${v} × ${k}`).join(', ') : 'no'} failed requests (retried), ${r.failures} respondents given up`);
       if (p99 > P99_LIMIT_MS) { log(`  p99 passed ${P99_LIMIT_MS} ms: the ramp stops here`); break; }
     }
 

@@ -84,6 +84,11 @@ export interface RespondentOptions {
   giveUpMs?: number;
   /** Asked before each answer: true = give no more answers (send what was given, do not complete). */
   stopAnswering?: () => boolean;
+  /** The page's batch rule (4 answers or 3 s) unless given, to show what another rule would do. */
+  batchAnswers?: number;
+  batchWaitMs?: number;
+  /** Called once the start has returned. */
+  onStarted?: () => void;
 }
 
 interface Trial { idx: number; kind: string; attention?: { options: string[] } }
@@ -110,6 +115,7 @@ export async function runRespondent(o: RespondentOptions): Promise<number> {
   const started = await send(paths.start, { consent: true, segmentAnswers: { household: '2' } }, {}, 'start', []);
   if (started.status !== 200) throw new Error(`start ${started.status}: ${JSON.stringify(started.body)}`);
   o.stats.starts++;
+  o.onStarted?.();
   const s = started.body as { resumeToken: string; upcoming: Trial[] };
   const auth = { 'x-resume-token': s.resumeToken };
 
@@ -120,6 +126,8 @@ export async function runRespondent(o: RespondentOptions): Promise<number> {
   const queue = new AnswerQueue({
     storage: null,
     storageKey: () => null,
+    batchAnswers: o.batchAnswers,
+    batchWaitMs: o.batchWaitMs,
     backoffMs: o.backoffMs ?? 100,
     maxBackoffMs: o.maxBackoffMs ?? 2000,
     onStopped: (code, message) => { stopped = `${code}: ${message}`; },
