@@ -1,14 +1,16 @@
-// npm run bench:answers [-- --steps 250,500,1000 --step-seconds 30 --every-ms 2000 --instances 1 --port 3901]
+// npm run bench:answers [-- --steps 250,500,1000 --step-seconds 30 --every-ms 2000 --instances 1 --port 3901
+//                          --batch-answers 4 --batch-wait-ms 3000 --batch-clock latest-answer|oldest-answer]
 // Measures shoppers, not a flood: simulated respondents, each giving one answer every 2 s on
 // schedule (open loop: the next answer comes whether or not earlier requests have returned),
-// sent the way the phone sends them (its own answer queue: 4 answers or 3 s, one request at a
-// time), against a production build (`next start`) and a private database. The number held is
-// ramped in steps; a respondent who reaches the end completes and a new one starts, so each step
-// holds its number. After each step the database is checked: every acknowledged answer stored,
-// none twice, every counter equal to its rows. The ramp stops at the first step whose p99 of
-// respondent requests passes 150 ms. In the same run: the raw insert ceiling of the machine
-// (single-row and 4-row inserts of the trial row shape straight through `pg`) and the framework
-// floor (a route that touches no database, by autocannon). Timings are printed, never asserted.
+// sent the way the phone sends them (its own answer queue: 4 answers, or 3 s after the latest,
+// one request at a time), against a production build (`next start`) and a private database.
+// The number held is ramped in steps; a respondent who reaches the end completes and a new one
+// starts, so each step holds its number. After each step the database is checked: every
+// acknowledged answer stored, none twice, every counter equal to its rows. The ramp stops at
+// the first step whose p99 of respondent requests passes 150 ms. In the same run: the raw
+// insert ceiling of the machine (single-row and 4-row inserts of the trial row shape straight
+// through `pg`) and the framework floor (a route that touches no database, by autocannon).
+// Timings are printed, never asserted.
 import type { ChildProcess } from 'node:child_process';
 import { execFile } from 'node:child_process';
 import os from 'node:os';
@@ -33,9 +35,11 @@ const STEP_SECONDS = arg('step-seconds', 30);
 /** New respondents of a step arrive spread over this long (a panel blast is not one instant). */
 const ARRIVAL_SECONDS = arg('arrival-seconds', 10);
 const EVERY_MS = arg('every-ms', 2000);
-/** The phone's batch rule is 4 answers or 3 s; these show what another rule would do. */
+/** The phone's batch rule is 4 answers, or 3 s after the latest; these show what another rule would do. */
 const BATCH_ANSWERS = arg('batch-answers', BATCH_ANSWERS_DEFAULT);
 const BATCH_WAIT_MS = arg('batch-wait-ms', BATCH_WAIT_MS_DEFAULT);
+/** `--batch-clock oldest-answer`: the wait counts from the oldest unsent answer (a hard cap on its age). */
+const BATCH_CLOCK = argv.includes('--batch-clock') && argv[argv.indexOf('--batch-clock') + 1] === 'oldest-answer' ? 'oldest-answer' : 'latest-answer';
 const P99_LIMIT_MS = arg('p99-limit', 150);
 const PORT = arg('port', Number(process.env.LOAD_APP_PORT ?? 3901));
 const PG_PORT = Number(process.env.TEST_PGPORT ?? 54339);
@@ -120,7 +124,7 @@ async function main() {
   const slots: Promise<void>[] = [];
   try {
     const study = await createLoadStudy(pool, { seats: 1_000_000 });
-    log(`phone batch rule: ${BATCH_ANSWERS} answers or ${BATCH_WAIT_MS} ms; one answer every ${EVERY_MS} ms per respondent; steps of ${STEP_SECONDS} s`);
+    log(`phone batch rule: ${BATCH_ANSWERS} answers or ${BATCH_WAIT_MS} ms after the ${BATCH_CLOCK === 'latest-answer' ? 'latest' : 'oldest unsent'} answer; one answer every ${EVERY_MS} ms per respondent; steps of ${STEP_SECONDS} s`);
     log(`machine: ${os.cpus().length} cores, load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')} before the run (other work on it moves every figure)`);
     // Warm-up: compile the routes' code paths and fill the pools before measuring.
     const warm = newStats();
@@ -137,7 +141,7 @@ async function main() {
         try {
           await runRespondent({
             bases, linkToken: study.linkToken, stats, answerEveryMs: EVERY_MS, firstAnswerAfterMs: EVERY_MS, backoffMs: 1000, maxBackoffMs: 15_000, giveUpMs: 60_000,
-            batchAnswers: BATCH_ANSWERS, batchWaitMs: BATCH_WAIT_MS, stopAnswering: () => stopping,
+            batchAnswers: BATCH_ANSWERS, batchWaitMs: BATCH_WAIT_MS, batchClock: BATCH_CLOCK, stopAnswering: () => stopping,
             onStarted: () => { if (first) { first = false; slotsStarted++; } },
           });
         } catch (err) {

@@ -2,8 +2,12 @@
 // per resume token) and sent in small batches, so that a lost connection, a closed tab or a
 // crashed browser loses nothing and a shopper never waits on the network between trials.
 //
-// - A batch goes when 4 answers are waiting or the oldest has waited 3 s, whichever comes
-//   first; adaptive plans send each answer at once (the next trial depends on the reply).
+// - A batch goes when 4 answers are waiting or 3 s have passed without a new one, whichever
+//   comes first; adaptive plans send each answer at once (the next trial depends on the reply).
+//   The clock restarts with each answer: a shopper answering every 2 s sends 4 at a time (one
+//   request per 8 s, which is what lets one small server hold thousands of them), and a shopper
+//   who pauses has sent everything 3 s later. Answers never wait unsafely meanwhile: they are
+//   on the device, and a hidden or closed page sends them at once (below).
 // - One request at a time, oldest answers first, each with the client id it was given when
 //   answered: a retry after a lost reply is the same batch, which the server stores once.
 // - Only answers the server names in its reply (acknowledged, or a trial another tab already
@@ -48,6 +52,8 @@ export interface AnswerQueueOptions {
   onStopped?(code: string, message: string): void;
   batchAnswers?: number;
   batchWaitMs?: number;
+  /** What starts the wait: the latest answer (default) or the oldest unsent one (a hard cap on its age). */
+  batchClock?: 'latest-answer' | 'oldest-answer';
   backoffMs?: number;
   maxBackoffMs?: number;
 }
@@ -108,6 +114,7 @@ export class AnswerQueue {
   push(a: AnswerInput): void {
     if (!this.items.some((x) => x.clientId === a.clientId)) this.items = [...this.items, a].sort((x, y) => x.idx - y.idx);
     this.persist();
+    if (this.timer && this.o.batchClock !== 'oldest-answer') { clearTimeout(this.timer); this.timer = null; }
     this.schedule();
   }
 
@@ -189,7 +196,7 @@ export class AnswerQueue {
     if (this.stopped || this.pumping) return;
     if (!this.items.length) return this.settle();
     if (this.due()) return this.kick();
-    // The oldest waiting answer sets the clock: it waits at most batchWaitMs.
+    // Started by the latest answer (push() restarts it) or, with 'oldest-answer', by the oldest waiting one.
     this.timer ??= setTimeout(() => { this.timer = null; this.kick(); }, this.o.batchWaitMs ?? BATCH_WAIT_MS);
   }
 

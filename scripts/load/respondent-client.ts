@@ -1,7 +1,8 @@
 // Simulated respondents over real HTTP (keep-alive), doing what the respondent page's script
 // does: start, give one answer after another, send them with the page's own answer queue
-// (respondent/client/answer-queue.ts: batches of 4 or after 3 s, one request at a time, the
-// same client ids on every retry), wait until every answer is acknowledged, complete. A start or
+// (respondent/client/answer-queue.ts: 4 answers at a time or 3 s after the latest, one request
+// at a time, the same client ids on every retry), wait until every answer is acknowledged,
+// complete. A start or
 // complete that meets a network error, 5xx or 429 is retried with backoff, as the page does.
 import http from 'node:http';
 import { randomUUID } from 'node:crypto';
@@ -84,9 +85,10 @@ export interface RespondentOptions {
   giveUpMs?: number;
   /** Asked before each answer: true = give no more answers (send what was given, do not complete). */
   stopAnswering?: () => boolean;
-  /** The page's batch rule (4 answers or 3 s) unless given, to show what another rule would do. */
+  /** The page's batch rule (4 answers, or 3 s after the latest) unless given, to show what another rule would do. */
   batchAnswers?: number;
   batchWaitMs?: number;
+  batchClock?: 'latest-answer' | 'oldest-answer';
   /** Called once the start has returned. */
   onStarted?: () => void;
 }
@@ -128,6 +130,7 @@ export async function runRespondent(o: RespondentOptions): Promise<number> {
     storageKey: () => null,
     batchAnswers: o.batchAnswers,
     batchWaitMs: o.batchWaitMs,
+    batchClock: o.batchClock,
     backoffMs: o.backoffMs ?? 100,
     maxBackoffMs: o.maxBackoffMs ?? 2000,
     onStopped: (code, message) => { stopped = `${code}: ${message}`; },

@@ -53,17 +53,33 @@ describe('the answer queue on the phone', () => {
     expect(q.pending).toHaveLength(0);
   });
 
-  it('sends what waits once the oldest answer has waited 3 s, not before', async () => {
+  it('sends what waits 3 s after the latest answer (each answer restarts the clock), not before', async () => {
     const { q, sent } = setup();
     const a0 = answer(0);
     q.push(a0);
     await vi.advanceTimersByTimeAsync(2000);
     const a1 = answer(1);
-    q.push(a1); // a second answer does not restart the clock
-    await vi.advanceTimersByTimeAsync(999);
+    q.push(a1);
+    await vi.advanceTimersByTimeAsync(2999);
     expect(sent).toHaveLength(0);
     await vi.advanceTimersByTimeAsync(1);
     expect(sent).toEqual([[a0, a1]]);
+  });
+
+  it('a shopper answering every 2 s sends four at a time; with the oldest-answer clock an answer waits at most 3 s', async () => {
+    const steady = setup();
+    for (let i = 0; i < 8; i++) {
+      steady.q.push(answer(i));
+      await vi.advanceTimersByTimeAsync(2000);
+    }
+    expect(steady.sent.map((b) => b.length)).toEqual([4, 4]);
+
+    const capped = setup({ batchClock: 'oldest-answer' });
+    for (let i = 0; i < 8; i++) {
+      capped.q.push(answer(i));
+      await vi.advanceTimersByTimeAsync(2000);
+    }
+    expect(capped.sent.map((b) => b.length)).toEqual([2, 2, 2, 2]);
   });
 
   it('drops only the answers the server names; the rest stays stored and goes in the next batch', async () => {
