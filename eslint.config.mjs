@@ -7,8 +7,6 @@ import nextTs from 'eslint-config-next/typescript';
 const DATA_LAYER_MESSAGE = 'Call a data-access function in lib/server/<domain> instead: it authorises, scopes by workspace and returns a DTO.';
 const dataLayerBoundary = {
   files: ['app/**/*.{ts,tsx}', 'components/**/*.{ts,tsx}', 'respondent/client/**/*.{ts,tsx}'],
-  // The last respondent route under app/api/r moves to app/r/[token]/answers with the answer batch.
-  ignores: ['app/api/r/[[]token]/answer/route.ts'],
   rules: {
     'no-restricted-imports': ['error', {
       patterns: [

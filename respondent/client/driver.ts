@@ -1,12 +1,7 @@
 import type { CompleteReply } from '@/respondent/shared/complete.schema';
-import type { FlowState, PublicTrial } from '@/respondent/shared/types';
+import type { FlowState } from '@/respondent/shared/types';
+import type { AnswerBatchReply, AnswerInput } from '@/respondent/shared/answer.schema';
 
-export interface AnswerPayload {
-  clientId: string;
-  idx: number;
-  answer: number;
-  responseMs: number;
-}
 
 /** ok, or a failure the flow may retry (network, 5xx) or must show (full, closed, refused). */
 export type DriverResult<T> = { ok: true; data: T } | { ok: false; retry: boolean; code: string; message: string };
@@ -14,8 +9,12 @@ export type DriverResult<T> = { ok: true; data: T } | { ok: false; retry: boolea
 /** What the screens need from the outside world: the live link (fetch) or the local preview. */
 export interface FlowDriver {
   start(segmentAnswers: Record<string, string>): Promise<DriverResult<FlowState>>;
-  /** `next` is given by adaptive plans: the trial the staircase places next (null = no more). */
-  answer(a: AnswerPayload): Promise<DriverResult<{ next?: PublicTrial | null }>>;
+  /** Sends a batch of stored answers; the reply names those to drop (adaptive plans: and the next trial). */
+  sendAnswers(batch: AnswerInput[]): Promise<DriverResult<AnswerBatchReply>>;
+  /** Hands a batch to navigator.sendBeacon as the page is hidden or closed; false if not queued. */
+  beaconAnswers?(batch: AnswerInput[]): boolean;
+  /** Where this respondent's unsent answers are kept on the device; null = in memory only (preview). */
+  storageKey(): string | null;
   complete(): Promise<DriverResult<CompleteReply>>;
 }
 

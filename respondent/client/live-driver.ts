@@ -1,6 +1,8 @@
 import type { CompleteReply } from '@/respondent/shared/complete.schema';
 import type { StartReply, StartRequest } from '@/respondent/shared/start.schema';
 import { respondentUrls } from '@/respondent/shared/urls';
+import type { AnswerInput } from '@/respondent/shared/answer.schema';
+import { queueStorageKey } from './answer-queue';
 import type { DriverResult, FlowDriver } from './driver';
 
 async function post<T>(url: string, body: unknown, resume: () => string | null): Promise<DriverResult<T>> {
@@ -23,12 +25,13 @@ async function post<T>(url: string, body: unknown, resume: () => string | null):
 }
 
 /**
- * Talks to /r/[token]/…: the resume token travels in a header, and the cookie scoped to /r comes
- * along as well (it resumes the respondent when the address lost ?resume=).
+ * Talks to the link's endpoints; the resume token travels in a header, and in the body of a
+ * beacon, which cannot set one (the resume cookie is scoped to /r, so /r/[token]/answers gets it too).
  */
 export function liveDriver(linkToken: string, initialResume: string | null, pid: string | null): FlowDriver {
   let resume = initialResume;
   const urls = respondentUrls(linkToken);
+  const answersUrl = urls.answers;
   return {
     async start(segmentAnswers) {
       const body: StartRequest = { consent: true, ...(pid ? { pid } : {}), segmentAnswers };
@@ -42,7 +45,13 @@ export function liveDriver(linkToken: string, initialResume: string | null, pid:
       }
       return r;
     },
-    answer: (a) => post(`/api/r/${encodeURIComponent(linkToken)}/answer`, a, () => resume),
+    sendAnswers: (answers) => post(answersUrl, { answers }, () => resume),
+    beaconAnswers(answers: AnswerInput[]) {
+      if (typeof navigator === 'undefined' || typeof navigator.sendBeacon !== 'function') return false;
+      // A plain string goes as text/plain: no preflight, and the server reads the JSON regardless.
+      return navigator.sendBeacon(answersUrl, JSON.stringify({ ...(resume ? { resumeToken: resume } : {}), answers }));
+    },
+    storageKey: () => (resume ? queueStorageKey(resume) : null),
     complete: () => post<CompleteReply>(urls.complete, {}, () => resume),
   };
 }

@@ -12,14 +12,21 @@ export function localDriver(design: StudyDesign, seed: number): FlowDriver {
     async start() {
       return { ok: true, data: flowState({ design, seed, plan, answered, answeredCount: 0, needsQuestions: false, completed: false, redirectUrl: null }) };
     },
-    async answer(a) {
-      const t = expectedTrial(design, seed, plan, answered, a.idx);
-      if (!t) return { ok: false, retry: false, code: 'validation_failed', message: 'No such trial.' };
-      answered.push({ kind: t.kind, slot: t.slot ?? a.idx, basePrice: t.basePrice, answer: a.answer });
-      if (plan.mode === 'fixed') return { ok: true, data: {} };
+    async sendAnswers(batch) {
+      const acknowledged: string[] = [];
+      for (const a of [...batch].sort((x, y) => x.idx - y.idx)) {
+        if (a.idx < answered.length) { acknowledged.push(a.clientId); continue; }
+        const t = expectedTrial(design, seed, plan, answered, a.idx);
+        if (!t) return { ok: false, retry: false, code: 'validation_failed', message: 'No such trial.' };
+        answered.push({ kind: t.kind, slot: t.slot ?? a.idx, basePrice: t.basePrice, answer: a.answer });
+        acknowledged.push(a.clientId);
+      }
+      const reply = { acknowledged, conflicts: [], answered: answered.length };
+      if (plan.mode === 'fixed') return { ok: true, data: reply };
       const next = expectedTrial(design, seed, plan, answered, answered.length);
-      return { ok: true, data: { next: next ? toPublic(design, plan, next, answered.length) : null } };
+      return { ok: true, data: { ...reply, next: next ? toPublic(design, plan, next, answered.length) : null } };
     },
+    storageKey: () => null,
     async complete() {
       return { ok: true, data: { ok: true, redirectUrl: null } };
     },

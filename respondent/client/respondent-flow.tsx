@@ -1,5 +1,5 @@
 'use client';
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { useCallback, useEffect, useState } from 'react';
 import type { SegmentQuestion } from '@/lib/schemas/study.schema';
 import type { FlowState, FlowStudy, PublicTrial } from '@/respondent/shared/types';
 import { ConsentScreen } from './consent-screen';
@@ -7,7 +7,8 @@ import { newClientId, type FlowDriver } from './driver';
 import { QuestionScreen } from './question-screen';
 import { ShelfScreen } from './shelf-screen';
 import { TrialScreen } from './trial-screen';
-import { useAnswerQueue, withRetry } from './use-answer-queue';
+import { browserStorage, useAnswerQueue, withRetry } from './use-answer-queue';
+import { storedAnswers } from './answer-queue';
 import { FlowColumn, Progress, Reconnecting, Stopped, Thanks, Waiting } from './status-screens';
 
 type Step = { s: 'consent' } | { s: 'question'; i: number } | { s: 'shelf'; again: boolean } | { s: 'trial' } | { s: 'wait' } | { s: 'thanks' } | { s: 'stopped'; code: string; message: string };
@@ -28,49 +29,66 @@ function firstStep(initial: FlowState | null, questions: SegmentQuestion[]): Ste
   if (!initial) return { s: 'consent' };
   if (initial.phase === 'completed') return { s: 'thanks' };
   if (initial.phase === 'questions') return questions.length ? { s: 'question', i: 0 } : { s: 'wait' };
-  if (initial.phase === 'done') return { s: 'wait' };
+  if (initial.phase === 'done' || !initial.upcoming.length) return { s: 'wait' };
   return initial.study.task === 'spot' ? { s: 'shelf', again: initial.answered > 0 } : { s: 'trial' };
+}
+
+/**
+ * The server's state of a resumed respondent, moved on by the answers this device still holds
+ * unsent (the tab was closed or crashed before they went): those trials are not shown again.
+ * Adaptive plans learn their next trial once the held answers are acknowledged.
+ */
+function withHeldAnswers(initial: FlowState | null, held: readonly { idx: number }[]): FlowState | null {
+  if (!initial || initial.phase !== 'trials') return initial;
+  const ahead = new Set(held.filter((a) => a.idx >= initial.answered).map((a) => a.idx));
+  if (!ahead.size) return initial;
+  const upcoming = initial.adaptive ? [] : initial.upcoming.filter((t) => !ahead.has(t.idx));
+  return { ...initial, upcoming, answered: initial.answered + ahead.size, phase: upcoming.length || initial.adaptive ? 'trials' : 'done' };
 }
 
 /** consent → segment questions → (shelf) → practice and trials → thank you; a small state machine. */
 export function RespondentFlow(p: FlowProps) {
-  const [step, setStep] = useState<Step>(() => firstStep(p.initial, p.questions));
-  const [flow, setFlow] = useState<FlowState | null>(p.initial);
-  const [upcoming, setUpcomingState] = useState<PublicTrial[]>(p.initial?.upcoming ?? []);
-  // Mirrors `upcoming` for the queue's callbacks, which run outside React's render.
-  const upRef = useRef(upcoming);
-  const setUpcoming = (list: PublicTrial[]) => { upRef.current = list; setUpcomingState(list); };
-  const [answered, setAnswered] = useState(p.initial?.answered ?? 0);
+  const [initial] = useState(() => withHeldAnswers(p.initial, storedAnswers(browserStorage(), p.driver.storageKey())));
+  const [step, setStep] = useState<Step>(() => firstStep(initial, p.questions));
+  const [flow, setFlow] = useState<FlowState | null>(initial);
+  const [upcoming, setUpcoming] = useState<PublicTrial[]>(initial?.upcoming ?? []);
+  const [answered, setAnswered] = useState(initial?.answered ?? 0);
   const [answers, setAnswers] = useState<Record<string, string>>({});
   const [starting, setStarting] = useState(false);
 
   const stop = useCallback((code: string, message: string) => setStep({ s: 'stopped', code, message }), []);
 
-  // Callers are already on the waiting step when they finish.
-  const finish = useCallback(async (retrying: (on: boolean) => void) => {
-    const r = await withRetry(() => p.driver.complete(), retrying);
+  const q = useAnswerQueue(p.driver);
+
+  // Callers are already on the waiting step when they finish: every stored answer is
+  // acknowledged first (the server refuses to complete while answers are missing).
+  const finish = useCallback(async () => {
+    if (!(await q.queue.drain())) return; // stopped: the queue has said why
+    const r = await withRetry(() => p.driver.complete(), q.setReconnecting);
     if (!r.ok) return stop(r.code, r.message);
     if (r.data.redirectUrl) window.location.assign(r.data.redirectUrl);
     else setStep({ s: 'thanks' });
-  }, [p.driver, stop]);
+  }, [p.driver, q, stop]);
 
-  const q = useAnswerQueue(p.driver, {
-    onNext: (next) => {
-      setUpcoming(next ? [next] : []);
-      if (!next) setStep({ s: 'wait' });
-      if (!next) void finish(q.setReconnecting);
-      else setStep(next.refresh && flow?.study.task === 'spot' ? { s: 'shelf', again: true } : { s: 'trial' });
-    },
-    onDrained: () => {
-      if (!upRef.current.length && !flow?.adaptive) { setStep({ s: 'wait' }); void finish(q.setReconnecting); }
-    },
-    onStopped: stop,
+  useEffect(() => {
+    q.queue.listen({
+      immediate: () => !!flow?.adaptive,
+      onReply: (reply) => {
+        // Adaptive plans: the reply places the next trial (null = none left).
+        if (reply.next === undefined) return;
+        setUpcoming(reply.next ? [reply.next] : []);
+        if (!reply.next) { setStep({ s: 'wait' }); void finish(); }
+        else setStep(reply.next.refresh && flow?.study.task === 'spot' ? { s: 'shelf', again: true } : { s: 'trial' });
+      },
+      onStopped: stop,
+    });
   });
 
   useEffect(() => {
-    // Resumed after the last answer but before completing: complete now.
-    if (p.initial?.phase !== 'done') return;
-    const t = setTimeout(() => void finish(q.setReconnecting), 0);
+    // Resumed: answers this device still holds go first; after the last answer, complete.
+    if (q.queue.pending.length) q.queue.flush();
+    if (initial?.phase !== 'done') return;
+    const t = setTimeout(() => void finish(), 0);
     return () => clearTimeout(t);
     // eslint-disable-next-line react-hooks/exhaustive-deps -- once, on mount
   }, []);
@@ -82,11 +100,14 @@ export function RespondentFlow(p: FlowProps) {
     const r = await withRetry(() => p.driver.start(segmentAnswers), q.setReconnecting);
     setStarting(false);
     if (!r.ok) return stop(r.code, r.message);
-    setFlow(r.data);
-    setUpcoming(r.data.upcoming);
-    setAnswered(r.data.answered);
-    const next = firstStep(r.data, []);
-    if (next.s === 'wait' && r.data.phase === 'done') void finish(q.setReconnecting);
+    q.queue.adopt(); // a start that resumed: answers this device held for that respondent
+    const state = withHeldAnswers(r.data, q.queue.pending)!;
+    setFlow(state);
+    setUpcoming(state.upcoming);
+    setAnswered(state.answered);
+    if (q.queue.pending.length) q.queue.flush();
+    const next = firstStep(state, []);
+    if (next.s === 'wait' && state.phase === 'done') void finish();
     else setStep(next);
   }
 
@@ -99,13 +120,17 @@ export function RespondentFlow(p: FlowProps) {
   }
 
   function answerTrial(trial: PublicTrial, answer: number, ms: number) {
-    q.push({ clientId: newClientId(), idx: trial.idx, answer, responseMs: Math.max(0, ms) });
+    // Stored on the device at once; sent with the next batch (adaptive plans: right away).
+    q.queue.push({ clientId: newClientId(), idx: trial.idx, answer, responseMs: Math.max(0, Math.round(ms)) });
     setAnswered((n) => n + 1);
     const rest = upcoming.slice(1);
     setUpcoming(rest);
     if (rest.length) setStep(rest[0].refresh && flow?.study.task === 'spot' ? { s: 'shelf', again: true } : { s: 'trial' });
-    // Adaptive plans learn the next trial from the answer's response; fixed ones finish once sent.
-    else setStep({ s: 'wait' });
+    else {
+      // Adaptive plans learn the next trial from the reply; fixed ones complete once all are acknowledged.
+      setStep({ s: 'wait' });
+      if (!flow?.adaptive) void finish();
+    }
   }
 
   const study = flow?.study ?? p.study;

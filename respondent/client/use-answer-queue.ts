@@ -1,11 +1,11 @@
 'use client';
-import { useCallback, useEffect, useRef, useState } from 'react';
-import type { PublicTrial } from '@/respondent/shared/types';
-import type { AnswerPayload, DriverResult, FlowDriver } from './driver';
+import { useEffect, useState } from 'react';
+import { AnswerQueue, type QueueStorage } from './answer-queue';
+import type { DriverResult, FlowDriver } from './driver';
 
 const wait = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
-/** Retries with backoff (1 s, 2 s, 4 s … at most 15 s) while the failure is a retryable one. */
+/** Retries with backoff (1 s, 2 s, 4 s … at most 15 s) while the failure is a retryable one (start, complete). */
 export async function withRetry<T>(call: () => Promise<DriverResult<T>>, onRetrying: (on: boolean) => void): Promise<DriverResult<T>> {
   for (let attempt = 0; ; attempt++) {
     const r = await call();
@@ -15,43 +15,45 @@ export async function withRetry<T>(call: () => Promise<DriverResult<T>>, onRetry
   }
 }
 
+/** localStorage when the browser lets the page use it (not on the server, not when blocked). */
+export function browserStorage(): QueueStorage | null {
+  try {
+    return typeof window === 'undefined' ? null : window.localStorage;
+  } catch {
+    return null;
+  }
+}
+
 /**
- * Answers are sent one at a time in order, each with its own client id, so a retry after a
- * lost response stores nothing twice. The respondent moves on without waiting when the next
- * trial is already known (fixed plans); adaptive plans wait for the staircase's next trial.
+ * The answer queue (./answer-queue.ts) bound to the page: the driver sends, localStorage keeps,
+ * and the page's lifecycle events hand what waits to a beacon (hidden, closed) or retry at once
+ * (back online). `reconnecting` is true while a send is failing and being retried. The page
+ * gives its callbacks with `queue.listen` after each render.
  */
-export function useAnswerQueue(driver: FlowDriver, handlers: {
-  onNext: (next: PublicTrial | null) => void;
-  onDrained: () => void;
-  onStopped: (code: string, message: string) => void;
-}) {
-  const queue = useRef<AnswerPayload[]>([]);
-  const busy = useRef(false);
+export function useAnswerQueue(driver: FlowDriver) {
   const [reconnecting, setReconnecting] = useState(false);
-  const h = useRef(handlers);
-  useEffect(() => { h.current = handlers; });
+  const [queue] = useState(() => new AnswerQueue({
+    send: (batch) => driver.sendAnswers(batch),
+    beacon: driver.beaconAnswers ? (batch) => driver.beaconAnswers!(batch) : undefined,
+    storage: browserStorage(),
+    storageKey: () => driver.storageKey(),
+    isOnline: () => typeof navigator === 'undefined' || navigator.onLine !== false,
+    onRetrying: setReconnecting,
+  }));
 
-  const pump = useCallback(async () => {
-    if (busy.current) return;
-    busy.current = true;
-    while (queue.current.length) {
-      const a = queue.current[0];
-      const r = await withRetry(() => driver.answer(a), setReconnecting);
-      queue.current.shift();
-      if (r.ok) {
-        if (r.data.next !== undefined) h.current.onNext(r.data.next);
-      } else if (r.code !== 'conflict') {
-        // A refused answer (closed study, or one this respondent already gave) ends the flow calmly.
-        queue.current = [];
-        h.current.onStopped(r.code, r.message);
-        break;
-      }
-    }
-    busy.current = false;
-    if (!queue.current.length) h.current.onDrained();
-  }, [driver]);
+  useEffect(() => {
+    const hidden = () => queue.pageHidden();
+    const visibility = () => { if (document.visibilityState === 'hidden') queue.pageHidden(); };
+    const online = () => queue.online();
+    window.addEventListener('pagehide', hidden);
+    document.addEventListener('visibilitychange', visibility);
+    window.addEventListener('online', online);
+    return () => {
+      window.removeEventListener('pagehide', hidden);
+      document.removeEventListener('visibilitychange', visibility);
+      window.removeEventListener('online', online);
+    };
+  }, [queue]);
 
-  const push = useCallback((a: AnswerPayload) => { queue.current.push(a); void pump(); }, [pump]);
-  const pending = () => queue.current.length > 0 || busy.current;
-  return { push, pending, reconnecting, setReconnecting };
+  return { queue, reconnecting, setReconnecting };
 }

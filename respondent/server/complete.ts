@@ -28,7 +28,10 @@ export async function completeRespondent(db: EntityManager, linkToken: string, r
     const finished = ctx.plan.mode === 'fixed'
       ? count >= ctx.plan.trials.length
       : expectedTrial(ctx.design, ctx.seed, ctx.plan, await answeredHistory(tx, ctx.id), count) === null;
-    if (!finished) throw new AppError(409, 'conflict', 'Some trials are not answered yet.');
+    // The phone completes once its stored answers are acknowledged; until then some are still on their way.
+    if (!finished) throw new AppError(409, 'conflict', ctx.plan.mode === 'fixed'
+      ? `${ctx.plan.trials.length - count} of ${ctx.plan.trials.length} answers have not reached us yet. Send them before completing.`
+      : 'Some answers have not reached us yet. Send them before completing.');
     if (!(await useSeat(tx, ctx.workspaceId, ctx.id))) throw new AppError(409, 'study_full', 'This study is full. Your answers are kept; thank you for taking part.');
     await sql(tx, `update respondent set state = 'completed', completed_at = now(), last_seen_at = now() where id = ?`, [ctx.id]);
     await sql(tx, 'update study set data_version = data_version + 1 where id = ?', [ctx.studyId]);

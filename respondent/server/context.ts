@@ -27,8 +27,9 @@ const cache = (holder.__respondentContexts ??= new Map());
  * (oldest entries dropped first); state that changes is read by the write statement itself.
  */
 export async function respondentContext(db: EntityManager, linkToken: string, resumeToken: string | null): Promise<RespondentContext> {
-  const missing = new AppError(404, 'not_found', 'We could not find your answers. Open the study link again.');
-  if (!resumeToken || resumeToken.length > 64) throw missing;
+  // Made only when thrown: an Error captures a stack trace, a real cost on the answer path.
+  const missing = () => new AppError(404, 'not_found', 'We could not find your answers. Open the study link again.');
+  if (!resumeToken || resumeToken.length > 64) throw missing();
   let ctx = cache.get(resumeToken);
   if (!ctx) {
     const r = await sqlOne(
@@ -38,7 +39,7 @@ export async function respondentContext(db: EntityManager, linkToken: string, re
         where r.resume_token = ? and r.plan is not null`,
       [resumeToken],
     );
-    if (!r) throw missing;
+    if (!r) throw missing();
     ctx = {
       id: String(r.id), studyId: String(r.study_id), workspaceId: String(r.workspace_id),
       linkToken: (r.link_token as string | null) ?? null, seed: Number(r.seed), pid: (r.pid as string | null) ?? null,
@@ -47,6 +48,6 @@ export async function respondentContext(db: EntityManager, linkToken: string, re
     if (cache.size >= MAX_CACHED) cache.delete(cache.keys().next().value!);
     cache.set(resumeToken, ctx);
   }
-  if (ctx.linkToken !== linkToken) throw missing;
+  if (ctx.linkToken !== linkToken) throw missing();
   return ctx;
 }

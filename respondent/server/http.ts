@@ -1,6 +1,5 @@
 import 'server-only';
 import type { NextRequest } from 'next/server';
-import { route } from '@/lib/server/http/route';
 import { resumeCookieName } from './link';
 
 // What the respondent route handlers (app/r/[token]/…) share besides route(): where the resume
@@ -22,16 +21,3 @@ export function resumeCookie(studyId: string, token: string, secure: boolean): s
   return `${resumeCookieName(studyId)}=${token}; Path=/r; Max-Age=${THIRTY_DAYS}; HttpOnly; SameSite=Lax${secure ? '; Secure' : ''}`;
 }
 
-/**
- * @deprecated The one handler left outside /r (app/api/r/[token]/answer) still uses this; it
- * goes when answers move to app/r/[token]/answers. A thin shell over route(), keeping the
- * no-store every respondent response carries (next.config.mjs covers only /r).
- */
-export function respondentRoute(handler: (req: NextRequest, token: string) => Promise<Response>) {
-  const wrapped = route({ auth: 'public', reason: 'respondents have no account: the link token and their resume token identify them' }, ({ req, params }) => handler(req, String(params.token)));
-  return async (req: NextRequest, ctx: { params: Promise<{ token: string }> }) => {
-    const res = await wrapped(req, ctx);
-    res.headers.set('cache-control', 'no-store');
-    return res;
-  };
-}

@@ -1,11 +1,14 @@
 import 'server-only';
 // The small respondent requests behind app/r/[token]/…: the link entry's refusal, the item
-// picture, the flow state on resume and the complete. Each opens the request's EntityManager
+// picture, the flow state on resume, an answer batch and the complete. Each opens the request's EntityManager
 // here so the route files stay free of database imports (eslint.config.mjs).
 import { em } from '@/lib/server/db/orm';
 import { sqlOne } from '@/lib/server/db/sql';
 import { AppError } from '@/lib/server/http/errors';
 import { completeRespondent } from './complete';
+import { answeringRespondent, recordAnswers } from './answers';
+import { limitAnswersOfRespondent } from './answer-limits';
+import type { AnswerBatchReply, AnswerInput } from '@/respondent/shared/answer.schema';
 import { linkRefusal, loadLink, openLink } from './link';
 import { findByResume, stateOf } from './respondents';
 import type { FlowState } from '@/respondent/shared/types';
@@ -37,4 +40,12 @@ export async function respondentState(token: string, resume: (studyId: string) =
 /** Finishes the respondent; uses one seat exactly once however often it is retried. */
 export async function completeByLink(token: string, resumeToken: string | null) {
   return completeRespondent(await em(), token, resumeToken);
+}
+
+/** Stores one batch for the respondent behind the first resume token that matches this link. */
+export async function storeAnswerBatch(token: string, resumeTokens: string[], answers: AnswerInput[]): Promise<AnswerBatchReply> {
+  const db = await em();
+  const respondent = await answeringRespondent(db, token, resumeTokens);
+  await limitAnswersOfRespondent(respondent.id, answers.length);
+  return recordAnswers(db, respondent, answers);
 }

@@ -12,6 +12,8 @@ export function respondentUrls(linkToken: string) {
     start: `${base}/start`,
     complete: `${base}/complete`,
     state: `${base}/state`,
+    /** Batches of answers, stored once per (respondent, trial). */
+    answers: `${base}/answers`,
     picture: `${base}/picture`,
   };
 }

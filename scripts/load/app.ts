@@ -15,7 +15,7 @@ import { bin, portInUse, startService, stopService, waitForPort } from '../lib/s
 
 export const DIST_DIR = process.env.LOAD_DIST_DIR ?? '.next-test-load';
 export const WEBHOOK_SECRET = 'whsec_load_faults_0123456789abcdef';
-const SOURCES = ['app', 'components', 'lib', 'entities', 'fonts', 'public', 'migrations'];
+const SOURCES = ['app', 'components', 'lib', 'entities', 'fonts', 'public', 'migrations', 'respondent'];
 const SOURCE_FILES = ['next.config.mjs', 'next.config.ts', 'proxy.ts', 'mikro-orm.config.ts', 'package.json', 'tailwind.config.ts', 'postcss.config.mjs'];
 
 function newestMtime(p: string): number {

@@ -1,21 +1,40 @@
 // Simulated respondents over real HTTP (keep-alive), doing what the respondent page's script
-// does: start, answer every trial in order with its own client id, complete; on a network
-// error, 5xx or 429 the same request (same client id) is retried with backoff.
+// does: start, give one answer after another, send them with the page's own answer queue
+// (respondent/client/answer-queue.ts: 4 answers at a time or 3 s after the latest, one request
+// at a time, the same client ids on every retry), wait until every answer is acknowledged,
+// complete. A start or
+// complete that meets a network error, 5xx or 429 is retried with backoff, as the page does.
 import http from 'node:http';
 import { randomUUID } from 'node:crypto';
+import { AnswerQueue, type SendResult } from '../../respondent/client/answer-queue';
+import type { AnswerInput } from '../../respondent/shared/answer.schema';
 
 export interface Reply { status: number; body: unknown; ms: number }
 export interface ClientStats {
+  /** Latency of every respondent request (start, answer batch, complete), ms. */
+  requestMs: number[];
+  /** Latency of the answer batch requests only, ms. */
   answerMs: number[];
+  /** From an answer being given on the phone to its acknowledgement, ms (what a slow server costs the phone). */
+  ackDelayMs: number[];
+  answersGiven: number;
   answersAcked: number;
+  /** Answers the server named as conflicts (a trial already answered otherwise): none expected here. */
+  conflicts: number;
+  batches: number;
+  starts: number;
   completes: number;
   errors: Record<string, number>;
   retries: number;
+  /** Client ids acknowledged since the caller last emptied this list (checked against the database). */
+  ackedIds: string[];
 }
 
-export const newStats = (): ClientStats => ({ answerMs: [], answersAcked: 0, completes: 0, errors: {}, retries: 0 });
+export const newStats = (): ClientStats => ({
+  requestMs: [], answerMs: [], ackDelayMs: [], answersGiven: 0, answersAcked: 0, conflicts: 0, batches: 0, starts: 0, completes: 0, errors: {}, retries: 0, ackedIds: [],
+});
 
-const agent = new http.Agent({ keepAlive: true, maxSockets: 1024 });
+const agent = new http.Agent({ keepAlive: true, maxSockets: 4096 });
 
 /** One request; network failures come back as status 0. */
 export function request(base: string, method: string, path: string, body?: unknown, headers: Record<string, string> = {}, raw?: string): Promise<Reply> {
@@ -40,6 +59,13 @@ export function request(base: string, method: string, path: string, body?: unkno
   });
 }
 
+/** The link's respondent endpoints (one place, should they move). */
+export const respondentPaths = (linkToken: string) => ({
+  start: `/api/r/${linkToken}/start`,
+  answers: `/r/${linkToken}/answers`,
+  complete: `/api/r/${linkToken}/complete`,
+});
+
 const retryable = (s: number) => s === 0 || s >= 500 || s === 429;
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
@@ -48,24 +74,39 @@ export interface RespondentOptions {
   bases: string[];
   linkToken: string;
   stats: ClientStats;
+  /** One answer every this many ms, on schedule whatever the replies do (open loop); 0 = all at once. */
+  answerEveryMs?: number;
+  /** Delay before the first answer (spreads respondents' clocks). */
+  firstAnswerAfterMs?: number;
   /** Backoff of the first retry (doubles, capped at maxBackoffMs); the page uses 1 s … 15 s. */
   backoffMs?: number;
   maxBackoffMs?: number;
   /** Give up after this long of failed retries for one request. */
   giveUpMs?: number;
+  /** Asked before each answer: true = give no more answers (send what was given, do not complete). */
+  stopAnswering?: () => boolean;
+  /** The page's batch rule (4 answers, or 3 s after the latest) unless given, to show what another rule would do. */
+  batchAnswers?: number;
+  batchWaitMs?: number;
+  batchClock?: 'latest-answer' | 'oldest-answer';
+  /** Called once the start has returned. */
+  onStarted?: () => void;
 }
 
 interface Trial { idx: number; kind: string; attention?: { options: string[] } }
 
-/** Runs one respondent start to complete; resolves with the number of answers acknowledged. */
+/** Runs one respondent from start to complete; resolves with the number of answers acknowledged. */
 export async function runRespondent(o: RespondentOptions): Promise<number> {
   let turn = Math.floor(Math.random() * o.bases.length);
+  const paths = respondentPaths(o.linkToken);
   // Each respondent on its own (benchmarking-range, RFC 2544) address, as the proxy in front would say.
   const ip = { 'x-forwarded-for': `198.18.${Math.floor(Math.random() * 256)}.${Math.floor(Math.random() * 256)}` };
-  const send = async (method: string, path: string, body: unknown, headers: Record<string, string>, what: string) => {
+  const send = async (path: string, body: unknown, headers: Record<string, string>, what: string, record: number[]) => {
     const startedAt = Date.now();
     for (let attempt = 0; ; attempt++) {
-      const r = await request(o.bases[turn++ % o.bases.length], method, path, body, { ...ip, ...headers });
+      const r = await request(o.bases[turn++ % o.bases.length], 'POST', path, body, { ...ip, ...headers });
+      o.stats.requestMs.push(r.ms);
+      record.push(r.ms);
       if (!retryable(r.status)) return r;
       o.stats.errors[`${what} ${r.status}`] = (o.stats.errors[`${what} ${r.status}`] ?? 0) + 1;
       if (Date.now() - startedAt > (o.giveUpMs ?? 120_000)) return r;
@@ -73,21 +114,71 @@ export async function runRespondent(o: RespondentOptions): Promise<number> {
       await sleep(Math.min(o.maxBackoffMs ?? 2000, (o.backoffMs ?? 100) * 2 ** attempt));
     }
   };
-  const api = `/api/r/${o.linkToken}`;
-  const started = await send('POST', `${api}/start`, { consent: true, segmentAnswers: { household: '2' } }, {}, 'start');
+  const started = await send(paths.start, { consent: true, segmentAnswers: { household: '2' } }, {}, 'start', []);
   if (started.status !== 200) throw new Error(`start ${started.status}: ${JSON.stringify(started.body)}`);
+  o.stats.starts++;
+  o.onStarted?.();
   const s = started.body as { resumeToken: string; upcoming: Trial[] };
   const auth = { 'x-resume-token': s.resumeToken };
+
+  const givenAt = new Map<string, number>();
   let acked = 0;
-  for (const t of s.upcoming) {
+  let failingSince = 0;
+  let stopped: string | null = null;
+  const queue = new AnswerQueue({
+    storage: null,
+    storageKey: () => null,
+    batchAnswers: o.batchAnswers,
+    batchWaitMs: o.batchWaitMs,
+    batchClock: o.batchClock,
+    backoffMs: o.backoffMs ?? 100,
+    maxBackoffMs: o.maxBackoffMs ?? 2000,
+    onStopped: (code, message) => { stopped = `${code}: ${message}`; },
+    send: async (batch: AnswerInput[]): Promise<SendResult> => {
+      const r = await request(o.bases[turn++ % o.bases.length], 'POST', paths.answers, { answers: batch }, { ...ip, ...auth });
+      o.stats.requestMs.push(r.ms);
+      o.stats.answerMs.push(r.ms);
+      if (r.status === 200) {
+        failingSince = 0;
+        const reply = r.body as { acknowledged: string[]; conflicts: string[]; answered: number };
+        const now = performance.now();
+        for (const id of reply.acknowledged) o.stats.ackDelayMs.push(now - (givenAt.get(id) ?? now));
+        o.stats.batches++;
+        o.stats.answersAcked += reply.acknowledged.length;
+        o.stats.conflicts += reply.conflicts.length;
+        o.stats.ackedIds.push(...reply.acknowledged);
+        acked += reply.acknowledged.length;
+        return { ok: true, data: reply };
+      }
+      o.stats.errors[`answers ${r.status}`] = (o.stats.errors[`answers ${r.status}`] ?? 0) + 1;
+      const retry = retryable(r.status);
+      if (retry) {
+        failingSince ||= Date.now();
+        if (Date.now() - failingSince > (o.giveUpMs ?? 120_000)) return { ok: false, retry: false, code: String(r.status), message: 'gave up' };
+        o.stats.retries++;
+      }
+      return { ok: false, retry, code: String(r.status), message: JSON.stringify(r.body) };
+    },
+  });
+
+  const every = o.answerEveryMs ?? 0;
+  const t0 = performance.now() + (o.firstAnswerAfterMs ?? 0);
+  let given = 0;
+  for (const [k, t] of s.upcoming.entries()) {
+    // Open loop: the k-th answer is given at t0 + k·every, however the earlier sends fare.
+    const due = t0 + k * every - performance.now();
+    if (due > 0) await sleep(due);
+    if (o.stopAnswering?.() || stopped) break;
     const answer = t.kind === 'attention' ? Math.max(0, t.attention!.options.indexOf('Often')) : t.idx % 2;
-    const r = await send('POST', `${api}/answer`, { clientId: randomUUID(), idx: t.idx, answer, responseMs: 850 }, auth, 'answer');
-    if (r.status !== 200) throw new Error(`answer ${t.idx} ${r.status}: ${JSON.stringify(r.body)}`);
-    o.stats.answerMs.push(r.ms);
-    o.stats.answersAcked++;
-    acked++;
+    const a = { clientId: randomUUID(), idx: t.idx, answer, responseMs: 850 };
+    givenAt.set(a.clientId, performance.now());
+    queue.push(a);
+    o.stats.answersGiven++;
+    given++;
   }
-  const done = await send('POST', `${api}/complete`, {}, auth, 'complete');
+  if (!(await queue.drain()) || stopped) throw new Error(`answers refused: ${stopped}`);
+  if (given < s.upcoming.length) return acked;
+  const done = await send(paths.complete, {}, auth, 'complete', []);
   if (done.status !== 200) throw new Error(`complete ${done.status}: ${JSON.stringify(done.body)}`);
   o.stats.completes++;
   return acked;

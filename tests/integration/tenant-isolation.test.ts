@@ -22,7 +22,6 @@ import { countsOf, makeTenantFixture, type TenantFixture } from '../support/tena
 /** Routes outside /api/w/[workspace] that are public by design, each with its reason. */
 const PUBLIC_ROUTES: { pattern: RegExp; reason: string }[] = [
   { pattern: /^\/api\/auth\/\[\.\.\.nextauth\]$/, reason: 'Auth.js sign-in/out endpoints; rate-limited, no workspace data' },
-  { pattern: /^\/api\/r\/\[token\]\/answer$/, reason: 'the one respondent endpoint not yet under /r/[token]: the link and resume tokens are the credential' },
   { pattern: /^\/r\/\[token\](\/.*)?$/, reason: 'the respondent runtime (link, flow document, start, state, complete, picture): the unguessable link token (and resume token) is the credential, no session' },
   { pattern: /^\/r-assets\/\[file\]$/, reason: "the respondent bundle's static files (hashed names only), no data" },
   { pattern: /^\/api\/stripe\/webhook$/, reason: 'Stripe webhook: authenticated by its signature header' },
@@ -35,7 +34,6 @@ const USER_ROUTES: { pattern: RegExp; reason: string }[] = [
 ];
 /** Route files that answer without route(), each with its reason; none may hold workspace data. */
 const UNWRAPPED_ROUTES: { pattern: RegExp; reason: string }[] = [
-  { pattern: /^\/api\/r\/\[token\](\/.*)?$/, reason: 'respondent endpoints: respondentRoute() in respondent/server/http.ts (no session, never cached)' },
 ];
 /** Server actions anyone may call, each with its reason; every other action must refuse an outsider. */
 const PUBLIC_ACTIONS: Record<string, string> = {
