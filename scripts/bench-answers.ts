@@ -1,4 +1,4 @@
-// npm run bench:answers [-- --steps 250,500,1000 --step-seconds 30 --every-ms 2000 --instances 1 --port 3901
+// npm run bench:answers [-- --steps 250,500,1000 --step-seconds 30 --arrivals-per-s 25 --every-ms 2000 --repetitions 3 --instances 1 --port 3901
 //                          --batch-answers 4 --batch-wait-ms 3000 --batch-clock latest-answer|oldest-answer]
 // Measures shoppers, not a flood: simulated respondents, each giving one answer every 2 s on
 // schedule (open loop: the next answer comes whether or not earlier requests have returned),
@@ -17,10 +17,11 @@ import os from 'node:os';
 import path from 'node:path';
 import { randomUUID } from 'node:crypto';
 import pg from 'pg';
+import { trialsPerRespondent } from '../lib/schemas/study.schema';
 import { DATA } from './lib/project.mjs';
 import { bin, startFakeStripe, stopService } from './lib/services.mjs';
 import { appEnv, ensureBuild, freshDatabase, groupCpuSeconds, startApp, stopApp, WEBHOOK_SECRET } from './load/app';
-import { createLoadStudy, storedFacts, type LoadStudy } from './load/study';
+import { createLoadStudy, loadDesign, storedFacts, type LoadStudy } from './load/study';
 import { newStats, percentile, request, runRespondent, runRespondents, type ClientStats } from './load/respondent-client';
 import { BATCH_ANSWERS as BATCH_ANSWERS_DEFAULT, BATCH_WAIT_MS as BATCH_WAIT_MS_DEFAULT } from '../respondent/client/answer-queue';
 
@@ -29,12 +30,18 @@ const arg = (name: string, fallback: number) => {
   const i = argv.indexOf(`--${name}`);
   return i > 0 ? Number(argv[i + 1]) : fallback;
 };
-const stepsArg = argv.indexOf('--steps') > 0 ? argv[argv.indexOf('--steps') + 1] : '250,500,1000,1500,2000,2500,3000,4000';
+const stepsArg = argv.indexOf('--steps') > 0 ? argv[argv.indexOf('--steps') + 1] : '250,500,750,1000,1250,1500,1750,2000,2250,2500,3000';
 const STEPS = stepsArg.split(',').map(Number).filter((n) => n > 0);
 const STEP_SECONDS = arg('step-seconds', 30);
-/** New respondents of a step arrive spread over this long (a panel blast is not one instant). */
-const ARRIVAL_SECONDS = arg('arrival-seconds', 10);
+/**
+ * New respondents of a step arrive at this rate (a panel blast is not one instant). Every start
+ * takes the workspace's seat lock, and a start waiting for it holds a pooled connection: a burst
+ * of starts far above what that lock passes would measure the start path, not the shoppers held.
+ */
+const ARRIVALS_PER_S = arg('arrivals-per-s', 25);
 const EVERY_MS = arg('every-ms', 2000);
+/** Study length: 3 base prices × 4 rungs × repetitions, plus catch, practice and attention trials (3 → 48 trials). */
+const REPETITIONS = arg('repetitions', 3);
 /** The phone's batch rule is 4 answers, or 3 s after the latest; these show what another rule would do. */
 const BATCH_ANSWERS = arg('batch-answers', BATCH_ANSWERS_DEFAULT);
 const BATCH_WAIT_MS = arg('batch-wait-ms', BATCH_WAIT_MS_DEFAULT);
@@ -123,8 +130,8 @@ async function main() {
   let stopping = false;
   const slots: Promise<void>[] = [];
   try {
-    const study = await createLoadStudy(pool, { seats: 1_000_000 });
-    log(`phone batch rule: ${BATCH_ANSWERS} answers or ${BATCH_WAIT_MS} ms after the ${BATCH_CLOCK === 'latest-answer' ? 'latest' : 'oldest unsent'} answer; one answer every ${EVERY_MS} ms per respondent; steps of ${STEP_SECONDS} s`);
+    const study = await createLoadStudy(pool, { seats: 1_000_000, design: loadDesign(REPETITIONS) });
+    log(`phone batch rule: ${BATCH_ANSWERS} answers or ${BATCH_WAIT_MS} ms after the ${BATCH_CLOCK === 'latest-answer' ? 'latest' : 'oldest unsent'} answer; one answer every ${EVERY_MS} ms per respondent; ${trialsPerRespondent(loadDesign(REPETITIONS)).total} trials per respondent (a new one starts when one completes); new respondents arrive at ${ARRIVALS_PER_S}/s; steps measured for ${STEP_SECONDS} s`);
     log(`machine: ${os.cpus().length} cores, load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')} before the run (other work on it moves every figure)`);
     // Warm-up: compile the routes' code paths and fill the pools before measuring.
     const warm = newStats();
@@ -155,11 +162,12 @@ async function main() {
     let held = 0;
     for (const n of STEPS) {
       const adding = n - held;
-      for (let i = 0; i < adding; i++) addSlot((i / adding) * ARRIVAL_SECONDS * 1000);
+      const arrivalSeconds = adding / ARRIVALS_PER_S;
+      for (let i = 0; i < adding; i++) addSlot((i / ARRIVALS_PER_S) * 1000);
       held = n;
       // Measure once the new respondents have arrived (their starts returned) and settled into their rhythm.
-      const arrivedBy = Date.now() + (ARRIVAL_SECONDS + 60) * 1000;
-      await sleep(ARRIVAL_SECONDS * 1000);
+      const arrivedBy = Date.now() + (arrivalSeconds + 60) * 1000;
+      await sleep(arrivalSeconds * 1000);
       while (slotsStarted < n && Date.now() < arrivedBy) await sleep(250);
       await sleep(EVERY_MS * 2);
       stats.requestMs = [];
@@ -207,7 +215,7 @@ async function main() {
     log(`raw inserts through pg (pool of ${POOL_MAX}, 200 callers, ${rows} rows): ${raw.toFixed(0)} rows/s one row per statement, ${raw4.toFixed(0)} rows/s four rows per statement`);
     const floor = await frameworkFloor(apps[0], base);
     log(floor.text);
-    const probe = await request(base, 'GET', '/api/r/not-a-real-link/state');
+    const probe = await request(base, 'GET', '/r/not-a-real-link/state');
     if (probe.status !== 404) throw new Error(`the app stopped answering (${probe.status})`);
     process.stdout.write(`bench:answers respondents_held=${best?.respondents ?? 0} answers_per_s=${(best?.answersPerS ?? 0).toFixed(0)} p99_ms=${(best?.p99 ?? 0).toFixed(1)} framework_floor_rps=${floor.rps.toFixed(0)} raw_inserts_per_s=${raw.toFixed(0)} ratio=${((best?.answersPerS ?? 0) / raw).toFixed(2)}\n`);
   } finally {

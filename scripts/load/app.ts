@@ -96,7 +96,7 @@ export async function waitHttp(base: string, timeoutMs = 60_000): Promise<void> 
   const until = Date.now() + timeoutMs;
   for (;;) {
     try {
-      const r = await fetch(`${base}/api/r/not-a-real-link/state`);
+      const r = await fetch(`${base}/r/not-a-real-link/state`);
       await r.arrayBuffer();
       if (r.status < 500) return;
     } catch {

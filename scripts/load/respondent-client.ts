@@ -59,11 +59,11 @@ export function request(base: string, method: string, path: string, body?: unkno
   });
 }
 
-/** The link's respondent endpoints (one place, should they move). */
+/** The link's respondent endpoints, all under /r/[token] (respondent/shared/urls.ts says the same for the page). */
 export const respondentPaths = (linkToken: string) => ({
-  start: `/api/r/${linkToken}/start`,
+  start: `/r/${linkToken}/start`,
   answers: `/r/${linkToken}/answers`,
-  complete: `/api/r/${linkToken}/complete`,
+  complete: `/r/${linkToken}/complete`,
 });
 
 const retryable = (s: number) => s === 0 || s >= 500 || s === 429;
