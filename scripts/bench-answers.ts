@@ -102,6 +102,26 @@ async function frameworkFloor(app: ChildProcess, base: string): Promise<{ rps: n
   };
 }
 
+/** Samples pg_stat_activity every 100 ms: how often and how many of the app's connections wait on a lock. */
+function sampleLockWaits(pool: pg.Pool) {
+  let on = true;
+  let samples = 0;
+  let busy = 0;
+  let max = 0;
+  const loop = (async () => {
+    while (on) {
+      const r = await pool.query(`select count(*)::int as n from pg_stat_activity where datname = current_database() and wait_event_type = 'Lock'`).catch(() => null);
+      if (r) {
+        samples++;
+        if (r.rows[0].n > 0) busy++;
+        max = Math.max(max, r.rows[0].n);
+      }
+      await sleep(100);
+    }
+  })();
+  return { stop: async () => { on = false; await loop; return { busy: samples ? Math.round((busy / samples) * 100) : 0, max }; } };
+}
+
 interface StepResult { respondents: number; answersPerS: number; requestsPerS: number; p99: number; lost: number; duplicated: number; failures: number }
 
 /** Every answer acknowledged since the last check is stored; no trial stored twice; counters equal rows. */
@@ -172,17 +192,24 @@ async function main() {
       await sleep(EVERY_MS * 2);
       stats.requestMs = [];
       stats.answerMs = [];
+      stats.seatMs = [];
       stats.ackDelayMs = [];
       const before = { acked: stats.answersAcked, batches: stats.batches, starts: stats.starts, completes: stats.completes, errors: { ...stats.errors }, failures: failures.length };
       const cpu0 = apps.reduce((a, app) => a + groupCpuSeconds(app), 0);
+      const client0 = process.cpuUsage();
       const tx0 = await commits(pool);
       const t = performance.now();
+      const waits = sampleLockWaits(pool);
       await sleep(STEP_SECONDS * 1000);
+      const lockWaits = await waits.stop();
       const seconds = (performance.now() - t) / 1000;
       const appCpu = apps.reduce((a, app) => a + groupCpuSeconds(app), 0) - cpu0;
+      const client = process.cpuUsage(client0);
+      const clientCpu = (client.user + client.system) / 1e6;
       const statements = (await commits(pool)) - tx0;
       const ms = [...stats.requestMs].sort((a, b) => a - b);
       const answerMs = [...stats.answerMs].sort((a, b) => a - b);
+      const seatMs = [...stats.seatMs].sort((a, b) => a - b);
       const delays = [...stats.ackDelayMs].sort((a, b) => a - b);
       const requests = ms.length;
       const [p50, p95, p99] = [50, 95, 99].map((p) => percentile(ms, p));
@@ -193,8 +220,9 @@ async function main() {
       const r: StepResult = { respondents: n, answersPerS: acked / seconds, requestsPerS: requests / seconds, p99, lost: v.lost + v.countMismatches, duplicated: v.duplicated, failures: failures.length - before.failures };
       results.push(r);
       log(`step ${n} respondents: ${r.requestsPerS.toFixed(0)} requests/s (${(batches / seconds).toFixed(0)} answer batches/s of ${(acked / Math.max(1, batches)).toFixed(2)} answers, ${((stats.starts - before.starts) / seconds).toFixed(1)} starts/s, ${((stats.completes - before.completes) / seconds).toFixed(1)} completes/s), ${r.answersPerS.toFixed(0)} answers/s`);
-      log(`  respondent requests: p50 ${p50.toFixed(1)} ms, p95 ${p95.toFixed(1)} ms, p99 ${p99.toFixed(1)} ms, max ${(ms.at(-1) ?? 0).toFixed(1)} ms (answer batches p99 ${percentile(answerMs, 99).toFixed(1)} ms); answer given → acknowledged p50 ${(percentile(delays, 50) / 1000).toFixed(2)} s, p99 ${(percentile(delays, 99) / 1000).toFixed(2)} s`);
-      log(`  app CPU ${(appCpu / seconds * 100).toFixed(0)} % of one core (${(appCpu * 1000 / Math.max(1, requests)).toFixed(2)} ms per request); database ${(statements / Math.max(1, requests)).toFixed(2)} committed statements per request (rate-limit counters included); load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')}`);
+      log(`  respondent requests: p50 ${p50.toFixed(1)} ms, p95 ${p95.toFixed(1)} ms, p99 ${p99.toFixed(1)} ms, max ${(ms.at(-1) ?? 0).toFixed(1)} ms (answer batches p99 ${percentile(answerMs, 99).toFixed(1)} ms${seatMs.length ? `, starts and completes p99 ${percentile(seatMs, 99).toFixed(1)} ms` : ''}); answer given → acknowledged p50 ${(percentile(delays, 50) / 1000).toFixed(2)} s, p99 ${(percentile(delays, 99) / 1000).toFixed(2)} s`);
+      log(`  app CPU ${(appCpu / seconds * 100).toFixed(0)} % of one core (${(appCpu * 1000 / Math.max(1, requests)).toFixed(2)} ms per request); database ${(statements / Math.max(1, requests)).toFixed(2)} committed statements per request (rate-limit counters included); this load client ${(clientCpu / seconds * 100).toFixed(0)} % of one core; load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')}`);
+      log(`  connections waiting on a lock: ${lockWaits.busy} % of samples, at most ${lockWaits.max} at once (starts and completes queue on the workspace's seat lock, each holding a pooled connection)`);
       log(`  checked in the database: ${v.lost} acknowledged answers missing, ${v.duplicated} trials stored twice, ${v.countMismatches} counters off; ${errors.length ? errors.map(([k, v]) => `${v} × ${k}`).join(', ') : 'no'} failed requests (retried), ${r.failures} respondents given up`);
       if (p99 > P99_LIMIT_MS) { log(`  p99 passed ${P99_LIMIT_MS} ms: the ramp stops here`); break; }
     }

@@ -15,6 +15,8 @@ export interface ClientStats {
   requestMs: number[];
   /** Latency of the answer batch requests only, ms. */
   answerMs: number[];
+  /** Latency of starts and completes (they take the workspace's seat lock), ms. */
+  seatMs: number[];
   /** From an answer being given on the phone to its acknowledgement, ms (what a slow server costs the phone). */
   ackDelayMs: number[];
   answersGiven: number;
@@ -31,7 +33,7 @@ export interface ClientStats {
 }
 
 export const newStats = (): ClientStats => ({
-  requestMs: [], answerMs: [], ackDelayMs: [], answersGiven: 0, answersAcked: 0, conflicts: 0, batches: 0, starts: 0, completes: 0, errors: {}, retries: 0, ackedIds: [],
+  requestMs: [], answerMs: [], seatMs: [], ackDelayMs: [], answersGiven: 0, answersAcked: 0, conflicts: 0, batches: 0, starts: 0, completes: 0, errors: {}, retries: 0, ackedIds: [],
 });
 
 const agent = new http.Agent({ keepAlive: true, maxSockets: 4096 });
@@ -114,7 +116,7 @@ export async function runRespondent(o: RespondentOptions): Promise<number> {
       await sleep(Math.min(o.maxBackoffMs ?? 2000, (o.backoffMs ?? 100) * 2 ** attempt));
     }
   };
-  const started = await send(paths.start, { consent: true, segmentAnswers: { household: '2' } }, {}, 'start', []);
+  const started = await send(paths.start, { consent: true, segmentAnswers: { household: '2' } }, {}, 'start', o.stats.seatMs);
   if (started.status !== 200) throw new Error(`start ${started.status}: ${JSON.stringify(started.body)}`);
   o.stats.starts++;
   o.onStarted?.();
@@ -178,7 +180,7 @@ export async function runRespondent(o: RespondentOptions): Promise<number> {
   }
   if (!(await queue.drain()) || stopped) throw new Error(`answers refused: ${stopped}`);
   if (given < s.upcoming.length) return acked;
-  const done = await send(paths.complete, {}, auth, 'complete', []);
+  const done = await send(paths.complete, {}, auth, 'complete', o.stats.seatMs);
   if (done.status !== 200) throw new Error(`complete ${done.status}: ${JSON.stringify(done.body)}`);
   o.stats.completes++;
   return acked;
