@@ -32,6 +32,15 @@ export async function fitNow(studyId: string, opts: { segment?: { questionId: st
   const { requestComputation } = await import('@/lib/server/analysis/cache');
   await requestComputation({ studyId, kind: 'fit', cacheKey, dataVersion: s.dataVersion, queue: 'analysis', payload: { segment: opts.segment ?? null, target: null } });
   await runFitJob({ studyId, kind: 'fit', cacheKey, dataVersion: s.dataVersion, segment: opts.segment ?? null, target: null });
+  // The test app's own worker watches the same queue and may have claimed the job first; then
+  // the fit finishes there. Either way the cached row ends 'done' (or 'failed'): wait for that.
+  const { readCache } = await import('@/lib/server/analysis/cache');
+  for (let i = 0; i < 600; i++) {
+    const row = await readCache(studyId, 'fit', cacheKey);
+    if (row && (row.status === 'done' || row.status === 'failed')) return;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`the fit of study ${studyId} did not finish within 60 s`);
 }
 
 /** A multipart body with one file field, as a browser sends it. */
