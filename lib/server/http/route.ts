@@ -115,18 +115,20 @@ export function route<P extends Params = Params, const A extends RouteAuth = Rou
   spec: A,
   handler: (input: RouteInput<A, P>) => Promise<Out>,
 ): RouteHandler<Out> {
-  const run = async (request: Request, routeCtx?: { params: Promise<RawParams> }): Promise<Response> =>
-    withRequestContext(async () => {
-      try {
+  const run = async (request: Request, routeCtx?: { params: Promise<RawParams> }): Promise<Response> => {
+    try {
+      // Opening the context can itself fail (the database not reachable yet): same error shape.
+      return await withRequestContext(async () => {
         const req = request instanceof NextRequest ? request : new NextRequest(request);
         const raw = (await routeCtx?.params) ?? {};
         const params: Params = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, Array.isArray(v) ? v.join('/') : v]));
         const caller = await resolveCaller(spec, req, params);
         return toResponse(await handler({ req, params, ...caller } as RouteInput<A, P>));
-      } catch (err) {
-        return toErrorResponse(err);
-      }
-    });
+      });
+    } catch (err) {
+      return toErrorResponse(err);
+    }
+  };
   specs.set(run, spec);
   return run as RouteHandler<Out>;
 }
