@@ -12,7 +12,7 @@ import { recordAudit } from '@/lib/server/team/audit';
 import { em } from '@/lib/server/db/orm';
 import { lockKey } from '@/lib/server/db/sql';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
-import { isUuid } from '@/lib/server/platform/ids';
+import { requireUuid } from '@/lib/server/platform/ids';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
 // Promotion plans: a study's fit (or one segment answer's) applied to a price list. Created from
@@ -72,7 +72,7 @@ export type CreatePlanResult = { status: 'created'; plan: PromoPlanDto } | { sta
  */
 export async function createPromoPlan(ctx: WorkspaceContext, input: PromoPlanCreate): Promise<CreatePlanResult> {
   const db = await em();
-  if (!isUuid(input.priceListId)) throw notFoundError('That price list');
+  requireUuid(input.priceListId, 'That price list');
   const list = await db.findOne(PriceList, { id: input.priceListId, workspace: ctx.workspace.id });
   if (!list) throw notFoundError('That price list');
   const fit = await getStudyFit(ctx, input.studyId, { segment: input.segment });
@@ -117,7 +117,7 @@ export async function createPromoPlan(ctx: WorkspaceContext, input: PromoPlanCre
 }
 
 async function findPlan(db: EntityManager, ctx: WorkspaceContext, id: string) {
-  if (!isUuid(id)) throw notFoundError('That promotion plan');
+  requireUuid(id, 'That promotion plan');
   const p = await db.findOne(PromoPlan, { id, workspace: ctx.workspace.id }, { populate: ['study', 'priceList', 'createdBy'] });
   if (!p) throw notFoundError('That promotion plan');
   return p;
