@@ -1,4 +1,4 @@
-import type { Interval, Task } from './types';
+import type { Interval, ModelName, Task } from './types';
 
 export interface BaseReport {
   basePrice: number;
@@ -59,4 +59,62 @@ export interface AnalysisReport {
   bootstrapSamples: number;
   seed: number | string;
   warnings: string[];
+  /** 'shopper' when trials carried respondent ids (respondent-level bootstrap), else 'trial'. */
+  unit?: 'shopper' | 'trial';
+  /** Present when respondent ids were given (see ShopperSpreadReport). */
+  shopperSpread?: ShopperSpreadReport | null;
+}
+
+/**
+ * A threshold the data cannot put a number on: nobody noticed even the deepest rung
+ * ('above', fraction = that rung) or everybody noticed the shallowest ('below').
+ */
+export interface ThresholdBound {
+  kind: 'above' | 'below';
+  /** The deepest (above) or shallowest (below) rung tested at this base, as a fraction. */
+  fraction: number;
+}
+
+/** The discount that a given share of shoppers notices at one base (mixed model). */
+export interface ShareOfShoppers {
+  /** 0.5, 0.75 or 0.9. */
+  share: number;
+  fraction: number | null;
+  fractionCi: Interval | null;
+  bound: ThresholdBound | null;
+}
+
+/** One point of the two notice curves at a base. */
+export interface SpreadCurvePoint {
+  discount: number;
+  /** Notice rate of the typical shopper (random effect 0). */
+  typical: number;
+  /** Share of all shoppers who notice (the typical curve averaged over the spread σ). */
+  population: number;
+}
+
+/**
+ * How much shoppers differ: the mixed psychometric model (shopper random effect on the ln
+ * threshold, SD σ) fitted by maximum marginal likelihood (Moscatelli, Mezzetti & Lacquaniti
+ * 2012). Null in the report when the data carry no respondent ids.
+ */
+export interface ShopperSpreadReport {
+  model: ModelName;
+  shoppers: number;
+  /** SD of shoppers' ln thresholds. */
+  sigma: number;
+  sigmaCi: Interval | null;
+  /** How σ's interval was made, in words. */
+  sigmaMethod: string;
+  logLik: number;
+  converged: boolean;
+  bases: {
+    basePrice: number;
+    /** Threshold of the typical shopper (fraction), null when only a bound is known. */
+    typicalFraction: number | null;
+    /** Discounts between which half of shoppers' own thresholds lie (25th–75th percentile). */
+    middleHalf: Interval | null;
+    shares: ShareOfShoppers[];
+    curve: SpreadCurvePoint[];
+  }[];
 }

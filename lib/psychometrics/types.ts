@@ -22,6 +22,17 @@ export interface TrialRow {
   basePrice: number;
   discount: number;
   response: 0 | 1;
+  /** Who answered; when present the shopper is the sampled unit (shoppers.ts). */
+  respondent?: string;
+}
+
+/** One shopper's trials at one base price and discount (discount 0: catch trials). */
+export interface ShopperCell {
+  respondent: string;
+  basePrice: number;
+  discount: number;
+  n: number;
+  k: number;
 }
 
 export type IntervalMethod = 'percentile' | 'bca';
