@@ -1,18 +1,22 @@
 'use client';
 import { useEffect, useRef, useState } from 'react';
 import type { FlowStudy, PublicTrial, Side } from '@/respondent/shared/types';
-import { PriceTag } from './price-tag';
+import { KeyHint, KeysNote, PriceTag, bigButton } from './price-tag';
+import { useAnswerKeys } from './screen-hooks';
 
 const READY_MS = 700;
 const now = () => performance.now();
+const NAME: Record<Side, string> = { left: 'Left', right: 'Right' };
 
 /**
  * Pick the lower price: two tags for a brief view, then hidden, then the choice. Prices are
- * never left side by side in full view, so the choice rests on a glance, not arithmetic.
+ * never left side by side in full view, so the choice rests on a glance, not arithmetic. The
+ * answer buttons take the tags' places, so the thumb goes where the eye was.
  */
 export function PickTrial({ study, trial, onAnswer }: { study: FlowStudy; trial: PublicTrial; onAnswer: (answer: number, ms: number) => void }) {
   const [phase, setPhase] = useState<'ready' | 'view' | 'choose'>('ready');
   const hiddenAt = useRef(0);
+  const answered = useRef(false);
   useEffect(() => {
     const a = setTimeout(() => setPhase('view'), READY_MS);
     const b = setTimeout(() => { hiddenAt.current = performance.now(); setPhase('choose'); }, READY_MS + study.viewMs);
@@ -21,24 +25,33 @@ export function PickTrial({ study, trial, onAnswer }: { study: FlowStudy; trial:
 
   const lower = trial.side ?? 'left';
   const priceOn = (s: Side) => (s === lower ? trial.price : trial.base);
-  const choose = (s: Side) => onAnswer(s === lower ? 1 : 0, Math.round(now() - hiddenAt.current));
+  const choose = (s: Side) => {
+    if (answered.current) return;
+    answered.current = true;
+    onAnswer(s === lower ? 1 : 0, Math.round(now() - hiddenAt.current));
+  };
+  useAnswerKeys({ ArrowLeft: () => choose('left'), ArrowRight: () => choose('right'), 1: () => choose('left'), 2: () => choose('right') }, phase === 'choose');
 
   return (
-    <div className="flex flex-col gap-6">
+    <div className="flex flex-col gap-5">
       <h1 className="text-center text-2xl">{trial.label}</h1>
-      <p className="text-center text-lg">{phase === 'choose' ? 'Which tag showed the lower price?' : phase === 'ready' ? 'Look at the two tags…' : 'Look closely'}</p>
+      <p className="text-center text-lg" aria-live="polite">
+        {phase === 'choose' ? 'Which tag showed the lower price?' : phase === 'ready' ? 'Two price tags will appear for a moment…' : 'Look closely'}
+      </p>
       <div className="grid grid-cols-2 gap-3" data-phase={phase}>
         {(['left', 'right'] as const).map((s) =>
           phase === 'choose' ? (
-            <button key={s} type="button" onClick={() => choose(s)}
-              className="flex min-h-28 items-center justify-center rounded-sm border-2 border-dashed border-teal bg-card text-xl font-semibold text-teal active:bg-teal-light">
-              {s === 'left' ? 'Left' : 'Right'}
+            <button key={s} type="button" onClick={() => choose(s)} aria-keyshortcuts={s === 'left' ? 'ArrowLeft' : 'ArrowRight'}
+              className={`${bigButton} min-h-24 flex-col gap-1`}>
+              <span className="text-xl">{NAME[s]}</span>
+              <KeyHint k={s === 'left' ? '←' : '→'} />
             </button>
           ) : (
-            <PriceTag key={s} study={study} price={priceOn(s)} hidden={phase === 'ready'} size="md" caption={s === 'left' ? 'Left' : 'Right'} />
+            <PriceTag key={s} study={study} price={priceOn(s)} hidden={phase === 'ready'} size="md" caption={NAME[s]} />
           ),
         )}
       </div>
+      {phase === 'choose' ? <KeysNote>On a keyboard: ← for the left tag, → for the right.</KeysNote> : null}
     </div>
   );
 }

@@ -1,9 +1,12 @@
 'use client';
-import { useCallback, useEffect, useState } from 'react';
+import { useCallback, useEffect, useRef, useState } from 'react';
 import type { SegmentQuestion } from '@/lib/schemas/study.schema';
 import type { FlowState, FlowStudy, PublicTrial } from '@/respondent/shared/types';
 import { ConsentScreen } from './consent-screen';
 import { newClientId, type FlowDriver } from './driver';
+import { InstructionsScreen } from './instructions-screen';
+import { PracticeFeedback } from './practice-feedback';
+import { PreviewEnd } from './preview-end';
 import { QuestionScreen } from './question-screen';
 import { ShelfScreen } from './shelf-screen';
 import { TrialScreen } from './trial-screen';
@@ -11,7 +14,9 @@ import { browserStorage, useAnswerQueue, withRetry } from './use-answer-queue';
 import { storedAnswers } from './answer-queue';
 import { FlowColumn, Progress, Reconnecting, Stopped, Thanks, Waiting } from './status-screens';
 
-type Step = { s: 'consent' } | { s: 'question'; i: number } | { s: 'shelf'; again: boolean } | { s: 'trial' } | { s: 'wait' } | { s: 'thanks' } | { s: 'stopped'; code: string; message: string };
+type Step =
+  | { s: 'consent' } | { s: 'question'; i: number } | { s: 'intro' } | { s: 'shelf'; again: boolean } | { s: 'trial' }
+  | { s: 'feedback'; trial: PublicTrial; answer: number } | { s: 'wait' } | { s: 'thanks' } | { s: 'stopped'; code: string; message: string };
 
 export interface FlowProps {
   driver: FlowDriver;
@@ -23,14 +28,21 @@ export interface FlowProps {
   initial: FlowState | null;
   formAction?: string;
   pid?: string | null;
+  /** The analyst's preview: the last screen says that nothing was recorded. */
+  preview?: boolean;
 }
+
+/** After the instructions: spot the saving shows the remembered shelf first. */
+const afterIntro = (state: FlowState): Step => (state.study.task === 'spot' ? { s: 'shelf', again: state.answered > 0 } : { s: 'trial' });
 
 function firstStep(initial: FlowState | null, questions: SegmentQuestion[]): Step {
   if (!initial) return { s: 'consent' };
   if (initial.phase === 'completed') return { s: 'thanks' };
   if (initial.phase === 'questions') return questions.length ? { s: 'question', i: 0 } : { s: 'wait' };
   if (initial.phase === 'done' || !initial.upcoming.length) return { s: 'wait' };
-  return initial.study.task === 'spot' ? { s: 'shelf', again: initial.answered > 0 } : { s: 'trial' };
+  // The instructions come before the practice (again on a resume during the practice).
+  if (initial.answered === 0 || initial.upcoming[0].kind === 'practice') return { s: 'intro' };
+  return afterIntro(initial);
 }
 
 /**
@@ -55,6 +67,20 @@ export function RespondentFlow(p: FlowProps) {
   const [answered, setAnswered] = useState(initial?.answered ?? 0);
   const [answers, setAnswers] = useState<Record<string, string>>({});
   const [starting, setStarting] = useState(false);
+  // Read by the answer queue's reply handler, which must not jump over instructions or feedback.
+  const stepNow = useRef(step);
+  const noMoreTrials = useRef(false);
+  const column = useRef<HTMLDivElement>(null);
+  const firstRender = useRef(true);
+
+  useEffect(() => {
+    stepNow.current = step;
+    // A new screen starts at the top, its heading focused (announced, and Tab goes on from it).
+    if (firstRender.current) { firstRender.current = false; return; }
+    const h = column.current?.querySelector('h1');
+    if (h) { h.tabIndex = -1; h.classList.add('focus:outline-none'); h.focus({ preventScroll: true }); }
+    if (column.current && column.current.getBoundingClientRect().top < 0) column.current.scrollIntoView({ block: 'start' });
+  }, [step]);
 
   const stop = useCallback((code: string, message: string) => setStep({ s: 'stopped', code, message }), []);
 
@@ -77,6 +103,9 @@ export function RespondentFlow(p: FlowProps) {
         // Adaptive plans: the reply places the next trial (null = none left).
         if (reply.next === undefined) return;
         setUpcoming(reply.next ? [reply.next] : []);
+        noMoreTrials.current = !reply.next;
+        // Instructions and practice feedback stay until the respondent moves on (continueFrom reads upcoming).
+        if (stepNow.current.s === 'feedback' || stepNow.current.s === 'intro') return;
         if (!reply.next) { setStep({ s: 'wait' }); void finish(); }
         else setStep(reply.next.refresh && flow?.study.task === 'spot' ? { s: 'shelf', again: true } : { s: 'trial' });
       },
@@ -119,18 +148,25 @@ export function RespondentFlow(p: FlowProps) {
     else void begin(all);
   }
 
-  function answerTrial(trial: PublicTrial, answer: number, ms: number) {
-    // Stored on the device at once; sent with the next batch (adaptive plans: right away).
-    q.queue.push({ clientId: newClientId(), idx: trial.idx, answer, responseMs: Math.max(0, Math.round(ms)) });
-    setAnswered((n) => n + 1);
-    const rest = upcoming.slice(1);
-    setUpcoming(rest);
+  /** The next screen once a trial (and any practice feedback) is done with. */
+  function continueFrom(rest: PublicTrial[]) {
     if (rest.length) setStep(rest[0].refresh && flow?.study.task === 'spot' ? { s: 'shelf', again: true } : { s: 'trial' });
     else {
       // Adaptive plans learn the next trial from the reply; fixed ones complete once all are acknowledged.
       setStep({ s: 'wait' });
-      if (!flow?.adaptive) void finish();
+      if (!flow?.adaptive || noMoreTrials.current) void finish();
     }
+  }
+
+  function answerTrial(trial: PublicTrial, answer: number, ms: number) {
+    // Stored on the device at once; sent with the next batch (adaptive plans: right away).
+    // Practice answers go too (the server keeps them as practice, never analysed): the plan is answered in order.
+    q.queue.push({ clientId: newClientId(), idx: trial.idx, answer, responseMs: Math.max(0, Math.round(ms)) });
+    setAnswered((n) => n + 1);
+    const rest = upcoming.slice(1);
+    setUpcoming(rest);
+    if (trial.kind === 'practice') setStep({ s: 'feedback', trial, answer });
+    else continueFrom(rest);
   }
 
   const study = flow?.study ?? p.study;
@@ -141,21 +177,31 @@ export function RespondentFlow(p: FlowProps) {
       onAgree={() => (p.questions.length ? setStep({ s: 'question', i: 0 }) : void begin({}))} />;
   } else if (step.s === 'question') {
     body = <QuestionScreen key={step.i} question={p.questions[step.i]} n={step.i + 1} of={p.questions.length} onAnswer={(o) => answerQuestion(o, step.i)} />;
+  } else if (step.s === 'intro' && flow) {
+    body = <InstructionsScreen study={study} practice={Math.max(0, flow.practice - answered)} questions={Math.max(0, flow.total - flow.practice)}
+      onStart={() => setStep(afterIntro({ ...flow, answered }))} />;
+  } else if (step.s === 'feedback' && flow) {
+    body = <PracticeFeedback study={study} trial={step.trial} answer={step.answer} last={answered >= flow.practice} onNext={() => continueFrom(upcoming)} />;
   } else if (step.s === 'shelf' && flow) {
     body = <ShelfScreen study={study} shelf={flow.shelf} again={step.again} onDone={() => setStep(upcoming.length ? { s: 'trial' } : { s: 'wait' })} />;
   } else if (step.s === 'trial' && current) {
     body = <TrialScreen key={current.idx} study={study} trial={current} onAnswer={(a, ms) => answerTrial(current, a, ms)} />;
   } else if (step.s === 'thanks') {
-    body = <Thanks />;
+    body = p.preview ? <PreviewEnd /> : <Thanks />;
   } else if (step.s === 'stopped') {
     body = <Stopped code={step.code} message={step.message} />;
   } else {
     body = <Waiting />;
   }
-  const showProgress = flow && (step.s === 'trial' || step.s === 'shelf' || step.s === 'wait');
+  const showProgress = flow && (step.s === 'trial' || step.s === 'shelf' || step.s === 'wait' || step.s === 'feedback');
+  let progress: React.ReactNode = null;
+  if (showProgress) {
+    const practice = step.s === 'feedback' ? { n: answered, of: flow.practice } : answered < flow.practice ? { n: answered + 1, of: flow.practice } : undefined;
+    progress = <Progress done={Math.max(0, answered - flow.practice)} total={Math.max(flow.total, answered) - flow.practice} practice={practice} />;
+  }
   return (
-    <FlowColumn>
-      {showProgress ? <Progress done={answered} total={Math.max(flow.total, answered)} /> : null}
+    <FlowColumn ref={column}>
+      {progress}
       {q.reconnecting ? <Reconnecting /> : null}
       {body}
     </FlowColumn>

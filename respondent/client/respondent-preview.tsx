@@ -23,6 +23,7 @@ export function RespondentPreview({ design, workspaceRetentionDays, pictureUrl =
           retentionDays={workspaceRetentionDays}
           questions={design.segmentQuestions}
           initial={null}
+          preview
         />
       </div>
       <button type="button" className="btn self-center" onClick={() => setRun((r) => r + 1)}>Start the preview again</button>

@@ -1,18 +1,26 @@
 // The flow's small status screens. No hooks and no 'use client': the server document renders
 // Stopped, Waiting and NeedsScript too (respondent/server/document.tsx), so both sides show one markup.
-import type { ReactNode } from 'react';
+import type { ReactNode, Ref } from 'react';
 
 /** The flow's column of screens; the server document wraps its first screen in it too, so hydration finds the same markup. */
-export function FlowColumn({ children }: { children: ReactNode }) {
-  return <div className="flex flex-col gap-6">{children}</div>;
+export function FlowColumn({ children, ref }: { children: ReactNode; ref?: Ref<HTMLDivElement> }) {
+  return <div ref={ref} className="flex flex-col gap-6">{children}</div>;
 }
 
-/** Progress through the trials: a plain bar, never a score. */
-export function Progress({ done, total }: { done: number; total: number }) {
-  const pct = total > 0 ? Math.min(100, Math.round((done / total) * 100)) : 0;
+/**
+ * Progress through the trials, in words ("12 of 36 answered") above a plain bar: never a score.
+ * Practice rounds are counted on their own (`practice`), not in the questions' count.
+ */
+export function Progress({ done, total, practice }: { done: number; total: number; practice?: { n: number; of: number } }) {
+  const pct = practice ? 0 : total > 0 ? Math.min(100, Math.round((done / total) * 100)) : 0;
+  const words = practice ? `Practice ${practice.n} of ${practice.of}` : `${done} of ${total} answered`;
   return (
-    <div role="progressbar" aria-label="Progress" aria-valuemin={0} aria-valuemax={total} aria-valuenow={done} data-testid="progress" className="h-2 w-full overflow-hidden rounded-sm bg-rule">
-      <div className="h-full bg-teal transition-[width]" style={{ width: `${pct}%` }} />
+    <div className="flex flex-col gap-1">
+      <p className="num text-base text-muted" data-testid="progress-words">{words}</p>
+      <div role="progressbar" aria-label="Progress" aria-valuemin={0} aria-valuemax={total} aria-valuenow={done} aria-valuetext={words}
+        data-testid="progress" className="h-2 w-full overflow-hidden rounded-sm bg-rule">
+        <div className="h-full bg-teal motion-safe:transition-[width] motion-safe:duration-300" style={{ width: `${pct}%` }} />
+      </div>
     </div>
   );
 }

@@ -3,61 +3,78 @@ import { useEffect, useRef } from 'react';
 import { formatPrice } from '@/respondent/shared/price';
 import type { FlowStudy, PublicTrial } from '@/respondent/shared/types';
 import { PickTrial } from './pick-trial';
-import { PriceTag, bigButton } from './price-tag';
+import { KeyHint, KeysNote, PriceTag, bigButton } from './price-tag';
+import { useAnswerKeys } from './screen-hooks';
 
 type OnAnswer = (answer: number, ms: number) => void;
 
-function useTimer() {
+/** Time since the screen appeared, and a guard so a double tap (or tap + key) answers once. */
+function useAnswer(onAnswer: OnAnswer) {
   const t0 = useRef(0);
+  const done = useRef(false);
   useEffect(() => { t0.current = performance.now(); }, []);
-  return () => Math.round(performance.now() - t0.current);
+  return (answer: number) => {
+    if (done.current) return;
+    done.current = true;
+    onAnswer(answer, Math.round(performance.now() - t0.current));
+  };
+}
+
+/** Two answers, yes first: buttons with their keys (1, 2) for desktop respondents. */
+function TwoAnswers({ yes, no, answer }: { yes: string; no: string; answer: (a: number) => void }) {
+  useAnswerKeys({ 1: () => answer(1), 2: () => answer(0) });
+  return (
+    <>
+      <div className="flex w-full flex-col gap-3">
+        <button type="button" className={bigButton} aria-keyshortcuts="1" onClick={() => answer(1)}><KeyHint k="1" />{yes}</button>
+        <button type="button" className={bigButton} aria-keyshortcuts="2" onClick={() => answer(0)}><KeyHint k="2" />{no}</button>
+      </div>
+      <KeysNote>On a keyboard: press 1 or 2.</KeysNote>
+    </>
+  );
 }
 
 function SpotTrial({ study, trial, onAnswer }: { study: FlowStudy; trial: PublicTrial; onAnswer: OnAnswer }) {
-  const elapsed = useTimer();
+  const answer = useAnswer(onAnswer);
   return (
-    <div className="flex flex-col items-center gap-6">
+    <div className="flex flex-col items-center gap-5">
       <h1 className="text-center text-2xl">{trial.label}</h1>
       <PriceTag study={study} price={trial.price} />
       <p className="text-center text-lg">Compared with the usual price you saw on the shelf, is this price lower, or the same?</p>
-      <div className="flex w-full flex-col gap-3">
-        <button type="button" className={bigButton} onClick={() => onAnswer(1, elapsed())}>Lower than usual</button>
-        <button type="button" className={bigButton} onClick={() => onAnswer(0, elapsed())}>The same</button>
-      </div>
+      <TwoAnswers yes="Lower than usual" no="The same" answer={answer} />
     </div>
   );
 }
 
 function TripTrial({ study, trial, onAnswer }: { study: FlowStudy; trial: PublicTrial; onAnswer: OnAnswer }) {
-  const elapsed = useTimer();
+  const answer = useAnswer(onAnswer);
   const there = formatPrice(trial.price, study.currency, study.locale);
   return (
-    <div className="flex flex-col items-center gap-5">
+    <div className="flex flex-col items-center gap-4">
       <h1 className="text-center text-2xl">{trial.label}</h1>
       <PriceTag study={study} price={trial.base} caption="here, in this store" />
       <p className="text-center text-lg">
         Another store {study.tripMinutes} minutes away sells the same item for <span className="num font-semibold">{there}</span>.
+        Would you go there for it, or buy it here?
       </p>
-      <p className="text-center text-lg">Would you go there for it, or buy it here?</p>
-      <div className="flex w-full flex-col gap-3">
-        <button type="button" className={bigButton} onClick={() => onAnswer(1, elapsed())}>Go to the other store</button>
-        <button type="button" className={bigButton} onClick={() => onAnswer(0, elapsed())}>Buy it here</button>
-      </div>
+      <TwoAnswers yes="Go to the other store" no="Buy it here" answer={answer} />
     </div>
   );
 }
 
 function AttentionTrial({ trial, onAnswer }: { trial: PublicTrial; onAnswer: OnAnswer }) {
-  const elapsed = useTimer();
+  const answer = useAnswer(onAnswer);
   const a = trial.attention!;
+  useAnswerKeys(Object.fromEntries(a.options.map((_, i) => [String(i + 1), () => answer(i)])));
   return (
     <div className="flex flex-col gap-5">
       <h1 className="text-2xl">{a.question}</h1>
       <div className="flex flex-col gap-3">
         {a.options.map((o, i) => (
-          <button key={o} type="button" className={bigButton} onClick={() => onAnswer(i, elapsed())}>{o}</button>
+          <button key={o} type="button" className={bigButton} aria-keyshortcuts={String(i + 1)} onClick={() => answer(i)}><KeyHint k={String(i + 1)} />{o}</button>
         ))}
       </div>
+      <KeysNote>On a keyboard: press 1 to {a.options.length}.</KeysNote>
     </div>
   );
 }
@@ -70,11 +87,11 @@ export function TrialScreen({ study, trial, onAnswer }: { study: FlowStudy; tria
         : study.task === 'trip' ? <TripTrial study={study} trial={trial} onAnswer={onAnswer} />
           : <SpotTrial study={study} trial={trial} onAnswer={onAnswer} />;
   return (
-    <div className="flex flex-col gap-4" data-testid="trial" data-kind={trial.kind}>
-      {trial.kind === 'practice' ? <p className="pill self-start text-muted">Practice round</p> : null}
+    <div className="flex flex-col gap-3" data-testid="trial" data-kind={trial.kind}>
+      {trial.kind === 'practice' ? <p className="pill self-start text-base text-muted">Practice round: you will see how you did</p> : null}
       {study.pictureUrl && trial.kind !== 'attention' ? (
         // eslint-disable-next-line @next/next/no-img-element -- a small stored picture; next/image would add script
-        <img src={study.pictureUrl} alt="" className="mx-auto max-h-32 w-auto" />
+        <img src={study.pictureUrl} alt="" className="mx-auto max-h-20 w-auto" />
       ) : null}
       {body}
     </div>

@@ -66,6 +66,7 @@ export function flowState(args: {
     adaptive: plan.mode === 'adaptive',
     answered: args.answeredCount,
     total,
+    practice: (plan.mode === 'fixed' ? plan.trials : plan.slots).filter((t) => t.kind === 'practice').length,
     redirectUrl: args.redirectUrl,
   };
 }

@@ -93,5 +93,7 @@ export interface FlowState {
   adaptive: boolean;
   answered: number;
   total: number;
+  /** Practice screens at the start of the plan (counted in total; progress shows the rest). */
+  practice: number;
   redirectUrl: string | null;
 }
