@@ -1,7 +1,7 @@
 // `npm run size:respondent`: the gzipped JavaScript a phone downloads to reach a trial screen.
 // Builds the app into TEST_DIST_DIR (or reuses that build with --reuse), starts it against the
 // throw-away test database with a seeded live study, opens the link in Chromium at phone size,
-// consents and answers the segment question, waits for the first trial, and sums the gzipped
+// consents, answers the segment question, starts from the task's instructions, waits for the first trial, and sums the gzipped
 // size of every JavaScript response fetched on the way. Last line: respondent_js_gz_kb=<n>.
 import { existsSync, mkdtempSync } from 'node:fs';
 import { randomBytes, randomUUID } from 'node:crypto';
@@ -67,6 +67,7 @@ async function main() {
     await page.goto(`${env.E2E_BASE_URL}/r/${token}`, { waitUntil: 'networkidle' });
     await page.getByRole('button', { name: 'I agree, start' }).click();
     await page.getByRole('button', { name: '2', exact: true }).click();
+    await page.getByRole('button', { name: 'Start the practice' }).click();
     await page.getByTestId('trial').waitFor();
     await page.waitForLoadState('networkidle');
     let total = 0;

@@ -205,15 +205,31 @@ export function trialsPerRespondent(d: Pick<StudyDesign, 'basePrices' | 'ladder'
 }
 
 /**
- * Estimated minutes for one respondent. Seconds per trial are our own working estimates
- * (common practice, no source): 4 s to answer, plus the viewing time for "pick the lower
- * price", plus a shelf of 2 s per item for "spot the saving"; one minute for consent and questions.
+ * Seconds to answer once a trial screen allows it. Pick the lower price is measured: a phone
+ * walk-through of 36 trials took about 100 s, 2.8 s a trial, of which 1.9 s is the screen's own
+ * get-ready (0.7 s) and viewing time (1.2 s), so about 1 s to tap; the e2e run of the flow
+ * (tests/e2e/respondent-phone-flow.test.ts) prints the screen time a scripted respondent spends.
+ * Spot and trip are our working estimates (common practice, no source): one tag against a
+ * remembered price; a sentence to read and a decision.
  */
+const ANSWER_SECONDS = { spot: 2.5, pick: 1, trip: 3.5 } as const;
+/** Consent, segment questions and the task's instructions; then reading each practice feedback (working estimates). */
+const START_SECONDS = 40;
+const FEEDBACK_SECONDS = 5;
+
+/** A respondent's time in seconds: the trials themselves, and everything around them (start, feedback, shelf). */
+export function estimatedSeconds(d: StudyDesign): { trials: number; other: number } {
+  const t = trialsPerRespondent(d);
+  const screen = d.task === 'pick' ? 0.7 + d.viewMs / 1000 : 0; // pick-trial.tsx: READY_MS, then the view
+  // Spot the saving shows its shelf (2 s an item) first and again every 12 trials (SPOT_BLOCK in respondent/shared/plan.ts).
+  const shelf = d.task === 'spot' ? d.shelfSize * 2 * (1 + Math.floor((t.total - t.practice) / 12)) : 0;
+  return { trials: t.total * (screen + (ANSWER_SECONDS[d.task] ?? ANSWER_SECONDS.trip)), other: START_SECONDS + t.practice * FEEDBACK_SECONDS + shelf };
+}
+
+/** Estimated minutes for one respondent (estimatedSeconds, rounded; at least 1). */
 export function estimatedMinutes(d: StudyDesign): number {
-  const n = trialsPerRespondent(d).total;
-  const perTrial = 4 + (d.task === 'pick' ? d.viewMs / 1000 : 0) + (d.task === 'trip' ? 2 : 0);
-  const shelf = d.task === 'spot' ? d.shelfSize * 2 : 0;
-  return Math.max(1, Math.round((60 + shelf + n * perTrial) / 60));
+  const s = estimatedSeconds(d);
+  return Math.max(1, Math.round((s.trials + s.other) / 60));
 }
 
 /** A move between study states (launch, pause, resume, close). */

@@ -54,7 +54,7 @@ export function PracticeFeedback({ study, trial, answer, last, onNext }: { study
   return (
     <div className="flex flex-col gap-5" data-testid="practice-feedback" data-verdict={verdict === null ? 'choice' : verdict ? 'right' : 'wrong'}>
       <div className={`flex flex-col gap-2 rounded-sm border-l-4 bg-card px-4 py-3 ${verdict === false ? 'border-amber' : 'border-moss'}`}>
-        <h1 className="text-2xl">{w.title}</h1>
+        <h1 className="text-xl">{w.title}</h1>
         <p className="text-lg">{w.text}</p>
       </div>
       {last ? (

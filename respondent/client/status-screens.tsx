@@ -16,7 +16,7 @@ export function Progress({ done, total, practice }: { done: number; total: numbe
   const words = practice ? `Practice ${practice.n} of ${practice.of}` : `${done} of ${total} answered`;
   return (
     <div className="flex flex-col gap-1">
-      <p className="num text-base text-muted" data-testid="progress-words">{words}</p>
+      <p className="text-base tabular-nums text-muted" data-testid="progress-words">{words}</p>
       <div role="progressbar" aria-label="Progress" aria-valuemin={0} aria-valuemax={total} aria-valuenow={done} aria-valuetext={words}
         data-testid="progress" className="h-2 w-full overflow-hidden rounded-sm bg-rule">
         <div className="h-full bg-teal motion-safe:transition-[width] motion-safe:duration-300" style={{ width: `${pct}%` }} />

@@ -1,6 +1,7 @@
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { baseUrl, openBrowser } from '../support/browser';
+import { answerNext } from '../support/respondent-walk';
 
 // The phone's answer queue in a real browser: answers kept on the device while the network
 // fails, sent from another tab that opens the link (resume), and handed to sendBeacon when the
@@ -16,12 +17,9 @@ async function rowsOf(resumeToken: string): Promise<number[]> {
   return rows.map((r) => Number(r.idx));
 }
 
-/** Answers the trial on screen ("Left", or "Often" for the attention check). */
+/** Answers the next trial ("Left", or "Often" for the attention check), past instructions and practice feedback. */
 async function answerOne(page: Page) {
-  const trial = page.getByTestId('trial');
-  await trial.waitFor();
-  const kind = await trial.getAttribute('data-kind');
-  await (kind === 'attention' ? page.getByRole('button', { name: 'Often' }) : page.getByRole('button', { name: 'Left', exact: true })).click();
+  expect(await answerNext(page)).toBe('answered');
 }
 
 async function studyLink(name: string) {
@@ -55,8 +53,9 @@ describe('answers kept on the phone until the server has them', () => {
       const tab = await context.newPage();
       await tab.goto(`${baseUrl()}/r/${token}`);
       await tab.getByTestId('trial').waitFor();
-      // It does not show the five answered trials again …
-      expect(await tab.getByTestId('progress').getAttribute('aria-valuenow')).toBe('5');
+      // It does not show the five answered trials again (nor the instructions): 2 practice + 3 of 16 …
+      expect(await tab.getByTestId('progress').getAttribute('aria-valuenow')).toBe('3');
+      expect(await tab.getByTestId('progress-words').textContent()).toBe('3 of 16 answered');
       // … and sends them before anything else.
       await expect.poll(() => rowsOf(resume), { timeout: 20_000 }).toEqual([0, 1, 2, 3, 4]);
       await page.close();

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { baseUrl, openBrowser, screenshot, signIn } from '../support/browser';
 import { cspDirectives } from '../support/csp';
+import { toNextTrial } from '../support/respondent-walk';
 
 // The study is made through the data layer against the app's database.
 process.env.DATABASE_URL ??= inject('databaseUrl');
@@ -52,9 +53,9 @@ describe('a respondent completes a study on a phone', () => {
 
     let trials = 0;
     let shot = false;
-    for (let i = 0; i < 200 && !(await page.getByTestId('thanks').count()); i++) {
+    // Between trials: the task's instructions and the practice feedback (checked in respondent-phone-flow.test.ts).
+    for (let i = 0; i < 200 && (await toNextTrial(page)).at === 'trial'; i++) {
       const trial = page.getByTestId('trial');
-      if (!(await trial.count())) { await page.waitForTimeout(100); continue; }
       if ((await trial.getAttribute('data-kind')) === 'attention') {
         await page.getByRole('button', { name: 'Often' }).click();
       } else {
@@ -97,7 +98,7 @@ describe('a respondent completes a study on a phone', () => {
       await p3.unroute('**/r-assets/*.js');
       await p3.reload();
       await p3.getByRole('button', { name: '3 or more', exact: true }).click();
-      await p3.getByTestId('trial').waitFor();
+      await toNextTrial(p3);
       expect(await p3.getByTestId('progress').count()).toBe(1);
     } finally {
       await c3.close();

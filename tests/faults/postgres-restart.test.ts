@@ -6,6 +6,7 @@ import { trialsPerRespondent } from '@/lib/schemas/study.schema';
 import { startApp, stopApp } from '../../scripts/load/app';
 import { createLoadStudy, loadDesign, type LoadStudy } from '../../scripts/load/study';
 import { openBrowser, screenshot } from '../support/browser';
+import { answerNext } from '../support/respondent-walk';
 import { startPostgres, stopPostgres } from './support/cluster';
 import { crowd, expectNothingLost, faultsPool, sleep, until, watchBalance } from './support/respondents';
 import { completedEvent, deliverUntilAccepted, pendingPurchase } from './support/webhooks';
@@ -14,14 +15,7 @@ const base = `http://127.0.0.1:${inject('appPorts')[0]}`;
 
 /** Answers the trial on screen (the phone respondent): "Left", or "Often" for the attention check. */
 async function answerOne(page: Page): Promise<'answered' | 'thanks'> {
-  const trial = page.getByTestId('trial');
-  const thanks = page.getByTestId('thanks');
-  await trial.or(thanks).first().waitFor({ timeout: 60_000 });
-  if (await thanks.count()) return 'thanks';
-  const kind = await trial.getAttribute('data-kind');
-  const button = kind === 'attention' ? page.getByRole('button', { name: 'Often' }) : page.getByRole('button', { name: 'Left', exact: true });
-  await button.click({ timeout: 60_000 });
-  return 'answered';
+  return (await answerNext(page, 60_000)) === 'end' ? 'thanks' : 'answered';
 }
 
 describe('PostgreSQL stopped (fast shutdown) and started again while 200 respondents and a phone answer', () => {

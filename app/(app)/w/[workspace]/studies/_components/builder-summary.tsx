@@ -39,7 +39,7 @@ export function BuilderSummary({ form }: { form: BuilderForm }) {
         <dt className="text-muted">Attention check</dt><dd className="num text-right">{s.trials.attention}</dd>
         <dt className="border-t border-rule pt-1">Estimated minutes</dt><dd className="num border-t border-rule pt-1 text-right text-lg font-semibold" data-testid="estimated-minutes">{s.minutes}</dd>
       </dl>
-      <p className="hint">Minutes are a working estimate (about 4 s a trial plus viewing and shelf time; common practice, no source). Keep phone studies short.</p>
+      <p className="hint">Minutes are an estimate: the pace of a measured phone respondent for “pick the lower price” (about 100 s for 36 trials), working estimates for the other tasks, plus instructions and practice. Keep phone studies short.</p>
     </aside>
   );
 }
