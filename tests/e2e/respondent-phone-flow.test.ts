@@ -210,6 +210,40 @@ describe('the phone flow explains itself', () => {
     });
   }
 
+  // Protects the adaptive path: the staircase's next trial arrives while the feedback is read,
+  // and must not jump over it; the flow still ends with every answer stored.
+  it('adaptive placement: practice feedback stays until the respondent moves on', async () => {
+    const { makeLiveStudy, testDesign, trialRows } = await import('../support/respondent-fixtures');
+    const design = testDesign({
+      name: `Pantry oil: adaptive trip ${Date.now()}`, task: 'trip', basePrices: [9.99], ladder: [0.05, 0.2], catchShare: 0, practiceTrials: PRACTICE,
+      adaptive: { enabled: true, trialsPerBase: 8 }, attentionCheck: { enabled: false }, segmentQuestions: [],
+    });
+    const study = await makeLiveStudy('harbourline', { design });
+    const { context, page } = await openBrowser({ phone: true });
+    try {
+      await page.goto(`${baseUrl()}/r/${study.token}`);
+      await page.getByRole('button', { name: 'I agree, start' }).click();
+      await page.getByRole('button', { name: 'Start the practice' }).click();
+      await page.getByRole('button', { name: 'Buy it here' }).click();
+      const fb = page.getByTestId('practice-feedback');
+      await fb.waitFor();
+      const resume = new URL(page.url()).searchParams.get('resume')!;
+      await expect.poll(() => trialRows(resume).then((r) => r.length), { timeout: 20_000 }).toBe(1); // the reply has come back
+      await page.waitForTimeout(300);
+      expect(await fb.count()).toBe(1);
+      await page.getByRole('button', { name: 'Next practice round' }).click();
+      let n = 1;
+      while ((await answerNext(page)) === 'answered') n++;
+      expect(await page.getByTestId('thanks').count()).toBe(1);
+      const rows = await trialRows(resume);
+      expect(rows).toHaveLength(n);
+      expect(rows.filter((r) => r.kind === 'practice')).toHaveLength(PRACTICE);
+      expect(n).toBeGreaterThan(PRACTICE);
+    } finally {
+      await context.close();
+    }
+  });
+
   it('keyboard only, on a desktop: every step by Tab, Enter and the answer keys named on screen', async () => {
     const study = await studyFor('pick', `Pantry oil: keyboard ${Date.now()}`);
     const { context, page } = await openBrowser();
