@@ -99,11 +99,12 @@ export function checkBodyType(headers: Headers, types: readonly string[], bodyBy
 }
 
 export const tooLargeError = (maxBytes: number) =>
-  new AppError(413, 'payload_too_large', `The request body is larger than the ${formatBytes(maxBytes)} this address accepts.`);
+  new AppError(413, 'payload_too_large', `The request is larger than ${formatBytes(maxBytes)}, the most accepted here.`);
 
+/** Rounded down, so an upload's cap plus its form framing reads as the documented cap. */
 function formatBytes(n: number): string {
-  if (n >= 1024 * 1024) return `${Math.round((n / 1024 / 1024) * 10) / 10} MB`;
-  return `${Math.round(n / 1024)} kB`;
+  if (n >= 1024 * 1024) return `${Math.floor((n / 1024 / 1024) * 10) / 10} MB`;
+  return `${Math.floor(n / 1024)} kB`;
 }
 
 /** Refuses a declared Content-Length over the limit, before anything is read. */
