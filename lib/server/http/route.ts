@@ -147,7 +147,7 @@ function checkWriteHeaders(spec: RouteSpec, req: Request) {
 async function boundedRequest(spec: RouteSpec, req: NextRequest): Promise<NextRequest> {
   const bytes = await readBounded(req.body, bodyLimitOf(spec));
   checkBodyType(req.headers, spec.body?.types ?? ['application/json'], bytes.byteLength);
-  return new NextRequest(req.nextUrl, { method: req.method, headers: req.headers, body: bytes.byteLength ? bytes : undefined, signal: req.signal });
+  return new NextRequest(req.url, { method: req.method, headers: req.headers, body: bytes.byteLength ? bytes : undefined, signal: req.signal });
 }
 
 /** The one route-handler wrapper (see the header). */
