@@ -1,22 +1,6 @@
-// Where the buyer is sent to pay: the local Stripe stand-in, or Stripe's own checkout.
-const checkoutOrigin = process.env.STRIPE_FAKE_URL ? new URL(process.env.STRIPE_FAKE_URL).origin : 'https://checkout.stripe.com';
-const dev = process.env.NODE_ENV !== 'production';
-
-// Only what the app needs: its own scripts (Next's bootstrap is inline), styles (next/font and
-// chart attributes are inline), images incl. data: QR codes, and the checkout page for forms.
-const contentSecurityPolicy = [
-  "default-src 'self'",
-  `script-src 'self' 'unsafe-inline'${dev ? " 'unsafe-eval'" : ''}`,
-  "style-src 'self' 'unsafe-inline'",
-  "img-src 'self' data: blob:",
-  "font-src 'self'",
-  `connect-src 'self'${dev ? ' ws:' : ''}`,
-  `form-action 'self' ${checkoutOrigin}`,
-  "frame-ancestors 'none'",
-  "base-uri 'self'",
-  "object-src 'none'",
-].join('; ');
-
+// Content-Security-Policy is set per kind of response, never globally, so none overrides another:
+// the analyst pages get a nonce-based policy from proxy.ts (lib/csp.ts), route handlers' JSON
+// `default-src 'none'` from route() (and /api/assets its own), the respondent pages the policy below.
 // The respondent pages (app/r/[token]/…) load no Next.js runtime: one hashed module script, one
 // stylesheet and fonts from /r-assets, boot data in a JSON data block that is never executed.
 // So no inline script or style at all, and forms post only to this origin.
@@ -34,7 +18,6 @@ const respondentPolicy = [
 ].join('; ');
 
 const securityHeaders = [
-  { key: 'Content-Security-Policy', value: contentSecurityPolicy },
   { key: 'X-Frame-Options', value: 'DENY' },
   { key: 'Referrer-Policy', value: 'strict-origin-when-cross-origin' },
   { key: 'X-Content-Type-Options', value: 'nosniff' },
@@ -45,7 +28,8 @@ const securityHeaders = [
 const nextConfig = {
   async headers() {
     // When two entries set the same header on a path, the later one wins (one value, never two);
-    // a header set here also wins over the same header set by a route handler.
+    // a header set here also wins over the same header set by a route handler or proxy.ts — hence
+    // no Content-Security-Policy on '/:path*' (it would replace /api/assets' and the pages' own).
     return [
       { source: '/:path*', headers: securityHeaders },
       { source: '/r/:path*', headers: [{ key: 'Content-Security-Policy', value: respondentPolicy }] },

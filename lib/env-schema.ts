@@ -15,7 +15,8 @@ export const envSchema = z.object({
   SMTP_PORT: z.coerce.number().int().positive().default(1025),
   MAIL_FROM: z.string().default('Notchwise <no-reply@notchwise.test>'),
   STRIPE_SECRET_KEY: z.string().default('sk_test_local_fake'),
-  STRIPE_WEBHOOK_SECRET: z.string().default('whsec_local_fake_secret'),
+  /** Required in production (no fallback: anyone could sign events with a public one). */
+  STRIPE_WEBHOOK_SECRET: z.string().min(1).optional(),
   /** host:port of the local Stripe stand-in; unset to talk to Stripe itself. */
   STRIPE_FAKE_URL: z.string().url().optional(),
   RUN_WORKER: envBool.default(true),
@@ -29,12 +30,24 @@ export const envSchema = z.object({
   RATE_LIMIT_ANSWERS_PER_RESPONDENT_PER_MIN: z.coerce.number().int().positive().default(600),
 });
 
-export type Env = z.infer<typeof envSchema>;
+/** The development and test fallback for the webhook secret; public, so refused in production. */
+export const DEV_WEBHOOK_SECRET = 'whsec_local_fake_secret';
+
+/** Rules across variables: production runs only with its own secrets. */
+const checkedEnvSchema = envSchema
+  .superRefine((e, ctx) => {
+    if (e.NODE_ENV !== 'production') return;
+    if (!e.STRIPE_WEBHOOK_SECRET) ctx.addIssue({ code: 'custom', path: ['STRIPE_WEBHOOK_SECRET'], message: 'required in production (the signing secret of your Stripe webhook endpoint, whsec_…)' });
+    else if (e.STRIPE_WEBHOOK_SECRET === DEV_WEBHOOK_SECRET) ctx.addIssue({ code: 'custom', path: ['STRIPE_WEBHOOK_SECRET'], message: 'the public development value cannot be used in production' });
+  })
+  .transform((e) => ({ ...e, STRIPE_WEBHOOK_SECRET: e.STRIPE_WEBHOOK_SECRET ?? DEV_WEBHOOK_SECRET }));
+
+export type Env = z.infer<typeof checkedEnvSchema>;
 
 /** Parses an environment; throws one readable error listing every bad variable. */
 export function parseEnv(source: Record<string, string | undefined>): Env {
   const cleaned = Object.fromEntries(Object.entries(source).filter(([, v]) => v !== undefined));
-  const result = envSchema.safeParse(cleaned);
+  const result = checkedEnvSchema.safeParse(cleaned);
   if (!result.success) {
     const lines = result.error.issues.map((i) => `  ${i.path.join('.') || '(env)'}: ${i.message}`);
     throw new Error(`Invalid environment:\n${lines.join('\n')}`);

@@ -6,6 +6,8 @@ import { CURRENCIES } from './study.schema';
 
 export const PRICE_LIST_MAX_ROWS = 50_000;
 export const PRICE_LIST_MAX_BYTES = 8 * 1024 * 1024;
+/** What the upload routes take: the file as a form field, or the CSV itself as the body; the cap plus form framing. */
+export const PRICE_LIST_UPLOAD = { types: ['multipart/form-data', 'text/csv', 'text/plain'], maxBytes: PRICE_LIST_MAX_BYTES + 64 * 1024 } as const;
 export const PRICE_LIST_COLUMNS = ['sku', 'name', 'regular_price', 'unit_cost', 'category'] as const;
 export const PRICE_LIST_REQUIRED_COLUMNS = ['sku', 'name', 'regular_price'] as const;
 export type PriceListColumn = (typeof PRICE_LIST_COLUMNS)[number];

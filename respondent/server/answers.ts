@@ -6,7 +6,9 @@ import 'server-only';
 // twice (a lost reply, a beacon from a closing page, another tab resuming). Hence:
 // - Everything the browser cannot be trusted with comes from the stored plan: kind, base
 //   price, shown price and discount. An answer must belong to the plan (index in range, an
-//   option that was shown), the respondent must still be answering and the study not closed.
+//   option that was shown), the respondent must still be answering, the study live and the
+//   link open: a paused study or a closed link stops answers in progress with the same 410
+//   /state gives (stoppedRefusal in ./link.ts; what the phone has not sent stays on it).
 // - The whole batch is checked before anything is written: one bad answer refuses the batch
 //   with a 422 naming its row (`answers.3.answer`) and nothing is stored.
 // - The write is one statement: a multi-row INSERT … ON CONFLICT DO NOTHING fed from one jsonb
@@ -28,10 +30,10 @@ import type { AnsweredTrial } from '@/respondent/shared/adaptive';
 import { AppError } from '@/lib/server/http/errors';
 import { sql, sqlOne } from '@/lib/server/db/sql';
 import { respondentContext, type RespondentContext } from './context';
+import { stoppedRefusal } from './link';
 import { answeredHistory } from './trials';
 
 const invalid = (path: string, message: string) => new AppError(422, 'validation_failed', message, [{ path, message }]);
-const CLOSED = () => new AppError(410, 'gone', 'This study is closed. Thank you for your interest.');
 const COMPLETED = () => new AppError(409, 'conflict', 'Your answers are already complete.');
 
 /** One answer of the batch with its row in the request (for error paths) once sorted by idx. */
@@ -125,8 +127,8 @@ with b as (
   select * from jsonb_to_recordset(?::jsonb) as b(idx int, kind text, base_price float8, discount float8, shown jsonb,
                                                    answer smallint, response_ms int, client_id uuid, attention boolean)
 ), r as (
-  select r.id, r.answered_count from respondent r join study s on s.id = r.study_id
-   where r.id = ? and r.state = 'started' and s.state <> 'closed'
+  select r.id, r.answered_count from respondent r join study s on s.id = r.study_id left join respondent_link l on l.id = r.link_id
+   where r.id = ? and r.state = 'started' and s.state = 'live' and l.closed_at is null
 ), ins as (
   insert into trial (study_id, respondent_id, idx, kind, base_price, discount, shown, answer, response_ms, client_id, answered_at)
   select ?, r.id, b.idx, b.kind, b.base_price, b.discount, b.shown, b.answer, b.response_ms, b.client_id, now()
@@ -217,16 +219,16 @@ async function storedRows(db: EntityManager, respondentId: string, first: number
 /**
  * The second statement, only when the first left answers unaccounted for: either a concurrent
  * try of the same batch committed meanwhile (then its rows are visible now), or the batch is
- * refused, and the reason is told: study closed, respondent completed, an answer id used for
+ * refused, and the reason is told: study closed or paused or link closed, respondent completed, an answer id used for
  * another trial, or a batch that starts after the next unanswered trial.
  */
 async function explain(db: EntityManager, ctx: RespondentContext, unresolved: Entry[], first: number, last: number, classify: (s: { idx: number; clientId: string }[]) => void): Promise<number> {
   const ids = JSON.stringify(unresolved.map((e) => e.a.clientId));
-  const st = await sqlOne<{ state: string; study_state: string; answered_count: number; stored: unknown }>(db, `
-    select r.state, s.state as study_state, r.answered_count,
+  const st = await sqlOne<{ state: string; study_state: string; link_closed: boolean; answered_count: number; stored: unknown }>(db, `
+    select r.state, s.state as study_state, l.closed_at is not null as link_closed, r.answered_count,
            coalesce((select json_agg(json_build_object('idx', t.idx, 'clientId', t.client_id)) from trial t
                       where t.respondent_id = r.id and (t.idx between ? and ? or t.client_id::text in (select jsonb_array_elements_text(?::jsonb)))), '[]') as stored
-      from respondent r join study s on s.id = r.study_id where r.id = ?`, [first, last, ids, ctx.id]);
+      from respondent r join study s on s.id = r.study_id left join respondent_link l on l.id = r.link_id where r.id = ?`, [first, last, ids, ctx.id]);
   if (!st) throw new AppError(404, 'not_found', 'We could not find your answers. Open the study link again.');
   const stored = (typeof st.stored === 'string' ? JSON.parse(st.stored) : st.stored) as { idx: number; clientId: string }[];
   classify(stored);
@@ -237,7 +239,8 @@ async function explain(db: EntityManager, ctx: RespondentContext, unresolved: En
   }
   const left = unresolved.filter(({ a }) => !stored.some((s) => Number(s.idx) === a.idx));
   if (left.length) {
-    if (st.study_state === 'closed') throw CLOSED();
+    const stopped = stoppedRefusal(st.study_state, Boolean(st.link_closed));
+    if (stopped) throw stopped;
     if (st.state !== 'started') throw COMPLETED();
     throw invalid(`answers.${left[0].row}.idx`, 'Answer the trials in order.');
   }

@@ -3,6 +3,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { expectedTrial, completionRedirect } from '@/respondent/shared/screens';
 import { AppError } from '@/lib/server/http/errors';
 import { respondentContext } from './context';
+import { stoppedRefusal } from './link';
 import { sql, sqlOne } from '@/lib/server/db/sql';
 import { lockWorkspaceSeats, useSeat } from '@/lib/server/billing/seat-ledger';
 import { answeredHistory } from './trials';
@@ -16,14 +17,17 @@ export async function completeRespondent(db: EntityManager, linkToken: string, r
   const redirectUrl = completionRedirect(ctx.design, ctx.pid);
   await db.transactional(async (tx) => {
     await lockWorkspaceSeats(tx, ctx.workspaceId);
-    const r = await sqlOne<{ state: string; answered_count: number; study_state: string }>(
+    const r = await sqlOne<{ state: string; answered_count: number; study_state: string; link_closed: boolean }>(
       tx,
-      'select r.state, r.answered_count, s.state as study_state from respondent r join study s on s.id = r.study_id where r.id = ? for update of r',
+      `select r.state, r.answered_count, s.state as study_state, l.closed_at is not null as link_closed
+         from respondent r join study s on s.id = r.study_id left join respondent_link l on l.id = r.link_id where r.id = ? for update of r`,
       [ctx.id],
     );
     if (!r) throw new AppError(404, 'not_found', 'We could not find your answers.');
     if (r.state === 'completed') return;
-    if (r.study_state === 'closed') throw new AppError(410, 'gone', 'This study is closed. Thank you for your interest.');
+    // The same 410 /state gives: a paused study or a closed link stops a complete in progress too.
+    const stopped = stoppedRefusal(r.study_state, Boolean(r.link_closed));
+    if (stopped) throw stopped;
     const count = Number(r.answered_count);
     const finished = ctx.plan.mode === 'fixed'
       ? count >= ctx.plan.trials.length

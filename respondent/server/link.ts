@@ -46,9 +46,20 @@ export async function loadLink(db: EntityManager, token: string): Promise<Respon
 /** Why a link cannot take respondents: 404 unknown, 410 closed or not (or no longer) live. */
 export function linkRefusal(link: RespondentLinkWithStudy | null): AppError | null {
   if (!link || link.studyState === 'imported') return new AppError(404, 'not_found', 'This link does not lead to a study. Check the address you were given.');
-  if (link.closed) return new AppError(410, 'gone', 'This link is closed. Thank you for your interest.');
-  if (link.studyState === 'paused') return new AppError(410, 'gone', 'This study is paused at the moment. Please try again later.');
-  if (link.studyState !== 'live') return new AppError(410, 'gone', 'This study is not open. Thank you for your interest.');
+  return stoppedRefusal(link.studyState, link.closed);
+}
+
+/**
+ * The 410 of a link whose study is not live or which is closed, or null. One rule for everyone:
+ * /state, the answers and the complete of a respondent already in progress refuse exactly when
+ * the link's entry does (a paused study or a closed link stops the answers in progress too; the
+ * phone keeps what it has not sent, and a resume after the study is resumed sends it).
+ */
+export function stoppedRefusal(studyState: string, linkClosed: boolean): AppError | null {
+  if (studyState === 'closed') return new AppError(410, 'gone', 'This study is closed. Thank you for your interest.');
+  if (linkClosed) return new AppError(410, 'gone', 'This link is closed. Thank you for your interest.');
+  if (studyState === 'paused') return new AppError(410, 'gone', 'This study is paused at the moment. Please try again later.');
+  if (studyState !== 'live') return new AppError(410, 'gone', 'This study is not open. Thank you for your interest.');
   return null;
 }
 

@@ -246,7 +246,9 @@ describe('answer batches: in one statement, exactly once, all or nothing', () =>
 });
 
 describe('answer batches after the study is paused or closed', () => {
-  it('paused: respondents already answering may finish; closed: new answers are refused (410), replays still acknowledged', async () => {
+  // Issue 13, finding 12: answers used to go on during a pause while /state said 410. Now the
+  // same rule holds for both (respondent/server/link.ts stoppedRefusal); resuming the study lets them on.
+  it('paused: new answers refused (410) like /state, accepted again once resumed; closed: refused (410), replays still acknowledged', async () => {
     const ws = await makeWorkspace();
     const { token, studyId } = await makeLiveStudy(ws.slug);
     const s = await startOk(token);
@@ -256,6 +258,13 @@ describe('answer batches after the study is paused or closed', () => {
 
     await sql(db, `update study set state = 'paused' where id = ?`, [studyId]);
     const duringPause = s.upcoming.slice(2, 4).map((t) => one(t));
+    const refused = await answersRes(token, s.resumeToken, duringPause);
+    expect(refused.status).toBe(410);
+    expect((await refused.json()).error.message).toMatch(/paused/);
+    expect((await stateRes(token, s.resumeToken)).status).toBe(410);
+    expect(await trialRows(s.resumeToken)).toHaveLength(2);
+    // The phone kept them; once the study is live again they go through.
+    await sql(db, `update study set state = 'live' where id = ?`, [studyId]);
     expect((await answersRes(token, s.resumeToken, duringPause)).status).toBe(200);
     expect(await trialRows(s.resumeToken)).toHaveLength(4);
 

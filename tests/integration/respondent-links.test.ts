@@ -43,8 +43,9 @@ describe('respondent links: unknown 404, closed or paused 410', () => {
     await db.getConnection().execute('update respondent_link set closed_at = now() where id = ?', [linkId]);
     expect((await callRoute(entry, { params: { token } })).status).toBe(410);
     expect((await startRes(token, consent)).status).toBe(410);
-    // Someone already answering through the link may finish.
-    expect((await answerRes(token, s.resumeToken, { clientId: randomUUID(), idx: 0, answer: 1, responseMs: 400 })).status).toBe(200);
+    // Someone already answering through the link is stopped too, as /state tells them (issue 13,
+    // finding 12: answers used to go on while /state said 410; tests/integration/respondent-stopped.test.ts).
+    expect((await answerRes(token, s.resumeToken, { clientId: randomUUID(), idx: 0, answer: 1, responseMs: 400 })).status).toBe(410);
   });
 
   it('a plain form post (before the script loads) starts and redirects to the flow with the cookie', async () => {

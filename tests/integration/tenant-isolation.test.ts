@@ -181,6 +181,45 @@ describe('workspace routes: outsiders, viewers and signed-out callers are refuse
   });
 });
 
+/** Routes whose writes may come from any origin, each with what authenticates them instead. */
+const ANY_ORIGIN_ROUTES: { pattern: RegExp; reason: string }[] = [
+  { pattern: /^\/api\/stripe\/webhook$/, reason: "Stripe's servers post it; its signature over the body is the credential" },
+];
+
+describe('every write refuses a cross-site sender (issue 13, finding 2)', () => {
+  const writes = routes.flatMap((r) => methodsOf(r).filter((m) => !isRead(m) && m !== 'OPTIONS').map((m) => ({ r, m })));
+  let before: Record<string, number>;
+  beforeAll(async () => {
+    fx ??= await makeTenantFixture();
+    before = await countsOf(fx.workspaceId);
+  }, 180_000);
+
+  it('the write routes are found, and only allow-listed ones accept any origin', () => {
+    expect(writes.length).toBeGreaterThan(20);
+    const open = writes.filter(({ r, m }) => routeSpec(r.methods[m])?.anyOrigin).map(({ r, m }) => `${m} ${r.pattern}`);
+    expect(open).toEqual(writes.filter(({ r }) => ANY_ORIGIN_ROUTES.some((a) => a.pattern.test(r.pattern))).map(({ r, m }) => `${m} ${r.pattern}`));
+    for (const a of ANY_ORIGIN_ROUTES) expect(writes.some(({ r }) => a.pattern.test(r.pattern)), String(a.pattern)).toBe(true);
+  });
+
+  for (const { r, m } of writes) {
+    if (ANY_ORIGIN_ROUTES.some((a) => a.pattern.test(r.pattern))) continue;
+    it(`${m} ${r.pattern}: from a page on another port of this host (same site, text/plain, signed in as A's owner): 403`, async () => {
+      signInAs(fx.a.owner);
+      // Auth.js's catch-all is the one segment outside the fixture: its credentials sign-in.
+      const params = r.params.includes('nextauth') ? { nextauth: 'callback/credentials' } : paramsFor(r, fx.a.slug);
+      const url = 'http://127.0.0.1:3000' + r.pattern.replace(/\[(?:\.\.\.)?([^\]]+)\]/g, (_m, p: string) => encodeURIComponent(params[p]));
+      const headers = { 'content-type': 'text/plain', 'sec-fetch-site': 'same-site', origin: 'http://127.0.0.1:8080', host: '127.0.0.1:3000' };
+      const res = await callRoute(r.methods[m]! as never, { method: m, url, params, rawBody: JSON.stringify(probeBody()), headers });
+      expect(res.status, await res.clone().text()).toBe(403);
+      expect((await res.json()).error.code).toBe('cross_site');
+    });
+  }
+
+  it("after every cross-site write A's rows are all still there, unchanged", async () => {
+    expect(await countsOf(fx.workspaceId)).toEqual(before);
+  });
+});
+
 describe('the read-only export API (/api/v1): bearer tokens are scoped to their workspace', () => {
   const v1 = (pattern: string) => routes.find((r) => r.pattern === pattern)!;
   const get = (pattern: string, params: Record<string, string>, token?: string) =>

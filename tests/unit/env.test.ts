@@ -1,5 +1,5 @@
-import { describe, expect, it } from 'vitest';
-import { parseEnv } from '@/lib/env-schema';
+import { describe, expect, it, vi } from 'vitest';
+import { DEV_WEBHOOK_SECRET, parseEnv } from '@/lib/env-schema';
 
 const good = { DATABASE_URL: 'postgresql://postgres@127.0.0.1:54329/notchwise', AUTH_SECRET: 'x'.repeat(32) };
 
@@ -30,5 +30,38 @@ describe('environment parsing', () => {
   });
   it('requires the database URL', () => {
     expect(() => parseEnv({ AUTH_SECRET: 'x'.repeat(32) })).toThrowError(/DATABASE_URL/);
+  });
+
+  // Issue 13, finding 12: a missing webhook secret fell back to a public constant everywhere.
+  it('production needs its own Stripe webhook secret: missing or the public development value is refused', () => {
+    const prod = { ...good, NODE_ENV: 'production' };
+    expect(() => parseEnv(prod)).toThrowError(/STRIPE_WEBHOOK_SECRET: required in production/);
+    expect(() => parseEnv({ ...prod, STRIPE_WEBHOOK_SECRET: DEV_WEBHOOK_SECRET })).toThrowError(/STRIPE_WEBHOOK_SECRET: the public development value/);
+    expect(parseEnv({ ...prod, STRIPE_WEBHOOK_SECRET: 'whsec_own_0123456789' }).STRIPE_WEBHOOK_SECRET).toBe('whsec_own_0123456789');
+    expect(parseEnv(good).STRIPE_WEBHOOK_SECRET).toBe(DEV_WEBHOOK_SECRET);
+  });
+
+  it('the Next.js server refuses to start without it (instrumentation.ts exits before serving)', async () => {
+    const { register } = await import('@/instrumentation');
+    const exit = vi.spyOn(process, 'exit').mockImplementation((() => undefined) as never);
+    const error = vi.spyOn(console, 'error').mockImplementation(() => undefined);
+    const saved = { ...process.env };
+    try {
+      Object.assign(process.env, { ...good, NODE_ENV: 'production', NEXT_RUNTIME: 'nodejs' });
+      delete process.env.STRIPE_WEBHOOK_SECRET;
+      delete process.env.NEXT_PHASE;
+      await register();
+      expect(exit).toHaveBeenCalledWith(1);
+      expect(String(error.mock.calls[0]?.[0])).toMatch(/STRIPE_WEBHOOK_SECRET/);
+      exit.mockClear();
+      process.env.STRIPE_WEBHOOK_SECRET = 'whsec_own_0123456789';
+      await register();
+      expect(exit).not.toHaveBeenCalled();
+    } finally {
+      for (const k of Object.keys(process.env)) if (!(k in saved)) delete process.env[k];
+      Object.assign(process.env, saved);
+      exit.mockRestore();
+      error.mockRestore();
+    }
   });
 });

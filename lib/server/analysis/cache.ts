@@ -3,7 +3,8 @@ import { createHash, randomUUID } from 'node:crypto';
 import { PsychometricsInputError } from '@/lib/psychometrics/errors';
 import { em } from '@/lib/server/db/orm';
 import { sql, sqlOne } from '@/lib/server/db/sql';
-import { enqueue, type QueueName } from '@/lib/server/platform/jobs';
+import { enqueue, MAX_WAITING_PER_WORKSPACE, WAITING_WINDOW_SECONDS, type QueueName } from '@/lib/server/platform/jobs';
+import { AppError } from '@/lib/server/http/errors';
 
 // AnalysisResult rows as a cache with a status: one row per (study, kind, cache key), where
 // the key hashes the data version and every option that changes the numbers. The page asks;
@@ -12,7 +13,10 @@ import { enqueue, type QueueName } from '@/lib/server/platform/jobs';
 // job's singleton key is `kind:study:cacheKey`, so many polls of one page make one computation.
 // Input the engine cannot fit (everyone excluded, an unreachable target) ends as a final
 // 'failed' shown as an empty state; other errors are retried by pg-boss. Exclusion rules are in
-// the key, so saving them needs no data-version bump. Tests: tests/integration/analysis-fit.test.ts.
+// the key, so saving them needs no data-version bump. A new computation is refused (429) while
+// the study's workspace already has MAX_WAITING_PER_WORKSPACE waiting or running, so one
+// workspace cannot fill the shared queue ahead of the others (tests/integration/fair-queues.test.ts).
+// Tests: tests/integration/analysis-fit.test.ts.
 
 export type CacheStatus = 'queued' | 'running' | 'done' | 'failed';
 
@@ -64,6 +68,7 @@ export async function requestComputation<T>(req: JobRequest): Promise<CacheRow<T
   const existing = await readCache<T>(req.studyId, req.kind, req.cacheKey);
   if (existing && existing.status !== 'queued') return existing;
   if (!existing) {
+    await checkWorkspaceWaiting(req.studyId);
     await sql(
       await em(),
       `insert into analysis_result (id, study_id, kind, cache_key, data_version, status, created_at, updated_at)
@@ -74,6 +79,20 @@ export async function requestComputation<T>(req: JobRequest): Promise<CacheRow<T
   const data: JobData = { ...req.payload, studyId: req.studyId, kind: req.kind, cacheKey: req.cacheKey, dataVersion: req.dataVersion };
   await enqueue(req.queue, data, `${req.kind}:${req.studyId}:${req.cacheKey}`);
   return (await readCache<T>(req.studyId, req.kind, req.cacheKey))!;
+}
+
+/** Refuses a new computation while the study's workspace has its share of the queue waiting. */
+async function checkWorkspaceWaiting(studyId: string): Promise<void> {
+  const r = await sqlOne<{ n: number }>(
+    await em(),
+    `select count(*)::int as n from analysis_result a join study s on s.id = a.study_id
+      where s.workspace_id = (select workspace_id from study where id = ?)
+        and a.status in ('queued', 'running') and a.updated_at > now() - make_interval(secs => ?)`,
+    [studyId, WAITING_WINDOW_SECONDS],
+  );
+  if ((r?.n ?? 0) >= MAX_WAITING_PER_WORKSPACE) {
+    throw new AppError(429, 'rate_limited', `This workspace already has ${MAX_WAITING_PER_WORKSPACE} computations waiting. Try again when they have finished.`, undefined, { 'retry-after': '15' });
+  }
 }
 
 /**

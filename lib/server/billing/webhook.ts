@@ -19,6 +19,12 @@ import { stripe } from './stripe';
 // checkout session (a second event for the same session adds nothing), the purchase marked
 // paid and the `billing.purchase` audit event. Only the delivery that credited sends the
 // receipt, and a mail failure is logged, not thrown, so Stripe does not retry a paid event.
+// Before crediting, the amount and currency Stripe collected must be the purchase's own: a
+// session paid for less (or in another currency) is not credited — it is logged and audited as
+// `billing.payment_mismatch` and the purchase stays pending for a person to look at. The answer
+// is still 200: Stripe retries any other status for days, and a retry cannot make the amount
+// right (Stripe's guidance: acknowledge receipt with a 2xx, then handle the event).
+// The signing secret has no fallback in production (lib/env-schema.ts refuses to start).
 // Tests: tests/integration/billing-webhook.test.ts (replays, two events, Promise.all, bad signatures).
 
 /** The event, if Stripe's signature over the raw body checks out; else a 400. */
@@ -31,7 +37,7 @@ export function verifyStripeEvent(rawBody: string, signature: string | null): St
   }
 }
 
-export type WebhookOutcome = 'credited' | 'duplicate_event' | 'already_credited' | 'ignored' | 'unknown_purchase';
+export type WebhookOutcome = 'credited' | 'duplicate_event' | 'already_credited' | 'ignored' | 'unknown_purchase' | 'amount_mismatch';
 
 interface Credited {
   workspaceId: string;
@@ -60,6 +66,18 @@ export async function applyStripeEvent(event: Stripe.Event): Promise<WebhookOutc
     if (fresh.length === 0) return 'duplicate_event';
     const p = await tx.findOne(Purchase, { checkoutSessionId: session.id }, { populate: ['buyer'], lockMode: LockMode.PESSIMISTIC_WRITE });
     if (!p || p.workspace.id !== session.metadata?.workspaceId) return 'unknown_purchase';
+    const paid = { amountCents: session.amount_total, currency: (session.currency ?? '').toUpperCase() };
+    if (paid.amountCents !== p.amountCents || paid.currency !== p.currency.toUpperCase()) {
+      console.error('[billing] payment does not match the purchase; not credited', { checkoutSessionId: session.id, expected: { amountCents: p.amountCents, currency: p.currency }, paid });
+      await recordAudit(tx, {
+        workspace: p.workspace.id,
+        actor: null,
+        action: 'billing.payment_mismatch',
+        target: `${findBundle(p.bundle)?.name ?? p.bundle} bundle: paid ${paid.amountCents ?? '?'} ${paid.currency || '?'}, expected ${p.amountCents} ${p.currency}`,
+        detail: { checkoutSessionId: session.id, expected: { amountCents: p.amountCents, currency: p.currency }, paid },
+      });
+      return 'amount_mismatch';
+    }
     const note = `${findBundle(p.bundle)?.name ?? p.bundle} bundle`;
     if (!(await creditPurchase(tx, { workspaceId: p.workspace.id, seats: p.seats, checkoutSessionId: session.id, note }))) return 'already_credited';
     p.status = 'paid';

@@ -10,6 +10,8 @@ export type ErrorCode =
   | 'conflict'
   | 'gone'
   | 'payload_too_large'
+  | 'unsupported_media_type'
+  | 'cross_site'
   | 'rate_limited'
   | 'study_full'
   | 'already_taken_part'

@@ -5,12 +5,16 @@ import 'server-only';
 // EntityManager, and turns the handler's result into a response: a DTO becomes JSON, `reply()`
 // sets a status or headers, a `Response` (files, redirects, HTML) passes through, and an
 // AppError or ZodError becomes the one error shape `{ error: { code, message, issues? } }`.
-// The data layer below never builds a Response.
+// The data layer below never builds a Response. Before any handler sees a write (POST, PUT,
+// PATCH, DELETE) the wrapper refuses cross-site senders, body types the route does not declare
+// and bodies over its size limit, read while streaming (./request-guard.ts); a JSON answer
+// carries its own `default-src 'none'` policy unless the handler set one.
 import { NextRequest, NextResponse } from 'next/server';
 import { ZodError, type ZodType } from 'zod';
 import type { Role } from '@/lib/roles';
 import { withRequestContext } from '@/lib/server/db/orm';
 import { AppError, unauthenticatedError, zodIssues, type FieldIssue } from './errors';
+import { BODY_LIMITS, checkBodyType, checkDeclaredLength, checkSameOrigin, isSafeMethod, readBounded, type RouteOptions } from './request-guard';
 
 export { zodIssues };
 import { authorise, type WorkspaceContext } from '@/lib/server/team/membership';
@@ -79,6 +83,9 @@ type Caller<A extends RouteAuth> = A extends { auth: 'member' } | { auth: 'token
     ? { user: SessionUser }
     : Record<never, never>;
 
+/** A route's whole declaration: who may call it, and what body and origin its writes take. */
+export type RouteSpec = RouteAuth & RouteOptions;
+
 export type RouteInput<A extends RouteAuth, P extends Params = Params> = { req: NextRequest; params: P } & Caller<A>;
 
 async function resolveCaller(spec: RouteAuth, req: NextRequest, params: Params): Promise<Record<string, unknown>> {
@@ -97,6 +104,23 @@ async function resolveCaller(spec: RouteAuth, req: NextRequest, params: Params):
   }
 }
 
+// JSON and empty answers are data, never a document: nothing in them may run or be framed.
+// (next.config.mjs sets no policy on these paths, so a handler's own — /api/assets' — stands.)
+const API_POLICY = "default-src 'none'; frame-ancestors 'none'";
+
+function withApiPolicy(res: Response): Response {
+  if (res.headers.has('content-security-policy') || /html/i.test(res.headers.get('content-type') ?? '')) return res;
+  try {
+    res.headers.set('content-security-policy', API_POLICY);
+    return res;
+  } catch {
+    // Response.redirect() and friends have immutable headers: copy them.
+    const headers = new Headers(res.headers);
+    headers.set('content-security-policy', API_POLICY);
+    return new Response(res.body, { status: res.status, statusText: res.statusText, headers });
+  }
+}
+
 function toResponse(out: unknown): Response {
   if (out instanceof Response) return out;
   if (out instanceof Reply) {
@@ -106,27 +130,46 @@ function toResponse(out: unknown): Response {
   return NextResponse.json(out ?? null);
 }
 
-const specs = new WeakMap<object, RouteAuth>();
+const specs = new WeakMap<object, RouteSpec>();
 /** The spec an exported method was made with, if `route()` made it (the isolation test checks every one). */
-export const routeSpec = (fn: unknown): RouteAuth | undefined => (typeof fn === 'function' ? specs.get(fn) : undefined);
+export const routeSpec = (fn: unknown): RouteSpec | undefined => (typeof fn === 'function' ? specs.get(fn) : undefined);
+
+/** The body limit of a route's writes: its own, or the JSON default. */
+export const bodyLimitOf = (spec: RouteSpec) => spec.body?.maxBytes ?? BODY_LIMITS.json;
+
+/** Header checks of a write, before the caller is resolved: origin, then type and declared size. */
+function checkWriteHeaders(spec: RouteSpec, req: Request) {
+  if (!spec.anyOrigin && spec.auth !== 'token') checkSameOrigin(req.headers);
+  checkDeclaredLength(req.headers, bodyLimitOf(spec));
+}
+
+/** The request with its body read under the route's limit (and of a type it declares). */
+async function boundedRequest(spec: RouteSpec, req: NextRequest): Promise<NextRequest> {
+  const bytes = await readBounded(req.body, bodyLimitOf(spec));
+  checkBodyType(req.headers, spec.body?.types ?? ['application/json'], bytes.byteLength);
+  return new NextRequest(req.url, { method: req.method, headers: req.headers, body: bytes.byteLength ? bytes : undefined, signal: req.signal });
+}
 
 /** The one route-handler wrapper (see the header). */
 export function route<P extends Params = Params, const A extends RouteAuth = RouteAuth, Out = unknown>(
-  spec: A,
+  spec: A & RouteOptions,
   handler: (input: RouteInput<A, P>) => Promise<Out>,
 ): RouteHandler<Out> {
   const run = async (request: Request, routeCtx?: { params: Promise<RawParams> }): Promise<Response> => {
     try {
       // Opening the context can itself fail (the database not reachable yet): same error shape.
-      return await withRequestContext(async () => {
-        const req = request instanceof NextRequest ? request : new NextRequest(request);
+      const write = !isSafeMethod(request.method);
+      if (write) checkWriteHeaders(spec, request);
+      return withApiPolicy(await withRequestContext(async () => {
+        let req = request instanceof NextRequest ? request : new NextRequest(request);
         const raw = (await routeCtx?.params) ?? {};
         const params: Params = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, Array.isArray(v) ? v.join('/') : v]));
         const caller = await resolveCaller(spec, req, params);
+        if (write) req = await boundedRequest(spec, req);
         return toResponse(await handler({ req, params, ...caller } as RouteInput<A, P>));
-      });
+      }));
     } catch (err) {
-      return toErrorResponse(err);
+      return withApiPolicy(toErrorResponse(err));
     }
   };
   specs.set(run, spec);

@@ -9,6 +9,10 @@ import { env } from './env';
 // collapse into one queued job; jobs expire after 15 min and are retried twice. The worker
 // (scripts/worker.ts, run beside the app by `npm start` and the test app; RUN_WORKER=0 skips it)
 // runs them through ./job-handlers.ts.
+// Fairness: the queue is shared by every workspace, so each may have at most
+// MAX_WAITING_PER_WORKSPACE computations waiting or running at once (lib/server/analysis/cache.ts
+// refuses a new one with 429 beyond that); repeats of one computation are one job (the
+// singleton key), and the planner takes widths from a fixed set (PLANNER_WIDTHS).
 
 export const QUEUES = ['analysis', 'planner'] as const;
 export type QueueName = (typeof QUEUES)[number];
@@ -16,6 +20,11 @@ export type QueueName = (typeof QUEUES)[number];
 /** Long enough for a 1,000-sample bootstrap or a planner search on a large design. */
 const EXPIRE_SECONDS = 15 * 60;
 const RETRY_LIMIT = 2;
+
+/** Computations one workspace may have queued or running at once (a results page needs 2–4). */
+export const MAX_WAITING_PER_WORKSPACE = 8;
+/** A queued or running row older than this no longer counts (its job expired; a poll re-sends it). */
+export const WAITING_WINDOW_SECONDS = EXPIRE_SECONDS;
 
 type Holder = { bossPromise?: Promise<PgBoss>; bossRole?: 'sender' | 'worker' };
 const holder = globalThis as unknown as Holder;

@@ -1,4 +1,5 @@
 import { route } from '@/lib/server/http/route';
+import { BODY_LIMITS } from '@/lib/server/http/request-guard';
 import { handlers } from '@/lib/server/team/auth';
 import { clientIp, limit } from '@/lib/server/platform/rate-limit';
 
@@ -9,7 +10,7 @@ const reason = 'Auth.js sign-in and sign-out endpoints: they create the session,
 export const GET = route({ auth: 'public', reason }, async ({ req }) => handlers.GET(req));
 
 /** A credentials sign-in over HTTP passes the sign-in rate limits first. */
-export const POST = route({ auth: 'public', reason }, async ({ req }) => {
+export const POST = route({ auth: 'public', reason, body: { types: ['application/x-www-form-urlencoded', 'application/json'], maxBytes: BODY_LIMITS.authForm } }, async ({ req }) => {
   if (req.nextUrl.pathname.endsWith('/callback/credentials')) {
     const form = await req.clone().formData().catch(() => null);
     const email = String(form?.get('email') ?? '').trim().toLowerCase();

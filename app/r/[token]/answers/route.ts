@@ -1,5 +1,6 @@
 import type { NextRequest } from 'next/server';
 import { readJson, reply, route } from '@/lib/server/http/route';
+import { BODY_LIMITS } from '@/lib/server/http/request-guard';
 import { clientIp } from '@/lib/server/platform/rate-limit';
 import { answerBatchSchema } from '@/respondent/shared/answer.schema';
 import { limitAnswersFromIp } from '@/respondent/server/answer-limits';
@@ -17,7 +18,11 @@ function resumeTokens(req: NextRequest, fromBody: string | undefined): string[] 
 
 /** POST {answers: [{clientId, idx, answer, responseMs}, …], resumeToken?}: stores a batch, exactly once per trial. */
 export const POST = route<{ token: string }>(
-  { auth: 'public', reason: 'respondents have no account: the link token and the resume token are the credential' },
+  {
+    auth: 'public', reason: 'respondents have no account: the link token and the resume token are the credential',
+    // navigator.sendBeacon sends a string body as text/plain; the same-origin check still applies.
+    body: { types: ['application/json', 'text/plain'], maxBytes: BODY_LIMITS.respondent },
+  },
   async ({ req, params }) => {
     const batch = await readJson(req, answerBatchSchema);
     await limitAnswersFromIp(clientIp(req.headers), batch.answers.length);

@@ -1,4 +1,5 @@
 import { route, readJson, reply } from '@/lib/server/http/route';
+import { BODY_LIMITS } from '@/lib/server/http/request-guard';
 import { AppError } from '@/lib/server/http/errors';
 import { clientIp, limit } from '@/lib/server/platform/rate-limit';
 import { resumeCookie, resumeTokenFrom } from '@/respondent/server/http';
@@ -13,7 +14,12 @@ import { respondentUrls } from '@/respondent/shared/urls';
  * a redirect to the flow, or with the stop screen when the study cannot take the respondent.
  */
 export const POST = route(
-  { auth: 'public', reason: 'respondents have no account: the unguessable link token in the path lets anyone holding the link take part' },
+  {
+    auth: 'public', reason: 'respondents have no account: the unguessable link token in the path lets anyone holding the link take part',
+    // The consent screen is a real form (it works before and without the script): its post is
+    // urlencoded, and comes from our own page, so the same-origin check holds for it too.
+    body: { types: ['application/json', 'application/x-www-form-urlencoded'], maxBytes: BODY_LIMITS.respondent },
+  },
   async ({ req, params }) => {
     const token = String(params.token);
     await limit('respondent-start-ip', clientIp(req.headers));

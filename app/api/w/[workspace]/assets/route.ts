@@ -1,9 +1,9 @@
 import { reply, route } from '@/lib/server/http/route';
 import { AppError } from '@/lib/server/http/errors';
-import { checkUploadLength, savePicture } from '@/lib/server/studies/assets';
+import { checkUploadLength, MAX_PICTURE_BYTES, savePicture } from '@/lib/server/studies/assets';
 
 /** Item picture upload: multipart/form-data with one field "file". */
-export const POST = route({ auth: 'member', role: 'analyst' }, async ({ req, ctx }) => {
+export const POST = route({ auth: 'member', role: 'analyst', body: { types: ['multipart/form-data'], maxBytes: MAX_PICTURE_BYTES + 16 * 1024 } }, async ({ req, ctx }) => {
   checkUploadLength(req.headers.get('content-length'));
   let form: FormData;
   try {
