@@ -23,11 +23,9 @@ export const MODEL_SHORT: Record<AnalysisReport['preferredModel'], string> = { f
 
 type Money = (x: number) => string;
 
-/** A share as a percentage: one decimal below 10 %, whole above; trailing ".0" dropped. */
+/** A share as a percentage for prose: one decimal, a trailing ".0" dropped (24 %, 5.8 %). */
 export function pct(f: number): string {
-  const v = f * 100;
-  const s = v < 10 ? v.toFixed(1) : v.toFixed(0);
-  return `${s.replace(/\.0$/, '')} %`;
+  return `${(f * 100).toFixed(1).replace(/\.0$/, '')} %`;
 }
 /** A threshold percentage, always one decimal (tables line up). */
 export const pct1 = (f: number) => `${(f * 100).toFixed(1)} %`;
