@@ -24,6 +24,7 @@ import type { ObservedCell } from './chart-domain';
 export type { ObservedCell };
 type Pt = { x: number; y: number };
 
+const r2 = (v: number) => Math.round(v * 100) / 100;
 const M = { top: 34, right: 14, bottom: 44, left: 58 };
 const FONT = 'var(--font-mono), monospace';
 
@@ -63,8 +64,11 @@ export function PsychometricCurve(props: CurveProps) {
 function CurveSvg({ base, cells, fTarget, domain, width, height }: CurveProps & { width: number; height: number }) {
   const [lo, hi] = domain;
   const innerW = Math.max(60, width - M.left - M.right), innerH = height - M.top - M.bottom;
-  const x = scaleLog({ domain, range: [0, innerW] });
-  const y = scaleLinear({ domain: [0, 1], range: [innerH, 0] });
+  const xs = scaleLog({ domain, range: [0, innerW] });
+  const ys = scaleLinear({ domain: [0, 1], range: [innerH, 0] });
+  // Rounded so the server render and the browser's hydration agree to the last digit.
+  const x = (v: number) => r2(Number(xs(v)));
+  const y = (v: number) => r2(Number(ys(v)));
   const inside = (v: number) => v >= lo && v <= hi;
   const clampX = (v: number) => Math.min(hi, Math.max(lo, v));
   const t = thresholdOf(base);
@@ -80,23 +84,23 @@ function CurveSvg({ base, cells, fTarget, domain, width, height }: CurveProps & 
   }
   const band = (base.band ?? []).map((p) => ({ x: p.discount * 100, lo: p.lo, hi: p.hi })).filter((p) => inside(p.x));
   const fmt = (v: number) => formatNumber(v);
-  const ticks = spacedLogTicks(lo, hi, (v) => Number(x(v)), fmt, 10);
+  const ticks = spacedLogTicks(lo, hi, (v) => (x(v)), fmt, 10);
   const thresholdY = rateAtF(fTarget, base.guess, base.lapse);
   const label = t.bound ? boundText(t.bound) : t.fraction !== null ? `threshold ${(t.fraction * 100).toFixed(1)} %` : 'no threshold';
   const lw = labelWidth(label);
-  const anchorX = t.fraction !== null ? Number(x(clampX(t.fraction * 100))) : t.bound?.kind === 'below' ? 0 : innerW;
+  const anchorX = t.fraction !== null ? (x(clampX(t.fraction * 100))) : t.bound?.kind === 'below' ? 0 : innerW;
   const labelX = clampLabelX(anchorX, lw, -M.left + 4, innerW + M.right - 4);
   return (
     <svg width={width} height={height} viewBox={`0 0 ${width} ${height}`} style={{ maxWidth: "100%", height: "auto" }} role="img" aria-label={`Notice rate against discount at base price ${base.basePrice}; ${label}`}>
       <Group left={M.left} top={M.top}>
         {[0.2, 0.4, 0.6, 0.8, 1].map((v) => <line key={v} x1={0} x2={innerW} y1={y(v)} y2={y(v)} stroke={COLORS.rule} />)}
         {t.fraction !== null ? <line x1={anchorX} x2={anchorX} y1={-12} y2={y(thresholdY) - 10} stroke={COLORS.muted} strokeWidth={0.8} strokeDasharray="2 3" /> : null}
-        {band.length > 1 ? <Area data={band} x={(d) => Number(x(d.x))} y0={(d) => y(d.lo)} y1={(d) => y(d.hi)} fill={COLORS.teal} fillOpacity={0.14} data-testid="curve-band" /> : null}
+        {band.length > 1 ? <Area data={band} x={(d) => (x(d.x))} y0={(d) => y(d.lo)} y1={(d) => y(d.hi)} fill={COLORS.teal} fillOpacity={0.14} data-testid="curve-band" /> : null}
         {pts.map((c) => {
           const [wlo, whi] = wilson(c.k, c.n);
           return <line key={`w${c.x}`} x1={x(c.x)} x2={x(c.x)} y1={y(wlo)} y2={y(whi)} stroke={COLORS.amber} strokeWidth={1.2} />;
         })}
-        {curve.length ? <LinePath data={curve} x={(d) => Number(x(d.x))} y={(d) => y(d.y)} stroke={COLORS.teal} strokeWidth={2} /> : null}
+        {curve.length ? <LinePath data={curve} x={(d) => (x(d.x))} y={(d) => y(d.y)} stroke={COLORS.teal} strokeWidth={2} /> : null}
         {pts.map((c) => <circle key={`d${c.x}`} cx={x(c.x)} cy={y(c.y)} r={2 + 7 * Math.sqrt(c.n / nMax)} fill={COLORS.amber} fillOpacity={0.85} stroke="#fff" strokeWidth={0.8} />)}
         {t.fraction !== null ? (
           <g data-testid="threshold-tick">
@@ -105,9 +109,9 @@ function CurveSvg({ base, cells, fTarget, domain, width, height }: CurveProps & 
           </g>
         ) : null}
         <text data-testid="threshold-label" x={labelX} y={-18} textAnchor="middle" fontSize={11} fill={t.bound ? COLORS.brick : COLORS.ink} fontFamily={FONT}>{label}</text>
-        <AxisLeft scale={y} tickValues={[0, 0.2, 0.4, 0.6, 0.8, 1]} tickFormat={(v) => `${Math.round(Number(v) * 100)} %`} stroke={COLORS.muted} tickStroke={COLORS.muted} tickLength={4}
+        <AxisLeft scale={ys} tickValues={[0, 0.2, 0.4, 0.6, 0.8, 1]} tickFormat={(v) => `${Math.round(Number(v) * 100)} %`} stroke={COLORS.muted} tickStroke={COLORS.muted} tickLength={4}
           tickLabelProps={{ fill: COLORS.muted, fontSize: 11, fontFamily: FONT, textAnchor: 'end', dx: -2, dy: '0.33em' }} />
-        <AxisBottom top={innerH} scale={x} tickValues={ticks} tickFormat={(v) => fmt(Number(v))} stroke={COLORS.muted} tickStroke={COLORS.muted} tickLength={4}
+        <AxisBottom top={innerH} scale={xs} tickValues={ticks} tickFormat={(v) => fmt(Number(v))} stroke={COLORS.muted} tickStroke={COLORS.muted} tickLength={4}
           tickLabelProps={{ fill: COLORS.muted, fontSize: 11, fontFamily: FONT, textAnchor: 'middle' }} />
         <text x={innerW / 2} y={innerH + 38} textAnchor="middle" fontSize={12} fill={COLORS.ink}>Discount (% of base price, log scale)</text>
       </Group>

@@ -31,8 +31,11 @@ export function SpreadCurves({ curve, domain, width, height = 240, title }: { cu
 function SpreadSvg({ curve, domain, width, height }: { curve: SpreadCurvePoint[]; domain: [number, number]; width: number; height: number }) {
   const [lo, hi] = domain;
   const innerW = Math.max(60, width - M.left - M.right), innerH = height - M.top - M.bottom;
-  const x = scaleLog({ domain, range: [0, innerW] });
-  const y = scaleLinear({ domain: [0, 1], range: [innerH, 0] });
+  const xs = scaleLog({ domain, range: [0, innerW] });
+  const ys = scaleLinear({ domain: [0, 1], range: [innerH, 0] });
+  // Rounded so the server render and the browser's hydration agree to the last digit.
+  const x = (v: number) => Math.round(Number(xs(v)) * 100) / 100;
+  const y = (v: number) => Math.round(Number(ys(v)) * 100) / 100;
   const pts = curve.map((p) => ({ ...p, x: p.discount * 100 })).filter((p) => p.x >= lo && p.x <= hi).sort((a, b) => a.x - b.x);
   const ticks = spacedLogTicks(lo, hi, (v) => Number(x(v)), formatNumber, 10);
   const last = pts[pts.length - 1];
@@ -45,9 +48,9 @@ function SpreadSvg({ curve, domain, width, height }: { curve: SpreadCurvePoint[]
         <LinePath data={pts} x={(d) => Number(x(d.x))} y={(d) => y(d.population)} stroke={COLORS.ink} strokeWidth={1.6} strokeDasharray="6 4" />
         {mid ? <text x={Number(x(mid.x)) + 6} y={y(mid.typical) - 6} fontSize={11} fill={COLORS.teal}>typical shopper</text> : null}
         {last ? <text x={Number(x(last.x)) - 4} y={y(last.population) + 14} textAnchor="end" fontSize={11} fill={COLORS.ink}>all shoppers</text> : null}
-        <AxisLeft scale={y} tickValues={[0, 0.2, 0.4, 0.6, 0.8, 1]} tickFormat={(v) => `${Math.round(Number(v) * 100)} %`} stroke={COLORS.muted} tickStroke={COLORS.muted} tickLength={4}
+        <AxisLeft scale={ys} tickValues={[0, 0.2, 0.4, 0.6, 0.8, 1]} tickFormat={(v) => `${Math.round(Number(v) * 100)} %`} stroke={COLORS.muted} tickStroke={COLORS.muted} tickLength={4}
           tickLabelProps={{ fill: COLORS.muted, fontSize: 11, fontFamily: FONT, textAnchor: 'end', dx: -2, dy: '0.33em' }} />
-        <AxisBottom top={innerH} scale={x} tickValues={ticks} tickFormat={(v) => formatNumber(Number(v))} stroke={COLORS.muted} tickStroke={COLORS.muted} tickLength={4}
+        <AxisBottom top={innerH} scale={xs} tickValues={ticks} tickFormat={(v) => formatNumber(Number(v))} stroke={COLORS.muted} tickStroke={COLORS.muted} tickLength={4}
           tickLabelProps={{ fill: COLORS.muted, fontSize: 11, fontFamily: FONT, textAnchor: 'middle' }} />
         <text x={innerW / 2} y={innerH + 38} textAnchor="middle" fontSize={12} fill={COLORS.ink}>Discount (% of base price, log scale)</text>
       </Group>

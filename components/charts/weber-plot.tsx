@@ -65,7 +65,8 @@ function WeberSvg({ report, currency, width, height }: { report: AnalysisReport;
   const fmt = (v: number) => formatNumber(v);
   const xTicks = thin(logTicks(xLo, xHi, [1, 2, 5]), (v) => Number(x(v)), (v) => labelWidth(fmt(v)));
   const yTicks = thin(logTicks(yLo, yHi, [1, 2, 5]), (v) => Number(y(v)), () => 12);
-  const X = (v: number) => Number(x(v)), Y = (v: number) => Number(y(v));
+  // Rounded so the server render and the browser's hydration agree to the last digit.
+  const X = (v: number) => Math.round(Number(x(v)) * 100) / 100, Y = (v: number) => Math.round(Number(y(v)) * 100) / 100;
   return (
     <svg width={width} height={height} viewBox={`0 0 ${width} ${height}`} style={{ maxWidth: "100%", height: "auto" }} role="img" aria-label={`Notice threshold in ${currency} against base price, log scales`}>
       <Group left={M.left} top={M.top}>

@@ -27,7 +27,7 @@ async function waitForSummary(page: Page) {
 
 /** Geometry of every curve card's chart: tick labels, axis titles, threshold label, dots. */
 async function chartGeometry(page: Page) {
-  return page.evaluate(() => [...document.querySelectorAll('[data-testid="curves"] figure[data-testid="curve-figure"] svg')].map((svg) => {
+  return page.evaluate(() => [...document.querySelectorAll('[data-testid="curves"] figure[data-testid="curve-figure"] svg[aria-label]')].map((svg) => {
     const box = (el: Element) => { const r = el.getBoundingClientRect(); return { x: r.x, y: r.y, width: r.width, height: r.height }; };
     const texts = [...svg.querySelectorAll('text')];
     const svgBox = box(svg);
@@ -126,7 +126,7 @@ describe('results summary in Chromium', () => {
     const page = await open(true);
     await page.goto(resultsUrl());
     await waitForSummary(page);
-    await page.getByTestId('curve-figure').first().locator('svg').waitFor();
+    await page.getByTestId('curve-figure').first().locator('svg[aria-label]').waitFor();
     expect(await noPageScroll(page)).toBe(true);
     const frame = page.getByTestId('summary-scroll');
     const fits = await frame.evaluate((el) => el.getBoundingClientRect().right <= window.innerWidth);

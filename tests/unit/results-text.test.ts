@@ -21,17 +21,17 @@ function base(basePrice: number, fraction: number, extra: Partial<BaseReport> = 
   };
 }
 
-const model = (extra: object) => ({ logLik: -800, k: 10, aic: 1620, deviance: 40, devianceDf: 30, slope: 2.6, lapse: 0.02, converged: true, thresholds: [], ...extra });
+const model = <T extends object>(extra: T) => ({ logLik: -800, k: 10, aic: 1620, deviance: 40, devianceDf: 30, slope: 2.6, lapse: 0.02, converged: true, thresholds: [] as AnalysisReport['models']['free']['thresholds'], ...extra });
 
 function report(opts: { slope: number; ci: [number, number] | null; bases?: BaseReport[]; extra?: Partial<AnalysisReport> }): AnalysisReport {
   const bases = opts.bases ?? [base(2.49, 0.11), base(12.9, 0.08), base(49, 0.06)];
   return {
     task: 'pick', target: 0.5, targetMeaning: 'mid-point', bases,
     models: {
-      free: model({}) as AnalysisReport['models']['free'],
-      weber: model({ weberFraction: 0.075, weberFractionCi: [0.06, 0.09] }) as AnalysisReport['models']['weber'],
-      constantAmount: model({ amount: 1.2 }) as AnalysisReport['models']['constantAmount'],
-      power: model({ a: -1, weberSlope: opts.slope, weberSlopeCi: opts.ci, thresholds: bases.map((b) => ({ basePrice: b.basePrice, fraction: b.threshold.fraction, amount: b.threshold.amount, alpha: Math.log(b.threshold.fraction) })) }) as AnalysisReport['models']['power'],
+      free: model({}),
+      weber: model({ weberFraction: 0.075, weberFractionCi: [0.06, 0.09] as [number, number] }),
+      constantAmount: model({ amount: 1.2 }),
+      power: model({ a: -1, weberSlope: opts.slope, weberSlopeCi: opts.ci, thresholds: bases.map((b) => ({ basePrice: b.basePrice, fraction: b.threshold.fraction, amount: b.threshold.amount, alpha: Math.log(b.threshold.fraction) })) }),
     },
     tests: { weberVsPower: { chi2: 1, df: 1, p: 0.3 }, powerVsFree: { chi2: 2, df: 1, p: 0.2 } },
     preferredModel: 'weber', intervalMethod: 'respondent bootstrap, percentile', bootstrapSamples: 1000, seed: 1, warnings: [],

@@ -25,13 +25,13 @@ export function BaseTable({ b, report, money }: { b: BaseReport; report: Analysi
   const mc = typeof b.devianceMonteCarloP === 'number' ? b.devianceMonteCarloP : null;
   return (
     <div className="overflow-x-auto">
-      <table className="table mt-2" data-testid={`base-table-${b.basePrice}`}>
+      <table className="table mt-2 [&_td.n]:whitespace-nowrap" data-testid={`base-table-${b.basePrice}`}>
         <tbody>
           <tr><th><Term id="threshold" notes={NOTES} /></th>
             {t.bound ? <td className="n" colSpan={2} data-testid="threshold-bound">{boundText(t.bound)}</td> : <><td className="n">{t.fraction === null ? '—' : pct1(t.fraction)}</td><td className="n">{t.amount === null ? '—' : money.format(t.amount)}</td></>}
           </tr>
           <tr><th><Term id="interval" notes={NOTES} /></th><td className="n">{t.fractionCi ? `${pct1(t.fractionCi[0])} – ${pct1(t.fractionCi[1])}` : '—'}</td><td className="n">{t.amountCi ? `${money.format(t.amountCi[0])} – ${money.format(t.amountCi[1])}` : '—'}</td></tr>
-          <tr><th><Term id="slope" notes={NOTES} /> (per ln discount)</th><td className="n">{b.slope.toFixed(2)}</td><td className="n">{b.slopeCi ? `${b.slopeCi[0].toFixed(2)} – ${b.slopeCi[1].toFixed(2)}` : '—'}</td></tr>
+          <tr><th><Term id="slope" notes={NOTES} /> (per ln discount)</th><td className="n" colSpan={2}>{b.slope.toFixed(2)}{b.slopeCi ? <span className="hint"> (95 % interval {b.slopeCi[0].toFixed(2)} – {b.slopeCi[1].toFixed(2)})</span> : null}</td></tr>
           <tr><th><Term id="lapse" notes={NOTES} /></th><td className="n" colSpan={2}>{pct1(b.lapse)}</td></tr>
           <tr><th><Term id="guess" notes={NOTES} /></th><td className="n" colSpan={2} title={b.guessSource}>{pct1(b.guess)} <span className="hint">({b.guessSource})</span></td></tr>
           <tr><th><Term id="trials" notes={NOTES} /></th><td className="n" colSpan={2}>{b.nTrials.toLocaleString('en-GB')}</td></tr>

@@ -37,7 +37,7 @@ export function ResultsSummary({ report, counts, rules, locale, currency, weberP
     <section aria-labelledby="summary-h" data-testid="summary" className="card p-3 sm:p-5">
       <h2 id="summary-h" className="mb-3 text-2xl">The answer</h2>
       <div className="overflow-x-auto" data-testid="summary-scroll">
-        <table className="table" data-testid="summary-table">
+        <table className="table [&_td]:whitespace-nowrap" data-testid="summary-table">
           <thead>
             <tr>
               <th>Base price</th>

@@ -34,7 +34,7 @@ export function SpreadSection({ report, locale, currency, domain, width }: { rep
       </ul>
       <p className="hint mb-3">Mixed model ({MODEL_SHORT[s.model].toLowerCase()} thresholds, a shopper effect on each shopper&apos;s threshold; Moscatelli, Mezzetti &amp; Lacquaniti 2012), {s.shoppers.toLocaleString('en-GB')} shoppers. <Term id="sigma" notes={['sigma']} /> interval: {s.sigmaMethod}.{s.converged ? '' : ' The mixed model did not converge: read these figures as rough.'}</p>
       <div className="overflow-x-auto">
-        <table className="table card max-w-4xl" data-testid="share-table">
+        <table className="table card max-w-4xl [&_td]:whitespace-nowrap" data-testid="share-table">
           <thead>
             <tr><th>Base price</th><th className="n">Typical shopper</th>{SHARES.map((v) => <th key={v} className="n">{Math.round(v * 100)} % of shoppers notice</th>)}</tr>
           </thead>

@@ -27,7 +27,7 @@ export function WeberSection({ report, currency, width }: { report: AnalysisRepo
     <section aria-labelledby="weber-h" data-testid="weber-view">
       <h2 id="weber-h" className="mb-1 text-2xl">Price and threshold: the Weber view</h2>
       <div className="space-y-6">
-        <div className="card max-w-full p-3 sm:p-4 print-avoid-break md:inline-block">
+        <div className="card max-w-2xl p-3 sm:p-4 print-avoid-break">
           <WeberPlot report={report} currency={currency} width={width} />
           <p className="text-sm"><Term id="weberSlope" notes={NOTES} /> <span className="num">{p.weberSlope === null ? '—' : p.weberSlope.toFixed(3)}</span>
             {p.weberSlopeCi ? <> (95 % interval <span className="num">{p.weberSlopeCi[0].toFixed(3)} – {p.weberSlopeCi[1].toFixed(3)}</span>)</> : null}
