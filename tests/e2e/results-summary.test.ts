@@ -81,8 +81,8 @@ describe('results summary in Chromium', () => {
     for (let i = 0; i < report.bases.length; i++) {
       const cells = await rows.nth(i).locator('td').allTextContents();
       const t = report.bases[i].threshold;
-      expect(cells[1]).toBe(`${(t.fraction * 100).toFixed(1)} %`);
-      expect(cells[2]).toContain(t.amount.toFixed(2));
+      expect(cells[1]).toBe(`${(Number(t.fraction) * 100).toFixed(1)} %`);
+      expect(cells[2]).toContain(Number(t.amount).toFixed(2));
       expect(cells[3]).toContain(`${(t.fractionCi![0] * 100).toFixed(1)} % – ${(t.fractionCi![1] * 100).toFixed(1)} %`);
       expect(cells[4]).toBe(String(state.counts.respondents.after));
     }

@@ -31,7 +31,7 @@ function report(opts: { slope: number; ci: [number, number] | null; bases?: Base
       free: model({}),
       weber: model({ weberFraction: 0.075, weberFractionCi: [0.06, 0.09] as [number, number] }),
       constantAmount: model({ amount: 1.2 }),
-      power: model({ a: -1, weberSlope: opts.slope, weberSlopeCi: opts.ci, thresholds: bases.map((b) => ({ basePrice: b.basePrice, fraction: b.threshold.fraction, amount: b.threshold.amount, alpha: Math.log(b.threshold.fraction) })) }),
+      power: model({ a: -1, weberSlope: opts.slope, weberSlopeCi: opts.ci, thresholds: bases.map((b) => ({ basePrice: b.basePrice, fraction: Number(b.threshold.fraction), amount: Number(b.threshold.amount), alpha: Math.log(Number(b.threshold.fraction)) })) }),
     },
     tests: { weberVsPower: { chi2: 1, df: 1, p: 0.3 }, powerVsFree: { chi2: 2, df: 1, p: 0.2 } },
     preferredModel: 'weber', intervalMethod: 'respondent bootstrap, percentile', bootstrapSamples: 1000, seed: 1, warnings: [],
