@@ -172,7 +172,8 @@ export function weberVerdict(r: AnalysisReport, ev: VerdictEvidence, money: Mone
   const withNumber = r.bases.map((b) => ({ b, t: thresholdOf(b) })).filter((x) => x.t.fraction !== null);
   const lo = withNumber[0], hi = withNumber[withNumber.length - 1];
   const range = lo && hi && lo !== hi ? `from about ${pct(lo.t.fraction!)} at ${money(lo.b.basePrice)} ${p.weberSlope < 1 ? 'down' : 'up'} to about ${pct(hi.t.fraction!)} at ${money(hi.b.basePrice)}` : 'by price tier';
-  const tiers = r.models.power.thresholds.map((t) => `${money(t.basePrice)}: ${pct(t.fraction)}`).join(' · ');
+  // Each tier stays on one line (no break inside "€12.99: 8.8 %").
+  const tiers = r.models.power.thresholds.map((t) => `${money(t.basePrice)}:\u00a0${pct(t.fraction).replace(' ', '\u00a0')}`).join(' · ');
   return {
     kind: p.weberSlope < 1 ? 'tiers-cheap' : 'tiers-dear',
     sentence: `${p.weberSlope < 1 ? 'Cheap' : 'Expensive'} items need deeper percentages: ${range} (${slopeText}; 1 would mean one percentage for all prices).`,

@@ -72,7 +72,8 @@ describe('the Weber verdict matches the evidence', () => {
     const cheap = weberVerdict(report({ slope: 0.8, ci: [0.72, 0.88] }), { shoppers: 120 }, money);
     expect(cheap.kind).toBe('tiers-cheap');
     expect(cheap.sentence).toMatch(/^Cheap items need deeper percentages: from about 11 % at €2.49 down to about 6 % at €49.00/);
-    expect(cheap.rule).toContain('€2.49: 11 % · €12.90: 8 % · €49.00: 6 %');
+    expect(cheap.rule.replace(/\u00a0/g, ' ')).toContain('€2.49: 11 % · €12.90: 8 % · €49.00: 6 %');
+    expect(cheap.rule).toContain('€12.90:\u00a08\u00a0%');
     // Direction known although the interval is wide: it excludes both 0 and 1.
     expect(weberVerdict(report({ slope: 1.6, ci: [1.1, 2.2] }), { shoppers: 60 }, money).kind).toBe('tiers-dear');
   });
