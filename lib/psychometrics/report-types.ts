@@ -8,7 +8,10 @@ export interface BaseReport {
   lapse: number;
   slope: number;
   slopeCi: Interval | null;
-  threshold: { fraction: number; amount: number; fractionCi: Interval | null; amountCi: Interval | null };
+  /** `bound` (absent in older reports) is set when the data only bound the threshold. */
+  threshold: { fraction: number; amount: number; fractionCi: Interval | null; amountCi: Interval | null; bound?: ThresholdBound | null };
+  /** Pointwise bootstrap band of the fitted curve (the same samples as the intervals); null or absent in older reports. */
+  band?: CurveBandPoint[] | null;
   deviance: number;
   devianceDf: number;
   devianceP: number | null;
@@ -16,6 +19,21 @@ export interface BaseReport {
   devianceMonteCarloP?: number | null;
   overdispersed: boolean;
   verdict: 'fits well' | 'poor fit';
+}
+
+/** One point of a curve's pointwise bootstrap band: notice rates lo–hi at a discount fraction. */
+export interface CurveBandPoint {
+  discount: number;
+  lo: number;
+  hi: number;
+}
+
+/** A likelihood-ratio test; `method` says how its p-value was calibrated (absent in older reports). */
+export interface LrTest {
+  chi2: number;
+  df: number;
+  p: number | null;
+  method?: string;
 }
 
 export interface ModelThreshold {
@@ -51,8 +69,10 @@ export interface AnalysisReport {
     power: ModelReport & { a: number; weberSlope: number | null; weberSlopeCi: Interval | null };
   };
   tests: {
-    weberVsPower: { chi2: number; df: number; p: number | null };
-    powerVsFree: { chi2: number; df: number; p: number | null };
+    weberVsPower: LrTest;
+    powerVsFree: LrTest;
+    /** Constant amount vs power (slope 0), absent in older reports. */
+    constantVsPower?: LrTest;
   };
   preferredModel: 'free' | 'weber' | 'constantAmount' | 'power';
   intervalMethod: string;

@@ -8,13 +8,16 @@ import { fetchJson } from '@/lib/fetch-json';
 
 const base = (slug: string, study: string) => `/api/w/${encodeURIComponent(slug)}/studies/${encodeURIComponent(study)}`;
 
-/** Polls every second while the fit computes, every 15 s while fieldwork runs, else not at all. */
+export type ResultsResponse = RouteDto<typeof ResultsGET>;
+
+/** Polls every second while the fit computes (every 2 s while the Weber planner does), every 15 s while fieldwork runs, else not at all. */
 export const resultsQuery = (slug: string, study: string) => queryOptions({
   queryKey: ['results', slug, study],
-  queryFn: () => fetchJson<RouteDto<typeof ResultsGET>>(`${base(slug, study)}/results`),
+  queryFn: () => fetchJson<ResultsResponse>(`${base(slug, study)}/results`),
   refetchInterval: (q) => {
     const d = q.state.data;
     if (!d || d.fit.status === 'pending') return 1000;
+    if (d.weberPlan.status === 'pending') return 2000;
     return d.study.state === 'live' ? 15_000 : false;
   },
 });

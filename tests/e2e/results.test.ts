@@ -37,7 +37,7 @@ describe('results of the demo study in Chromium', () => {
     await fitShown();
     expect(await page.locator('[data-testid="curves"] article').count()).toBe(5);
     expect(await page.getByText('Discount (% of base price, log scale)').count()).toBeGreaterThan(0);
-    expect(await page.getByTestId('promotion-sentence').textContent()).toMatch(/Deeper percentages are needed on cheap items/);
+    expect(await page.getByTestId('weber-verdict').textContent()).toMatch(/Cheap items need deeper percentages/);
     expect(await page.getByTestId('model-table').textContent()).toMatch(/preferred/);
   });
 

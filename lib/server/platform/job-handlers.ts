@@ -6,6 +6,7 @@ import { boss, type QueueName } from './jobs';
 import { withRequestContext } from '@/lib/server/db/orm';
 import { runPlannerJob } from '@/lib/server/analysis/planner';
 import { runSegmentsJob } from '@/lib/server/analysis/segments';
+import { runWeberPlanJob } from '@/lib/server/analysis/weber-plan';
 
 // What the worker runs for each job kind; one place, so tests can call a handler directly.
 
@@ -18,6 +19,7 @@ async function runJob(data: JobData, lastAttempt: boolean): Promise<void> {
   if (data.kind === 'fit') return runFitJob(data as Parameters<typeof runFitJob>[0], lastAttempt);
   if (data.kind === 'segments') return runSegmentsJob(data as Parameters<typeof runSegmentsJob>[0], lastAttempt);
   if (data.kind === 'planner') return runPlannerJob(data as Parameters<typeof runPlannerJob>[0], lastAttempt);
+  if (data.kind === 'weber-plan') return runWeberPlanJob(data as Parameters<typeof runWeberPlanJob>[0], lastAttempt);
   throw new Error(`unknown job kind ${String(data.kind)}`);
 }
 

@@ -9,10 +9,13 @@ import { PlanForm } from './_components/plan-form';
 
 export const metadata: Metadata = { title: 'New promotion plan' };
 
-export default async function NewPlanPage({ params }: { params: Promise<{ workspace: string }> }) {
+export default async function NewPlanPage({ params, searchParams }: { params: Promise<{ workspace: string }>; searchParams: Promise<{ study?: string | string[] }> }) {
   const { workspace } = await params;
+  const { study: wanted } = await searchParams;
   const ctx = await requireRole(workspace, 'analyst');
-  const [studies, lists] = await Promise.all([listFittableStudies(ctx), listPriceLists(ctx)]);
+  const [fittable, lists] = await Promise.all([listFittableStudies(ctx), listPriceLists(ctx)]);
+  // ?study=<id> (from a study's results): that study first, so the form starts with it chosen.
+  const studies = [...fittable].sort((a, b) => Number(b.id === wanted) - Number(a.id === wanted));
   const base = `/w/${ctx.workspace.slug}/promotions`;
   return (
     <>

@@ -21,7 +21,6 @@ export default async function ResultsPage({ params }: { params: Promise<{ worksp
     <>
       <p className="mb-1 text-sm"><Link href={href}>← {study.name}</Link></p>
       <PageTitle title={`Results: ${study.name}`}>
-        <Link className="btn" href={`${href}/results/print`}>Printable report</Link>
         {canEdit && (study.state === 'closed' || study.state === 'imported') ? <Link className="btn" href={`${href}/import`}>Import responses</Link> : null}
       </PageTitle>
       <ResultsView slug={ctx.workspace.slug} studyId={study.id} canEdit={canEdit} segmentQuestions={study.segmentQuestions} />

@@ -9,7 +9,7 @@ export function ExportLinks({ slug, studyId, questions, ready }: { slug: string;
   const u = (f: string, seg = segment) => exportUrl(slug, studyId, f, seg || undefined);
   return (
     <section aria-labelledby="exp-h" className="print-hide">
-      <h2 id="exp-h" className="mb-1 text-2xl">Exports</h2>
+      <h3 id="exp-h" className="mb-1 text-lg">Exports</h3>
       {questions.length ? (
         <label className="field mb-3 max-w-md">
           <span className="label">Thresholds per segment</span>
