@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startStandIns, waitForMail, mailsTo } from '../support/stand-ins';
+import { startStandIns, mailsTo } from '../support/stand-ins';
+import { deliverAndWait } from '../support/mail-jobs';
 import { completePasswordReset, requestPasswordReset, resetTokenUsable, RESET_ANSWER } from '@/lib/server/team/password-reset';
 import { em } from '@/lib/server/db/orm';
 import { User } from '@/entities/user';
@@ -12,7 +13,7 @@ beforeAll(async () => (stop = await startStandIns()));
 afterAll(() => stop?.());
 
 async function tokenFromMail(email: string, n = 1) {
-  const mails = await waitForMail(email, n);
+  const mails = await deliverAndWait(email, n);
   return mails.at(-1)!.text.match(/\/reset\/([\w-]+)/)![1];
 }
 
@@ -22,7 +23,7 @@ describe('password reset', () => {
     const unknown = `nobody-${uid()}@test.example`;
     expect(await requestPasswordReset(unknown)).toBe(RESET_ANSWER);
     expect(await requestPasswordReset(ws.owner.email)).toBe(RESET_ANSWER);
-    await waitForMail(ws.owner.email);
+    await deliverAndWait(ws.owner.email);
     expect(await mailsTo(unknown)).toEqual([]);
   });
 

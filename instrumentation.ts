@@ -1,0 +1,9 @@
+// Runs once per server process before it answers requests (Next.js instrumentation hook).
+// It stamps each request with the socket's address, which Next.js does not hand to route
+// handlers: see lib/peer-stamp.ts for why and how.
+export async function register() {
+  if (process.env.NEXT_RUNTIME !== 'nodejs') return;
+  const http = await import('node:http');
+  const { installPeerStamp } = await import('./lib/peer-stamp');
+  installPeerStamp(http);
+}
