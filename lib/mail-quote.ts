@@ -7,9 +7,9 @@
 // in «guillemets» inside a sentence of ours that says who typed it. Never in a subject line.
 // Tests: tests/unit/mail-quote.test.ts.
 
-const MAX = 80;
+const MAX = 140; // names are at most 120 characters; defanging adds a few
 
-/** One line, no controls or invisible characters, no link-shaped text, at most 80 characters. */
+/** One line, no controls or invisible characters, no link-shaped text, at most 140 characters. */
 export function plainName(raw: string): string {
   let s = raw
     .normalize('NFKC')

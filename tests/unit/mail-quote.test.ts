@@ -21,7 +21,7 @@ describe('names in e-mails are quoted, flat, linkless data', () => {
   it('drops invisible and direction-changing characters, and caps the length', () => {
     expect(plainName('Acme\u202e moc.live\u200b')).toBe('Acme moc[.]live');
     const long = plainName('x'.repeat(500));
-    expect(long.length).toBeLessThanOrEqual(80);
+    expect(long.length).toBeLessThanOrEqual(140);
     expect(long.endsWith('…')).toBe(true);
   });
 
