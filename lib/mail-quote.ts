@@ -13,7 +13,6 @@ const MAX = 140; // names are at most 120 characters; defanging adds a few
 export function plainName(raw: string): string {
   let s = raw
     .normalize('NFKC')
-    // eslint-disable-next-line no-control-regex
     .replace(/[\u0000-\u001f\u007f-\u009f\u2028\u2029]/g, ' ')
     .replace(/[\u00ad\u061c\u180e\u200b-\u200f\u202a-\u202e\u2060-\u206f\ufeff]/g, '')
     .replace(/[«»]/g, '"')

@@ -9,7 +9,6 @@
 const SELF = 'https://notchwise.invalid';
 
 // Controls (tab, CR, LF… which browsers strip from URLs) and backslashes (read as slashes).
-// eslint-disable-next-line no-control-regex
 const TRICKY = /[\u0000-\u001f\u007f\\]/;
 
 function decodedAll(s: string): string | null {
