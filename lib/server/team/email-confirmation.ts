@@ -3,10 +3,12 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { User } from '@/entities/user';
 import { em } from '@/lib/server/db/orm';
 import { sql, sqlOne } from '@/lib/server/db/sql';
-import { AppError } from '@/lib/server/http/errors';
+import { AppError, unauthenticatedError } from '@/lib/server/http/errors';
 import { hashToken } from '@/lib/server/platform/tokens';
 import { grantWelcomeSeatsOnConfirmation } from '@/lib/server/billing/seat-ledger';
-import { queueAccountMail } from './account-mail';
+import { CONFIRM_DAYS, queueAccountMail } from './account-mail';
+import { limit } from '@/lib/server/platform/rate-limit';
+import { currentUser } from './session';
 import { recordAudit } from './audit';
 
 // Confirming an account's e-mail address. A new workspace's free seats wait for it: without a
@@ -56,7 +58,16 @@ export async function confirmationPending(userId: string): Promise<boolean> {
   return !!user && !user.emailConfirmedAt;
 }
 
-/** Sends a fresh link to a signed-in user whose address is not confirmed yet. */
+/** Sends a fresh link to the signed-in caller, if their address still waits; the form's answer. */
+export async function resendConfirmationToCaller(): Promise<string> {
+  const user = await currentUser();
+  if (!user) throw unauthenticatedError();
+  await limit('confirm-resend', user.id, (wait) => `A few links were sent in the last hour already. Ask again in ${wait}.`);
+  await resendConfirmation(user.id);
+  return `A new link is on its way to ${user.email}. It works for ${CONFIRM_DAYS} days.`;
+}
+
+/** Sends a fresh link to a user whose address is not confirmed yet. */
 export async function resendConfirmation(userId: string): Promise<void> {
   if (await confirmationPending(userId)) await queueAccountMail({ mail: 'confirm', userId });
 }

@@ -1,6 +1,6 @@
 'use client';
 import { useState } from 'react';
-import { confirmEmailAction } from './actions';
+import { confirmEmailAction } from '../actions';
 
 export function ConfirmButton({ token }: { token: string }) {
   const [message, setMessage] = useState<string | null>(null);

@@ -1,6 +1,6 @@
 'use server';
 import { action } from '@/lib/server/http/action';
-import { confirmEmail, resendConfirmation } from '@/lib/server/team/email-confirmation';
+import { confirmEmail, resendConfirmationToCaller } from '@/lib/server/team/email-confirmation';
 import { limit } from '@/lib/server/platform/rate-limit';
 import { actionClientAddress } from '@/lib/server/platform/client-address';
 
@@ -14,9 +14,8 @@ export const confirmEmailAction = action(
   },
 );
 
-/** A fresh confirmation link for the signed-in user (a few an hour). */
-export const resendConfirmationAction = action({ auth: 'user' }, async ({ user }) => {
-  await limit('confirm-resend', user.id);
-  await resendConfirmation(user.id);
-  return { message: `A new link is on its way to ${user.email}.` };
-});
+/** A fresh confirmation link for the signed-in caller's own address (a few an hour). */
+export const resendConfirmationAction = action(
+  { auth: 'public', reason: "acts only on the signed-in caller's own account, if any; takes no argument" },
+  async () => ({ message: await resendConfirmationToCaller() }),
+);
