@@ -15,7 +15,7 @@ export function ConfirmNotice({ email }: { email: string }) {
   return (
     <div role="status" className="mx-auto mt-4 max-w-6xl px-6">
       <p className="border-l-2 border-moss pl-3 text-sm">
-        Confirm your e-mail address to receive this workspace&apos;s free respondent seats: follow the link we sent to {email}.{' '}
+        Confirm your e-mail address to receive the free respondent seats of the workspace you opened: follow the link we sent to {email}.{' '}
         {answer ?? (
           <button type="button" className="underline" onClick={resend} disabled={busy}>
             Send the link again

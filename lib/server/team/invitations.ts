@@ -154,7 +154,8 @@ export async function signUpWithInvitation(token: string, input: InviteSignUpInp
   try {
     return await db.transactional(async (tx) => {
       if (await tx.count(User, { email })) throw new AppError(409, 'conflict', 'An account with this address exists already. Sign in to accept the invitation.');
-      const user = tx.create(User, { email, name: input.name, passwordHash });
+      // The invitation reached this mailbox, so the address counts as confirmed.
+      const user = tx.create(User, { email, name: input.name, passwordHash, emailConfirmedAt: new Date() });
       await tx.flush();
       return { ...(await consume(tx, token, user)), email };
     });
