@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import type * as Http from 'node:http';
+import * as Http from 'node:http';
 
 // The socket's address, handed to route handlers and server actions. Next.js (16.4, `next
 // start`) gives them no socket and no `request.ip` (removed in Next 15); it only sets
@@ -39,7 +39,7 @@ export function readPeerStamp(value: string | null | undefined): string | null {
 }
 
 /** Stamps every request this process's HTTP servers receive (idempotent). */
-export function installPeerStamp(http: typeof Http): void {
+export function installPeerStamp(http: typeof Http = Http): void {
   if (g[INSTALLED]) return;
   g[INSTALLED] = true;
   const proto = http.Server.prototype as unknown as { emit: (event: string | symbol, ...args: unknown[]) => boolean };
