@@ -40,7 +40,7 @@ describe('sign-up, sign-out, sign-in in Chromium', () => {
     await page.waitForURL(/\/w\/lind-pricing-lab/);
     await expect.poll(() => page.getByTestId('signed-in-as').textContent()).toContain('Rosa Lind · Owner');
     // The shell reads /api/me with TanStack Query to fill the workspace switcher.
-    await expect.poll(() => page.getByLabel('Workspace').locator('option').first().textContent()).toContain('Lind pricing lab (Owner)');
+    await expect.poll(() => page.getByLabel('Workspace').locator('option').first().textContent(), { timeout: 15_000 }).toContain('Lind pricing lab (Owner)');
     await screenshot(page, 'shell');
 
     // A copy of the session cookie taken now must die with the sign-out (issue 13, finding 8).
