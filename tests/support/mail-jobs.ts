@@ -5,7 +5,7 @@
 import { boss, MAIL_QUEUE } from '@/lib/server/platform/jobs';
 import { runAccountMailJob, type AccountMailJob } from '@/lib/server/team/account-mail';
 import { withRequestContext } from '@/lib/server/db/orm';
-import { waitForMail, type CaughtMail } from './stand-ins';
+import { mailsTo, waitForMail, type CaughtMail } from './stand-ins';
 
 /** Sends every queued account e-mail now, as the worker would; returns how many ran. */
 export async function deliverQueuedMail(): Promise<number> {
@@ -32,10 +32,19 @@ export async function deliverAndWait(address: string, count = 1, timeoutMs = 10_
   return waitForMail(address, count, timeoutMs);
 }
 
-/** The path of the last link of `kind` mailed to `address` (`/confirm/…`, `/reset/…`, `/invite/…`). */
-export async function linkFromMail(address: string, kind: 'confirm' | 'reset' | 'invite', count = 1): Promise<string> {
-  const mails = await deliverAndWait(address, count);
-  const m = mails.filter((x) => x.text.includes(`/${kind}/`)).at(-1)?.text.match(new RegExp(`/${kind}/([\\w-]+)`));
-  if (!m) throw new Error(`no ${kind} link mailed to ${address}`);
-  return m[1];
+/**
+ * The token of the newest `kind` link (`/confirm/…`, `/reset/…`, `/invite/…`) mailed to
+ * `address`, once at least `count` such mails arrived. Other mails to the address are ignored
+ * (a confirmation job run by another file may land beside a reset).
+ */
+export async function linkFromMail(address: string, kind: 'confirm' | 'reset' | 'invite', count = 1, timeoutMs = 10_000): Promise<string> {
+  const until = Date.now() + timeoutMs;
+  const pattern = new RegExp(`/${kind}/([\\w-]+)`);
+  for (;;) {
+    await deliverQueuedMail();
+    const links = (await mailsTo(address)).map((m) => pattern.exec(m.text)?.[1]).filter((t): t is string => !!t);
+    if (links.length >= count) return links.at(-1)!;
+    if (Date.now() > until) throw new Error(`no ${kind} link mailed to ${address}`);
+    await new Promise((r) => setTimeout(r, 150));
+  }
 }

@@ -12,6 +12,7 @@ import { slugify } from '@/lib/slug';
 import { em } from '@/lib/server/db/orm';
 import { hashPassword } from './passwords';
 import { queueAccountMail } from './account-mail';
+import { markEmailConfirmed } from './email-confirmation';
 
 async function freeSlug(db: EntityManager, name: string): Promise<string> {
   const base = slugify(name);
@@ -31,8 +32,10 @@ export type SignUpResult = { created: true; userId: string; workspaceSlug: strin
  * gets no second one and no different answer: the caller shows SIGN_UP_ANSWER either way, and
  * the mailbox is told what happened (a confirmation link, or "someone tried to sign up with
  * your address"). The password is hashed in both cases, so timing tells nothing either.
+ * `addressProven` is for callers that proved the mailbox another way (test factories, tools):
+ * the account is confirmed, with its seats, in the same transaction and no link is mailed.
  */
-export async function signUp(input: SignUpInput): Promise<SignUpResult> {
+export async function signUp(input: SignUpInput, opts: { addressProven?: boolean } = {}): Promise<SignUpResult> {
   const db = await em();
   const passwordHash = await hashPassword(input.password);
   let result: SignUpResult;
@@ -46,6 +49,7 @@ export async function signUp(input: SignUpInput): Promise<SignUpResult> {
       tx.create(Membership, { workspace, user, role: 'owner' });
       tx.create(AuditEvent, { workspace, actor: user, action: 'workspace.created', target: workspace.name });
       await tx.flush();
+      if (opts.addressProven) await markEmailConfirmed(tx, user.id);
       return { created: true, userId: user.id, workspaceSlug: workspace.slug, workspaceId: workspace.id };
     });
   } catch (err) {
@@ -53,6 +57,7 @@ export async function signUp(input: SignUpInput): Promise<SignUpResult> {
     if (!(err instanceof UniqueConstraintViolationException && String(err.message).includes('email'))) throw err;
     result = { created: false };
   }
-  await queueAccountMail(result.created ? { mail: 'confirm', userId: result.userId } : { mail: 'sign-up-attempt', email: input.email });
+  if (!result.created) await queueAccountMail({ mail: 'sign-up-attempt', email: input.email });
+  else if (!opts.addressProven) await queueAccountMail({ mail: 'confirm', userId: result.userId });
   return result;
 }
