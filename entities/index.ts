@@ -5,6 +5,7 @@ export { Membership } from './membership';
 export { AuditEvent } from './audit-event';
 export { Invitation } from './invitation';
 export { PasswordReset } from './password-reset';
+export { EmailConfirmation } from './email-confirmation';
 export { Study } from './study';
 export { StudyAsset } from './study-asset';
 export { RespondentLink } from './respondent-link';

@@ -12,6 +12,10 @@ export const User = defineEntity({
     passwordHash: p.string().length(100).hidden(),
     /** Bumped on password change; sessions carrying an older value are refused. */
     sessionVersion: p.integer().default(1),
+    /** Set when the owner of the address followed a confirmation link (free seats wait for it). */
+    emailConfirmedAt: p.datetime().nullable(),
+    /** The workspace opened at sign-up, whose free seats the confirmation grants (once). */
+    welcomeWorkspaceId: p.uuid().nullable(),
     createdAt: p.datetime().onCreate(() => new Date()),
   }),
 });

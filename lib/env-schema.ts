@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { parseTrustedProxies } from './client-address';
 
 /** Booleans from the environment: only these spellings count, anything else is an error. */
 const envBool = z
@@ -28,6 +29,14 @@ export const envSchema = z.object({
   RATE_LIMIT_ANSWERS_PER_MIN: z.coerce.number().int().positive().default(120_000),
   /** Answers per minute of one respondent (a person answers about one a second). */
   RATE_LIMIT_ANSWERS_PER_RESPONDENT_PER_MIN: z.coerce.number().int().positive().default(600),
+  /** Which X-Forwarded-For hop is the client: unset = none (the socket), a hop count, or our proxies' CIDRs (README, several instances). */
+  TRUSTED_PROXIES: z.string().default('').superRefine((v, ctx) => {
+    try {
+      parseTrustedProxies(v);
+    } catch (err) {
+      ctx.addIssue({ code: 'custom', message: (err as Error).message });
+    }
+  }),
 });
 
 /** The development and test fallback for the webhook secret; public, so refused in production. */

@@ -9,7 +9,7 @@ const log = (m: string) => process.stdout.write(`[worker] ${m}\n`);
 
 async function main() {
   await startWorkers(log);
-  log('listening on queues analysis, planner');
+  log('listening on queues analysis, planner, mail');
   let stopping = false;
   const stop = async () => {
     if (stopping) return;

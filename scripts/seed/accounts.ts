@@ -21,7 +21,8 @@ export async function seedAccounts(db: EntityManager) {
   const hash = await hashPassword(DEMO_PASSWORD);
   for (const a of DEMO_ACCOUNTS as { email: string; name: string; role: Role }[]) {
     let user = await db.findOne(User, { email: a.email });
-    user ??= db.create(User, { email: a.email, name: a.name, passwordHash: hash });
+    // Demo accounts count as confirmed: the workspace has its free seats already.
+    user ??= db.create(User, { email: a.email, name: a.name, passwordHash: hash, emailConfirmedAt: new Date() });
     await db.flush();
     if (!(await db.count(Membership, { user, workspace }))) db.create(Membership, { user, workspace, role: a.role });
   }

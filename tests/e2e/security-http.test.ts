@@ -1,8 +1,10 @@
 import { randomInt } from 'node:crypto';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import http from 'node:http';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { baseUrl, openBrowser } from '../support/browser';
 import { cspDirectives } from '../support/csp';
+import { mailedLink, signUpAndConfirm } from '../support/e2e-accounts';
 
 // Against the built app over real HTTP: the security headers it serves, the Auth.js cookie
 // flags of a credentials sign-in, and an old session refused after a password reset.
@@ -26,19 +28,20 @@ async function httpSignIn(email: string, password: string) {
   return { res, csrfCookies: csrf.headers.getSetCookie(), session };
 }
 
-const me = (cookie: string) => fetch(`${baseUrl()}/api/me`, { headers: { cookie } });
-
-/** The reset link from the e-mail maildev caught. */
-async function resetLink(address: string): Promise<string> {
-  const until = Date.now() + 15_000;
-  for (;;) {
-    const mails = (await (await fetch(`${inject('mailApiUrl')}/api/email`)).json()) as { to: { address: string }[]; text: string }[];
-    const link = mails.find((m) => m.to.some((t) => t.address === address))?.text.match(/https?:\/\/\S+\/reset\/[\w-]+/)?.[0];
-    if (link) return link;
-    if (Date.now() > until) throw new Error(`no reset e-mail for ${address}`);
-    await new Promise((r) => setTimeout(r, 250));
-  }
+/** A POST from a chosen loopback source address (the socket `next start` sees); returns the status. */
+function fromAddress(localAddress: string, path: string, headers: Record<string, string>, body: string): Promise<number> {
+  const url = new URL(path, baseUrl());
+  return new Promise((resolve, reject) => {
+    const req = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', localAddress, headers: { ...headers, 'content-length': Buffer.byteLength(body) } }, (res) => {
+      res.resume();
+      res.on('end', () => resolve(res.statusCode ?? 0));
+    });
+    req.on('error', reject);
+    req.end(body);
+  });
 }
+
+const me = (cookie: string) => fetch(`${baseUrl()}/api/me`, { headers: { cookie } });
 
 describe('security over HTTP', () => {
   let context: BrowserContext;
@@ -54,13 +57,7 @@ describe('security over HTTP', () => {
     page.on('console', (m) => {
       if (/Content Security Policy|Refused to/i.test(m.text())) blocked.push(m.text());
     });
-    await page.goto(`${baseUrl()}/sign-up`);
-    await page.getByLabel('Your name').fill('Cookie Check');
-    await page.getByLabel('E-mail').fill(email);
-    await page.getByLabel('Password').fill(first);
-    await page.getByLabel('Workspace name').fill(`Cookie lab ${Date.now()}`);
-    await page.getByRole('button', { name: 'Open workspace' }).click();
-    await page.waitForURL(/\/w\//);
+    await signUpAndConfirm(page, { name: 'Cookie Check', email, password: first, workspaceName: `Cookie lab ${Date.now()}` });
   });
   afterAll(async () => {
     await context?.close();
@@ -126,19 +123,51 @@ describe('security over HTTP', () => {
     expect((await me(cookiePair(session!))).status).toBe(200);
   });
 
-  it('hammering the credentials callback from one address: 429 with Retry-After after ten tries', async () => {
-    const from = ip();
+  it('hammering one account over the credentials callback: 429 with Retry-After after ten wrong passwords, whatever X-Forwarded-For says', async () => {
     const target = `nobody-${Date.now()}@test.example`;
+    const csrf = await fetch(`${baseUrl()}/api/auth/csrf`);
+    const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+    const cookie = csrf.headers.getSetCookie().map(cookiePair).join('; ');
     const post = () => fetch(`${baseUrl()}/api/auth/callback/credentials`, {
       method: 'POST', redirect: 'manual',
-      headers: { 'content-type': 'application/x-www-form-urlencoded', 'x-forwarded-for': from },
-      body: new URLSearchParams({ email: target, password: 'guess-0000000' }),
+      headers: { 'content-type': 'application/x-www-form-urlencoded', cookie, 'x-forwarded-for': ip() },
+      body: new URLSearchParams({ csrfToken, email: target, password: 'guess-0000000' }),
     });
     for (let i = 0; i < 10; i++) expect((await post()).status).not.toBe(429);
     const res = await post();
     expect(res.status).toBe(429);
     expect(Number(res.headers.get('retry-after'))).toBeGreaterThan(0);
-    expect((await res.json()).error.message).toMatch(/Too many attempts/);
+    expect((await res.json()).error.message).toMatch(/Too many wrong passwords for this account/);
+  });
+
+  it('the per-address limit counts the socket `next start` saw: 100 sign-ins from 127.0.0.2 with rotating X-Forwarded-For, then 429; 127.0.0.3 is unaffected', async () => {
+    const csrf = await fetch(`${baseUrl()}/api/auth/csrf`);
+    const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+    const cookie = csrf.headers.getSetCookie().map(cookiePair).join('; ');
+    const post = (from: string) => fromAddress(from, '/api/auth/callback/credentials', {
+      'content-type': 'application/x-www-form-urlencoded', cookie, 'x-forwarded-for': ip(), 'x-real-ip': ip(),
+    }, new URLSearchParams({ csrfToken, email: `spray-${randomInt(1e9)}@test.example`, password: 'guess-0000000' }).toString());
+    for (let i = 0; i < 100; i++) expect(await post('127.0.0.2')).not.toBe(429);
+    expect(await post('127.0.0.2')).toBe(429);
+    expect(await post('127.0.0.3')).not.toBe(429);
+  }, 120_000);
+
+  it('a session cookie copied before sign-out is dead after it (the server voids the session, not only the browser)', async () => {
+    const copied = cookiePair((await httpSignIn(email, first)).session!);
+    expect((await me(copied)).status).toBe(200);
+    const csrf = await fetch(`${baseUrl()}/api/auth/csrf`, { headers: { cookie: copied } });
+    const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+    const jar = [copied, ...csrf.headers.getSetCookie().map(cookiePair)].join('; ');
+    const out = await fetch(`${baseUrl()}/api/auth/signout`, {
+      method: 'POST', redirect: 'manual',
+      headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: jar },
+      body: new URLSearchParams({ csrfToken, callbackUrl: baseUrl() }),
+    });
+    expect(out.status).toBeLessThan(400);
+    expect((await me(copied)).status).toBe(401);
+    // Signing in again works and gives a live session.
+    const again = cookiePair((await httpSignIn(email, first)).session!);
+    expect((await me(again)).status).toBe(200);
   });
 
   it('a wrong password sets no session cookie', async () => {
@@ -155,7 +184,7 @@ describe('security over HTTP', () => {
       await p2.goto(`${baseUrl()}/reset`);
       await p2.getByLabel('E-mail').fill(email);
       await p2.getByRole('button', { name: 'Send the link' }).click();
-      await p2.goto(await resetLink(email));
+      await p2.goto(await mailedLink(email, 'reset'));
       await p2.getByLabel('New password').fill(second);
       await p2.getByLabel('The same again').fill(second);
       await p2.getByRole('button', { name: 'Save the new password' }).click();

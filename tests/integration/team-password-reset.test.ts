@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startStandIns, waitForMail, mailsTo } from '../support/stand-ins';
+import { startStandIns, mailsTo } from '../support/stand-ins';
+import { linkFromMail } from '../support/mail-jobs';
 import { completePasswordReset, requestPasswordReset, resetTokenUsable, RESET_ANSWER } from '@/lib/server/team/password-reset';
 import { em } from '@/lib/server/db/orm';
 import { User } from '@/entities/user';
@@ -11,10 +12,7 @@ let stop: () => void;
 beforeAll(async () => (stop = await startStandIns()));
 afterAll(() => stop?.());
 
-async function tokenFromMail(email: string, n = 1) {
-  const mails = await waitForMail(email, n);
-  return mails.at(-1)!.text.match(/\/reset\/([\w-]+)/)![1];
-}
+const tokenFromMail = (email: string, n = 1) => linkFromMail(email, 'reset', n);
 
 describe('password reset', () => {
   it('gives the same answer for an unknown address and sends nothing', async () => {
@@ -22,7 +20,7 @@ describe('password reset', () => {
     const unknown = `nobody-${uid()}@test.example`;
     expect(await requestPasswordReset(unknown)).toBe(RESET_ANSWER);
     expect(await requestPasswordReset(ws.owner.email)).toBe(RESET_ANSWER);
-    await waitForMail(ws.owner.email);
+    await linkFromMail(ws.owner.email, 'reset');
     expect(await mailsTo(unknown)).toEqual([]);
   });
 

@@ -40,6 +40,7 @@ const PUBLIC_ACTIONS: Record<string, string> = {
   'app/(auth)/actions.ts#signUpAction': 'creates a new account and its own new workspace; touches no existing one',
   'app/(auth)/actions.ts#signOutAction': "ends the caller's own session",
   'app/(auth)/reset/actions.ts#requestResetAction': 'answers the same for every address; the link goes only to the mailbox',
+  'app/(auth)/confirm/actions.ts#resendConfirmationAction': "sends a confirmation link to the caller's own address, if it still waits",
 };
 
 /** Query strings for reads that validate their query before looking anything up. */

@@ -20,18 +20,23 @@ export function signInAs(user: SessionUser | null) {
   (globalThis as { __testUser?: SessionUser | null }).__testUser = user;
 }
 
-/** A new workspace with its owner. */
-export async function makeWorkspace(name = `Test ${uid()}`) {
+/**
+ * A new workspace with its owner, whose address is confirmed (so the workspace has its free
+ * seats, as after following the e-mailed link); `confirmed: false` leaves it waiting.
+ */
+export async function makeWorkspace(name = `Test ${uid()}`, { confirmed = true }: { confirmed?: boolean } = {}) {
   const email = `owner-${uid()}@test.example`;
-  const { userId, workspaceSlug } = await signUp({ name: 'Owner', email, password: 'long-enough-password', workspaceName: name });
-  return { slug: workspaceSlug, owner: { id: userId, email, name: 'Owner' } as SessionUser };
+  // A proven address sends no confirmation mail: tests that count an owner's mails see none.
+  const result = await signUp({ name: 'Owner', email, password: 'long-enough-password', workspaceName: name }, { addressProven: confirmed });
+  if (!result.created) throw new Error('makeWorkspace: the fresh address had an account');
+  return { slug: result.workspaceSlug, workspaceId: result.workspaceId, owner: { id: result.userId, email, name: 'Owner' } as SessionUser };
 }
 
 /** A new user who is a member of `slug` with `role`. */
 export async function makeMember(slug: string, role: Role): Promise<SessionUser> {
   const db = await em();
   const email = `${role}-${uid()}@test.example`;
-  const user = db.create(User, { email, name: role, passwordHash: await hashPassword('long-enough-password') });
+  const user = db.create(User, { email, name: role, passwordHash: await hashPassword('long-enough-password'), emailConfirmedAt: new Date() });
   await db.flush();
   const ws = await db.findOneOrFail(Workspace, { slug });
   db.create(Membership, { user, workspace: ws, role });

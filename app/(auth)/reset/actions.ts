@@ -2,7 +2,8 @@
 import { action } from '@/lib/server/http/action';
 import { completePasswordReset, requestPasswordReset } from '@/lib/server/team/password-reset';
 import { listWorkspacesByEmail } from '@/lib/server/team/membership';
-import { actionClientIp, limit } from '@/lib/server/platform/rate-limit';
+import { limit } from '@/lib/server/platform/rate-limit';
+import { actionClientAddress } from '@/lib/server/platform/client-address';
 import { startSession } from '@/lib/server/team/start-session';
 import { newPasswordSchema, resetRequestSchema } from '@/lib/schemas/team.schema';
 
@@ -10,7 +11,7 @@ export const requestResetAction = action(
   { auth: 'public', reason: 'answers the same for every address; the link goes only to the mailbox' },
   async (_caller, input: unknown) => {
     const { email } = resetRequestSchema.parse(input);
-    const ip = await actionClientIp();
+    const ip = await actionClientAddress();
     await limit('reset-ip', ip);
     await limit('reset-email', email.toLowerCase());
     return { message: await requestPasswordReset(email) };
@@ -22,7 +23,7 @@ export const completeResetAction = action(
   { auth: 'public', reason: 'the reset token from the e-mail is the credential (single use, expires)' },
   async (_caller, token: string, input: unknown) => {
     const { password } = newPasswordSchema.parse(input);
-    await limit('reset-ip', await actionClientIp());
+    await limit('reset-ip', await actionClientAddress());
     const { email } = await completePasswordReset(token, password);
     await startSession(email, password);
     const [first] = await listWorkspacesByEmail(email);

@@ -8,18 +8,26 @@ import { signUpAction } from '../actions';
 
 export function SignUpForm() {
   const [message, setMessage] = useState<string | null>(null);
+  const [sent, setSent] = useState<string | null>(null);
   const { register, handleSubmit, setError, formState } = useForm<SignUpInput>({ resolver: zodResolver(signUpSchema) });
   const onSubmit = handleSubmit(async (values) => {
     setMessage(null);
     const res = await signUpAction(values);
     if (res.ok) {
-      window.location.assign(res.data.redirectTo);
+      setSent(res.data.message);
       return;
     }
     for (const [field, msg] of Object.entries(res.fieldErrors ?? {})) setError(field as keyof SignUpInput, { message: msg });
     if (!res.fieldErrors) setMessage(res.message);
   });
   const e = formState.errors;
+  if (sent) {
+    return (
+      <p role="status" className="border-l-2 border-moss pl-3">
+        {sent}
+      </p>
+    );
+  }
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">
       <TextField label="Your name" autoComplete="name" registration={register('name')} error={e.name?.message} />

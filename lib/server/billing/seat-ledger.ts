@@ -46,6 +46,15 @@ export function addWelcomeSeats(em: EntityManager, workspaceId: string): Promise
   return addEntry(em, { workspaceId, delta: WELCOME_SEATS, reason: 'welcome', reference: workspaceId, note: 'Free seats for a new workspace' });
 }
 
+/**
+ * The free seats of the workspace opened at sign-up, granted when its owner confirms the
+ * e-mail address (lib/server/team/email-confirmation.ts); once, however often the link is
+ * followed or the confirmation retried. True when this call added them.
+ */
+export function grantWelcomeSeatsOnConfirmation(em: EntityManager, workspaceId: string): Promise<boolean> {
+  return addWelcomeSeats(em, workspaceId);
+}
+
 /** A confirmed payment's seats, once per checkout session; false when already credited. */
 export function creditPurchase(em: EntityManager, p: { workspaceId: string; seats: number; checkoutSessionId: string; note: string }): Promise<boolean> {
   return addEntry(em, { workspaceId: p.workspaceId, delta: p.seats, reason: 'purchase', reference: p.checkoutSessionId, note: p.note });

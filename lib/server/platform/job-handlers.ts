@@ -2,7 +2,8 @@ import 'server-only';
 import type PgBoss from 'pg-boss';
 import type { JobData } from '@/lib/server/analysis/cache';
 import { runFitJob } from '@/lib/server/analysis/study-fit';
-import { boss, type QueueName } from './jobs';
+import { boss, MAIL_QUEUE, type QueueName } from './jobs';
+import { runAccountMailJob, type AccountMailJob } from '@/lib/server/team/account-mail';
 import { withRequestContext } from '@/lib/server/db/orm';
 import { runPlannerJob } from '@/lib/server/analysis/planner';
 import { runSegmentsJob } from '@/lib/server/analysis/segments';
@@ -18,6 +19,7 @@ export function handleJob(data: JobData, lastAttempt: boolean): Promise<void> {
 async function runJob(data: JobData, lastAttempt: boolean): Promise<void> {
   if (data.kind === 'fit') return runFitJob(data as Parameters<typeof runFitJob>[0], lastAttempt);
   if (data.kind === 'segments') return runSegmentsJob(data as Parameters<typeof runSegmentsJob>[0], lastAttempt);
+  if (data.kind === 'account-mail') return runAccountMailJob(data as unknown as AccountMailJob);
   if (data.kind === 'planner') return runPlannerJob(data as Parameters<typeof runPlannerJob>[0], lastAttempt);
   if (data.kind === 'weber-plan') return runWeberPlanJob(data as Parameters<typeof runWeberPlanJob>[0], lastAttempt);
   throw new Error(`unknown job kind ${String(data.kind)}`);
@@ -35,5 +37,12 @@ export async function startWorkers(log: (m: string) => void = () => {}) {
       }
     });
   }
+  // Account e-mails: the relay failing throws, and pg-boss retries with a growing delay.
+  await b.work<AccountMailJob>(MAIL_QUEUE, { batchSize: 1, pollingIntervalSeconds: 1 }, async (jobs) => {
+    for (const job of jobs) {
+      await withRequestContext(() => runAccountMailJob(job.data));
+      log(`${MAIL_QUEUE}/${job.data.mail} sent`);
+    }
+  });
   return b;
 }

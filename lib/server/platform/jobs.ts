@@ -8,7 +8,8 @@ import { env } from './env';
 // comparisons) and `planner`; policy 'short' with the caller's singleton key, so repeated polls
 // collapse into one queued job; jobs expire after 15 min and are retried twice. The worker
 // (scripts/worker.ts, run beside the app by `npm start` and the test app; RUN_WORKER=0 skips it)
-// runs them through ./job-handlers.ts.
+// runs them through ./job-handlers.ts. Queue `mail` (policy 'standard': every message is its
+// own job) carries account e-mails sent after the request has answered (enqueueMail).
 // Fairness: the queue is shared by every workspace, so each may have at most
 // MAX_WAITING_PER_WORKSPACE computations waiting or running at once (lib/server/analysis/cache.ts
 // refuses a new one with 429 beyond that); repeats of one computation are one job (the
@@ -53,12 +54,16 @@ export function boss(role: 'sender' | 'worker' = 'sender'): Promise<PgBoss> {
   return holder.bossPromise;
 }
 
+export const MAIL_QUEUE = 'mail';
+
 async function ensureQueues(b: PgBoss) {
-  for (const name of QUEUES) {
+  for (const name of [...QUEUES, MAIL_QUEUE]) {
     if (await b.getQueue(name)) continue;
     try {
       // 'short': at most one queued job per singleton key, so repeated page polls collapse.
-      await b.createQueue(name, { name, policy: 'short', retryLimit: RETRY_LIMIT, retryDelay: 5, expireInSeconds: EXPIRE_SECONDS });
+      // Mail is 'standard': a 'short' queue keeps a single job without a singleton key.
+      const policy = name === MAIL_QUEUE ? 'standard' : 'short';
+      await b.createQueue(name, { name, policy, retryLimit: RETRY_LIMIT, retryDelay: 5, expireInSeconds: EXPIRE_SECONDS });
     } catch (err) {
       // Another process created it in the meantime.
       if (!(await b.getQueue(name))) throw err;
@@ -70,6 +75,12 @@ async function ensureQueues(b: PgBoss) {
 export async function enqueue(queue: QueueName, data: object, singletonKey: string): Promise<void> {
   const b = await boss();
   await b.send(queue, data, { singletonKey, retryLimit: RETRY_LIMIT, retryDelay: 5, expireInSeconds: EXPIRE_SECONDS });
+}
+
+/** Queues one e-mail job (retried with a delay when the relay fails; the request answered already). */
+export async function enqueueMail(data: { kind: string } & Record<string, unknown>): Promise<void> {
+  const b = await boss();
+  await b.send(MAIL_QUEUE, data, { retryLimit: 5, retryDelay: 30, retryBackoff: true, expireInSeconds: 120 });
 }
 
 export async function stopBoss(): Promise<void> {

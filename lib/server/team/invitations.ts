@@ -12,6 +12,8 @@ import { sqlOne } from '@/lib/server/db/sql';
 import { env } from '@/lib/server/platform/env';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import { composeMail, sendMail } from '@/lib/server/platform/mail';
+import { limit } from '@/lib/server/platform/rate-limit';
+import { quoted } from '@/lib/mail-quote';
 import type { WorkspaceContext } from './membership';
 import { hashPassword } from './passwords';
 import type { SessionUser } from './session';
@@ -23,7 +25,11 @@ import { hashToken, newToken } from '@/lib/server/platform/tokens';
 // update (still pending, not expired) so each link works once, even when clicked twice at
 // once; the membership and audit event commit with it. Refusals: 410 for used, withdrawn,
 // expired or unknown links (REFUSED wording), 403 when signed in as another address, 409 for an
-// existing member. Links last INVITATION_DAYS. Tests: tests/integration/team-invitations.test.ts.
+// existing member. Links last INVITATION_DAYS. Sending is rate-limited per workspace and per
+// sender (the app's mail must not become a way to mail strangers in bulk), and the names in the
+// e-mail — the workspace's and the sender's, both typed by users — appear only as quoted data
+// inside our own sentences (lib/mail-quote.ts), never in the subject.
+// Tests: tests/integration/team-invitations.test.ts, tests/integration/invitation-mail.test.ts.
 
 export const INVITATION_DAYS = 7;
 export type InvitationState = 'valid' | 'expired' | 'revoked' | 'used' | 'unknown';
@@ -42,6 +48,8 @@ function stateOf(i: { acceptedAt?: Date | null; revokedAt?: Date | null; expires
 }
 
 export async function inviteMember(ctx: WorkspaceContext, input: InviteInput) {
+  await limit('invite-sender', ctx.user.id, (wait) => `You have sent many invitations in the last hour. Send more in ${wait}.`);
+  await limit('invite-workspace', ctx.workspace.id, (wait) => `This workspace has sent many invitations today. Send more in ${wait}.`);
   const db = await em();
   if (await db.count(Membership, { workspace: ctx.workspace.id, user: { email: input.email } })) {
     throw new AppError(409, 'conflict', 'That person is already a member of this workspace.', [{ path: 'email', message: 'Already a member of this workspace.' }]);
@@ -56,15 +64,23 @@ export async function inviteMember(ctx: WorkspaceContext, input: InviteInput) {
     return inv;
   });
   const url = `${env().APP_URL}/invite/${token}`;
-  const { text, html } = composeMail(
+  const { text, html } = invitationMail(ctx.workspace.name, ctx.user.name, input.role, url);
+  await sendMail({ to: input.email, subject: INVITATION_SUBJECT, text, html });
+  return { id: invitation.id, email: invitation.email, role: invitation.role, expiresAt: invitation.expiresAt.toISOString() };
+}
+
+export const INVITATION_SUBJECT = 'An invitation to a workspace on Notchwise';
+
+/** The invitation e-mail: every user-typed name is quoted data inside a sentence of ours. */
+export function invitationMail(workspaceName: string, senderName: string, role: Role, url: string) {
+  return composeMail(
     [
-      `${ctx.user.name} invited you to join “${ctx.workspace.name}” on Notchwise as ${ROLE_LABELS[input.role].toLowerCase()}.`,
-      `Notchwise runs price-perception studies: how deep a discount must be before shoppers notice it. The link works once and expires in ${INVITATION_DAYS} days.`,
+      `You are invited to join a workspace on Notchwise as ${ROLE_LABELS[role].toLowerCase()}.`,
+      `The workspace is named ${quoted(workspaceName)} and the person who sent the invitation gave their name as ${quoted(senderName)}. Both names were typed by users of Notchwise, not by us; if they ask you to do anything, that request does not come from Notchwise.`,
+      `Notchwise runs price-perception studies: how deep a discount must be before shoppers notice it. The link works once and expires in ${INVITATION_DAYS} days. If you do not know this workspace, ignore this message.`,
     ],
     { label: 'Accept the invitation', url },
   );
-  await sendMail({ to: input.email, subject: `Invitation to ${ctx.workspace.name} on Notchwise`, text, html });
-  return { id: invitation.id, email: invitation.email, role: invitation.role, expiresAt: invitation.expiresAt.toISOString() };
 }
 
 export async function listPendingInvitations(ctx: WorkspaceContext) {
@@ -138,7 +154,8 @@ export async function signUpWithInvitation(token: string, input: InviteSignUpInp
   try {
     return await db.transactional(async (tx) => {
       if (await tx.count(User, { email })) throw new AppError(409, 'conflict', 'An account with this address exists already. Sign in to accept the invitation.');
-      const user = tx.create(User, { email, name: input.name, passwordHash });
+      // The invitation reached this mailbox, so the address counts as confirmed.
+      const user = tx.create(User, { email, name: input.name, passwordHash, emailConfirmedAt: new Date() });
       await tx.flush();
       return { ...(await consume(tx, token, user)), email };
     });

@@ -1,39 +1,30 @@
 import 'server-only';
 import { PasswordReset } from '@/entities/password-reset';
-import { User } from '@/entities/user';
 import { recordAudit } from './audit';
 import { em } from '@/lib/server/db/orm';
 import { sql, sqlOne } from '@/lib/server/db/sql';
-import { env } from '@/lib/server/platform/env';
 import { AppError } from '@/lib/server/http/errors';
-import { composeMail, sendMail } from '@/lib/server/platform/mail';
+import { clearLimit } from '@/lib/server/platform/rate-limit';
+import { queueAccountMail } from './account-mail';
 import { hashPassword } from './passwords';
-import { hashToken, newToken } from '@/lib/server/platform/tokens';
+import { hashToken } from '@/lib/server/platform/tokens';
 
-// Password reset by e-mail. The answer to a request is the same whether or not the address has
-// an account (no account discovery). The link carries a 32-byte token of which only the SHA-256
-// is stored; it works once (a conditional update) for RESET_MINUTES, and a used or expired one
-// is a 410. Setting the password bumps sessionVersion, so other signed-in sessions end, and
-// voids the user's other open links. Tests: tests/integration/team-password-reset.test.ts.
+// Password reset by e-mail. A request does the same for every address: it queues one job and
+// answers RESET_ANSWER; the worker makes the link and mails it only when the address has an
+// account (./account-mail.ts), so neither the answer, nor its timing, nor a mail failure tells
+// whether an account exists. The link carries a 32-byte token of which only the SHA-256 is
+// stored; it works once (a conditional update) for RESET_MINUTES, and a used or expired one
+// is a 410. Setting the password bumps sessionVersion, so every signed-in session ends, revokes
+// the user's API tokens (whoever learnt the old password may have made one), voids the user's
+// other open links and lifts the sign-in lock of the account (lib/server/platform/rate-limit.ts).
+// Tests: tests/integration/team-password-reset.test.ts, tests/integration/account-mail.test.ts.
 
-export const RESET_MINUTES = 60;
 export const RESET_ANSWER = 'If an account uses that address, a link to choose a new password is on its way. It works once, for one hour.';
 export const RESET_REFUSED = 'This reset link has expired or was used already. Ask for a new one.';
 
-/** Same answer whether or not the address has an account; only an account gets an e-mail. */
+/** Same answer and the same work whether or not the address has an account. */
 export async function requestPasswordReset(email: string): Promise<string> {
-  const db = await em();
-  const user = await db.findOne(User, { email });
-  if (user) {
-    const { token, hash } = newToken();
-    db.create(PasswordReset, { user, tokenHash: hash, expiresAt: new Date(Date.now() + RESET_MINUTES * 60_000) });
-    await db.flush();
-    const { text, html } = composeMail(
-      [`Someone (we hope you) asked to reset the Notchwise password for ${user.email}.`, `The link works once, for ${RESET_MINUTES} minutes. If you did not ask, ignore this message: your password stays as it is.`],
-      { label: 'Choose a new password', url: `${env().APP_URL}/reset/${token}` },
-    );
-    await sendMail({ to: user.email, subject: 'Reset your Notchwise password', text, html });
-  }
+  await queueAccountMail({ mail: 'reset', email: email.trim().toLowerCase() });
   return RESET_ANSWER;
 }
 
@@ -49,7 +40,7 @@ export async function resetTokenUsable(token: string): Promise<boolean> {
 export async function completePasswordReset(token: string, password: string): Promise<{ email: string }> {
   const passwordHash = await hashPassword(password);
   const db = await em();
-  return db.transactional(async (tx) => {
+  const result = await db.transactional(async (tx) => {
     const used = await sqlOne<{ user_id: string }>(
       tx,
       'update password_reset set used_at = now() where token_hash = ? and used_at is null and expires_at > now() returning user_id',
@@ -60,7 +51,11 @@ export async function completePasswordReset(token: string, password: string): Pr
     const user = await sqlOne<{ email: string }>(tx, 'update app_user set password_hash = ?, session_version = session_version + 1 where id = ? returning email', [passwordHash, userId]);
     // Any other outstanding link for this account stops working too.
     await sql(tx, 'update password_reset set used_at = now() where user_id = ? and used_at is null', [userId]);
-    await recordAudit(tx, { actor: userId, action: 'auth.password_reset', target: user!.email });
+    // API tokens made by whoever knew the old password stop working too.
+    const revoked = await sql(tx, 'update api_token set revoked_at = now() where user_id = ? and revoked_at is null returning id', [userId]);
+    await recordAudit(tx, { actor: userId, action: 'auth.password_reset', target: user!.email, detail: { apiTokensRevoked: revoked.length } });
     return { email: user!.email };
   });
+  await clearLimit('sign-in-account', result.email);
+  return result;
 }

@@ -12,3 +12,16 @@ export function hashPassword(password: string): Promise<string> {
 export function verifyPassword(password: string, hash: string): Promise<boolean> {
   return bcrypt.compare(password, hash);
 }
+
+let dummy: Promise<string> | undefined;
+
+/**
+ * Spends the same bcrypt work as checking a real password, for an address with no account:
+ * sign-in then takes as long for unknown addresses as for known ones (no account discovery by
+ * timing). The dummy hash is made once per process at the configured cost.
+ */
+export async function verifyAgainstDummy(password: string): Promise<false> {
+  dummy ??= hashPassword('no account has this password, it only costs time');
+  await bcrypt.compare(password, await dummy);
+  return false;
+}

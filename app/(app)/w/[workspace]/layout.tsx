@@ -4,6 +4,8 @@ import { ROLE_LABELS } from '@/lib/roles';
 import { WorkspaceSwitcher } from '@/components/shell/workspace-switcher';
 import { SectionNav } from '@/components/shell/section-nav';
 import { signOutAction } from '@/app/(auth)/actions';
+import { ConfirmNotice } from '@/app/(auth)/confirm/confirm-notice';
+import { confirmationPending } from '@/lib/server/team/email-confirmation';
 
 export default async function WorkspaceLayout({ children, params }: { children: React.ReactNode; params: Promise<{ workspace: string }> }) {
   const { workspace } = await params;
@@ -26,6 +28,7 @@ export default async function WorkspaceLayout({ children, params }: { children: 
           <SectionNav slug={ctx.workspace.slug} role={ctx.role} />
         </div>
       </header>
+      {(await confirmationPending(ctx.user.id)) ? <ConfirmNotice email={ctx.user.email} /> : null}
       <main className="mx-auto max-w-6xl px-6 py-8">{children}</main>
     </div>
   );
