@@ -12,6 +12,11 @@
 // z_s by adaptive Gauss–Hermite quadrature (Liu & Pierce 1994): the integrand is centred at
 // its mode ẑ_s and scaled by its curvature τ_s = (−g''(ẑ_s))^(−1/2), so that
 //   L_s ≈ √2·τ_s·Σ_q w_q·exp(t_q² + g_s(ẑ_s + √2 τ_s t_q)),   g_s = ln(binomial terms · φ).
+// The number of nodes grows with β·σ·τ (sharper cell transitions across the integrand need
+// more), and a shopper whose integrand puts a visible share on the rule's outermost nodes
+// (a second mode: answers that contradict each other on a steep curve) is integrated on a
+// fine uniform grid instead; together they keep the likelihood within 1e-6 of an independent
+// integration (tests/fixtures/psychometrics/mixed-loglik.json, made by scipy).
 // At σ = 0 the integral is the fixed model's likelihood exactly, so σ = 0 is the pooled fit.
 // Each shopper is a count vector over the prepared cells (shoppers.ts); shoppers with the
 // same counts are integrated once and weighted, and the modes are warm-started between
@@ -35,8 +40,20 @@ import { choleskySolve, invertSpd } from './linalg';
 import { logChoose } from './math';
 import type { ShopperCounts } from './shoppers';
 
-/** Nodes per shopper; 9 adaptive nodes match a 60-digit integration to ~1e-9 relative (mixed.test.ts). */
-export const MIXED_NODES = 9;
+/**
+ * Nodes per shopper, chosen per shopper from ρ = β·σ·τ: the integrand's width τ measured in
+ * units of one cell's transition 1/(βσ). An informative shopper (many trials, ρ ≲ 1) has a
+ * near-normal integrand and 9 adaptive nodes reach ~1e-9; a shopper with few trials on a
+ * steep curve has plateaus with sharp edges in z and needs more. The levels were set so
+ * that each case of tests/fixtures/psychometrics/mixed-loglik.json is within 1e-6 (mixed.test.ts).
+ */
+export const NODE_LEVELS = [9, 15, 21, 31, 41] as const;
+const RHO_LIMITS = [1, 1.6, 2.2, 3];
+export const MIXED_NODES = NODE_LEVELS[0];
+/** Most points of the fallback grid for a row whose integrand is far from normal. */
+const MAX_GRID = 801;
+/** Share of a row's integral on an outermost node above which the row goes to the grid. */
+const OUTER_SHARE = 5e-4;
 /** Upper bound for σ (SD of ln thresholds): e^4 ≈ 55-fold between neighbouring SDs is no longer a spread. */
 export const SIGMA_MAX = 4;
 /** χ²₁ 95 % point: the profile-likelihood cut-off for σ's interval. */
@@ -99,7 +116,8 @@ export interface MixedProblem {
   iSigma: number;
   lower: Float64Array;
   upper: Float64Array;
-  rule: GaussHermiteRule;
+  /** Rules for NODE_LEVELS (or the one fixed rule given to mixedProblem). */
+  rules: GaussHermiteRule[];
   /** Per row: the last mode of the integrand (warm start) and scale τ. */
   mode: Float64Array;
   scale: Float64Array;
@@ -108,12 +126,16 @@ export interface MixedProblem {
   alpha: Float64Array;
   nodeGrad: Float64Array;
   nodeLog: Float64Array;
+  nodeZ: Float64Array;
+  nodeW: Float64Array;
+  /** Rows integrated on the fallback grid (over all evaluations so far). */
+  fallbacks: number;
   score: Float64Array;
   evaluations: number;
 }
 
 /** A mixed problem over a fixed-effect design (jointDesign / baseDesign) and shoppers' rows. */
-export function mixedProblem(d: Design, data: MixedData, nodes = MIXED_NODES): MixedProblem {
+export function mixedProblem(d: Design, data: MixedData, nodes?: number): MixedProblem {
   const p = d.pTheta;
   const iLapse = d.lapseFixed === null ? p + 1 : -1;
   const nPar = p + 2 + (iLapse >= 0 ? 1 : 0);
@@ -122,13 +144,14 @@ export function mixedProblem(d: Design, data: MixedData, nodes = MIXED_NODES): M
   lower[p] = LOG_SLOPE_MIN; upper[p] = LOG_SLOPE_MAX;
   if (iLapse >= 0) { lower[iLapse] = 0; upper[iLapse] = LAPSE_MAX; }
   lower[nPar - 1] = 0; upper[nPar - 1] = SIGMA_MAX;
-  const rule = gaussHermite(nodes);
+  const rules = nodes === undefined ? NODE_LEVELS.map((q) => gaussHermite(q)) : [gaussHermite(nodes)];
   return {
-    d, data, nPar, iBeta: p, iLapse, iSigma: nPar - 1, lower, upper, rule,
+    d, data, nPar, iBeta: p, iLapse, iSigma: nPar - 1, lower, upper, rules,
     mode: new Float64Array(data.rows), scale: new Float64Array(data.rows).fill(1),
     grad: new Float64Array(nPar), info: new Float64Array(nPar * nPar), alpha: new Float64Array(d.nCells),
-    nodeGrad: new Float64Array(nodes * nPar), nodeLog: new Float64Array(nodes), score: new Float64Array(nPar),
-    evaluations: 0,
+    nodeGrad: new Float64Array(MAX_GRID * nPar), nodeLog: new Float64Array(MAX_GRID), score: new Float64Array(nPar),
+    nodeZ: new Float64Array(MAX_GRID), nodeW: new Float64Array(MAX_GRID),
+    evaluations: 0, fallbacks: 0,
   };
 }
 
@@ -150,7 +173,7 @@ function project(pr: MixedProblem, v: Float64Array): void {
  * fills pr.grad and pr.info (Σ over shoppers of weight · score · scoreᵀ, the BHHH matrix).
  */
 export function mixedLogLik(pr: MixedProblem, psi: ArrayLike<number>, withScores: boolean): number {
-  const { d, data, nPar, iBeta, iLapse, iSigma, rule, alpha, grad, info, nodeGrad, nodeLog, score } = pr;
+  const { d, data, nPar, iBeta, iLapse, iSigma, rules, alpha, grad, info, nodeZ, nodeW, score } = pr;
   const p = d.pTheta;
   pr.evaluations++;
   for (let i = 0; i < d.nCells; i++) {
@@ -161,7 +184,6 @@ export function mixedLogLik(pr: MixedProblem, psi: ArrayLike<number>, withScores
   const beta = Math.exp(psi[iBeta]);
   const lapse = iLapse >= 0 ? psi[iLapse] : d.lapseFixed!;
   const sigma = psi[iSigma];
-  const Q = rule.nodes.length;
   if (withScores) { grad.fill(0); info.fill(0); }
   let total = 0;
   for (let r = 0; r < data.rows; r++) {
@@ -178,25 +200,35 @@ export function mixedLogLik(pr: MixedProblem, psi: ArrayLike<number>, withScores
       const tau = 1 / Math.sqrt(-g2);
       pr.scale[r] = tau;
       const spread = Math.SQRT2 * tau;
-      let mx = -Infinity;
+      const rho = beta * sigma * tau;
+      let level = 0;
+      while (level < rules.length - 1 && rho > RHO_LIMITS[level]) level++;
+      const rule = rules[level], Q = rule.nodes.length;
+      const logSpread = Math.log(spread);
       for (let q = 0; q < Q; q++) {
         const tq = rule.nodes[q];
-        const zq = z + spread * tq;
-        let g = -0.5 * zq * zq - LN_SQRT_2PI;
-        const ng = withScores ? nodeGrad.subarray(q * nPar, (q + 1) * nPar) : null;
-        if (ng) ng.fill(0);
-        for (let c = c0; c < c1; c++) g += cellTerm(pr, c, zq, beta, lapse, sigma, ng, 1);
-        nodeLog[q] = rule.logWeights[q] + tq * tq + g;
-        if (nodeLog[q] > mx) mx = nodeLog[q];
+        nodeZ[q] = z + spread * tq;
+        nodeW[q] = rule.logWeights[q] + tq * tq + logSpread;
       }
-      let sum = 0;
-      for (let q = 0; q < Q; q++) { nodeLog[q] = Math.exp(nodeLog[q] - mx); sum += nodeLog[q]; }
-      ls = Math.log(spread) + mx + Math.log(sum);
-      if (withScores) {
-        for (let q = 0; q < Q; q++) {
-          const wq = nodeLog[q] / sum;
-          for (let a = 0; a < nPar; a++) score[a] += wq * nodeGrad[q * nPar + a];
-        }
+      ls = rowIntegral(pr, r, Q, beta, lapse, sigma, withScores);
+      // A normal-shaped integrand puts almost nothing on the rule's outermost nodes (the
+      // Gaussian share there is w/√π, below 3e-5 for 9 nodes). Much more there means the
+      // integrand reaches past the rule (a second mode: answers that contradict each other on
+      // a steep curve, or a long plateau), so the row is integrated on a fine uniform grid
+      // instead (the trapezoid rule, exponentially accurate for smooth integrands on the line).
+      const outer = Math.max(pr.nodeLog[0], pr.nodeLog[Q - 1]);
+      if (outer > OUTER_SHARE) {
+        // The integrand's singularities (poles of the logistic) lie π/(βσ) off the real line,
+        // so the trapezoid error is about exp(−2π²/(βσh)) < 1e-15 with h ≤ 0.5/(βσ); other
+        // modes further than a few units from ẑ are crushed by the normal density.
+        const lo = Math.max(-9, z - 8 * tau - 4), hi = Math.min(9, z + 8 * tau + 4);
+        let h = Math.min(0.25, 0.5 / (beta * sigma));
+        let count = Math.ceil((hi - lo) / h) + 1;
+        if (count > MAX_GRID) { count = MAX_GRID; h = (hi - lo) / (count - 1); }
+        const lh = Math.log(h);
+        for (let q = 0; q < count; q++) { nodeZ[q] = lo + q * h; nodeW[q] = lh; }
+        ls = rowIntegral(pr, r, count, beta, lapse, sigma, withScores);
+        pr.fallbacks++;
       }
     }
     const w = data.weight[r];
@@ -211,6 +243,39 @@ export function mixedLogLik(pr: MixedProblem, psi: ArrayLike<number>, withScores
   }
   if (withScores) for (let a = 0; a < nPar; a++) for (let b = 0; b < a; b++) info[b * nPar + a] = info[a * nPar + b];
   return total;
+}
+
+/**
+ * ∫ exp(g(z)) dz for row r on the points pr.nodeZ[0..count) with log weights pr.nodeW (which
+ * include any e^(t²) factor of the rule): returns the log of the sum and, with scores, puts
+ * the row's score (node scores averaged with the integrand's weights) into pr.score.
+ * pr.nodeLog[q] is left holding node q's share of the integral.
+ */
+function rowIntegral(pr: MixedProblem, r: number, count: number, beta: number, lapse: number, sigma: number, withScores: boolean): number {
+  const { data, nPar, nodeGrad, nodeLog, nodeZ, nodeW, score } = pr;
+  const c0 = data.start[r], c1 = data.start[r + 1];
+  let mx = -Infinity;
+  for (let q = 0; q < count; q++) {
+    const zq = nodeZ[q];
+    let g = -0.5 * zq * zq - LN_SQRT_2PI;
+    const ng = withScores ? nodeGrad.subarray(q * nPar, (q + 1) * nPar) : null;
+    if (ng) ng.fill(0);
+    for (let c = c0; c < c1; c++) g += cellTerm(pr, c, zq, beta, lapse, sigma, ng, 1);
+    nodeLog[q] = nodeW[q] + g;
+    if (nodeLog[q] > mx) mx = nodeLog[q];
+  }
+  let sum = 0;
+  for (let q = 0; q < count; q++) { nodeLog[q] = Math.exp(nodeLog[q] - mx); sum += nodeLog[q]; }
+  for (let q = 0; q < count; q++) nodeLog[q] /= sum;
+  if (withScores) {
+    score.fill(0);
+    for (let q = 0; q < count; q++) {
+      const wq = nodeLog[q];
+      if (wq === 0) continue;
+      for (let a = 0; a < nPar; a++) score[a] += wq * nodeGrad[q * nPar + a];
+    }
+  }
+  return mx + Math.log(sum);
 }
 
 const modeState = new Float64Array(4);
