@@ -81,6 +81,7 @@ export function analyse(input: AnalyseInput): AnalysisReport {
   const shopperSpread = input.shopperCells
     ? reportShopperSpread(prep, shopperCounts(prep, input.shopperCells), preferredModel, { target: input.target, joint })
     : undefined;
+  if (shopperSpread && !shopperSpread.converged) ctx.warnings.push('shopper spread: the mixed model (or the search for its σ interval) did not converge');
   // --- end shopper spread ---
   return {
     task: prep.task,
