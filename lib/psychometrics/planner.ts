@@ -23,10 +23,10 @@ import { fitDesign, lapseOf } from './fit-core';
 import { quantileSorted } from './math';
 import { baseDesign, fitJointModels, packStart, startForBase } from './models';
 import { prepare } from './prepare';
-import { createRng } from './random';
+import { createRng, type Rng } from './random';
 import { type Observer, simulateCells } from './simulate';
-import { poolShopperCells } from './shoppers';
-import { simulateShoppers } from './simulate-shoppers';
+import type { ShopperDesign } from './simulate-shoppers';
+import type { CatchCell, Cell } from './types';
 import { targetF, thresholdFraction } from './target';
 import type { Task } from './types';
 
@@ -106,7 +106,7 @@ export function planDesign(input: PlanInput): PlanResult {
   for (let s = 0; s < input.simulations; s++) {
     // σ = 0 without catch trials: shoppers are exchangeable trials, pooled cells suffice
     const { cells, catchCells } = sigma > 0 || catchPerBase > 0
-      ? poolShopperCells(simulateShoppers(o, sigma, shopperDesign, rng))
+      ? simulatePooledShoppers(o, sigma, shopperDesign, rng)
       : simulateCells(o, input.basePrices, input.rungs, nCell, rng);
     // γ estimated from the simulated catch trials on the spot task, else the task's (or given) rate
     const prep = prepare(cells, catchCells, input.task, catchPerBase > 0 ? undefined : guess);
@@ -134,6 +134,34 @@ export function planDesign(input: PlanInput): PlanResult {
     simulations: input.simulations,
     sigma,
   };
+}
+
+/**
+ * Shoppers who differ (as simulate-shoppers.ts draws them), summed straight into the pooled
+ * cells the per-base fits use: the planner needs no per-shopper rows, and skipping them keeps
+ * a candidate sample size to a few binomial draws per shopper and cell.
+ */
+function simulatePooledShoppers(o: Observer, sigma: number, design: ShopperDesign, rng: Rng): { cells: Cell[]; catchCells: CatchCell[] } {
+  const J = design.basePrices.length, R = design.rungs.length;
+  const k = new Float64Array(J * R), ck = new Float64Array(J);
+  const alphas = design.basePrices.map((b) => o.alpha(b));
+  const lx = design.rungs.map(Math.log);
+  const catchN = design.catchPerBase ?? 0;
+  for (let s = 0; s < design.shoppers; s++) {
+    const u = sigma > 0 ? sigma * rng.normal() : 0;
+    for (let j = 0; j < J; j++) {
+      for (let r = 0; r < R; r++) {
+        const f = 1 / (1 + Math.exp(-o.beta * (lx[r] - alphas[j] - u)));
+        k[j * R + r] += rng.binomial(design.repetitions, o.guess + (1 - o.guess - o.lapse) * f);
+      }
+      if (catchN > 0) ck[j] += rng.binomial(catchN, o.guess);
+    }
+  }
+  const n = design.repetitions * design.shoppers;
+  const cells: Cell[] = [];
+  design.basePrices.forEach((basePrice, j) => design.rungs.forEach((discount, r) => cells.push({ basePrice, discount, n, k: k[j * R + r] })));
+  const catchCells = catchN > 0 ? design.basePrices.map((basePrice, j) => ({ basePrice, n: catchN * design.shoppers, k: ck[j] })) : [];
+  return { cells, catchCells };
 }
 
 /**
