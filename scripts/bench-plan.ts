@@ -1,7 +1,10 @@
 // `npm run bench:plan`: a 50,000-row price list through the promo floor computation and the
 // plan CSV export, as the plan page and the export route run them (no database: the list is
 // generated in memory). Prints each run; the last line is `bench:plan rows=50000 ms=<median>`.
+// Before it, one line times the sample-size planner (lib/psychometrics/planner.ts) on a
+// spot-task design with shoppers who differ and catch trials, as its job runs it per candidate size.
 import { analyse } from '@/lib/psychometrics/analyse';
+import { planDesign } from '@/lib/psychometrics/planner';
 import { floorParams } from '@/lib/psychometrics/promo-floor';
 import { createRng } from '@/lib/psychometrics/random';
 import { geometricLadder, simulateCells } from '@/lib/psychometrics/simulate';
@@ -37,6 +40,12 @@ function main() {
     times.push(ms);
     process.stdout.write(`run ${run + 1}: ${ms.toFixed(1)} ms (${summary.outsideRange} outside tested range, ${summary.deeperThanMargin} deeper than margin, CSV ${(bytes / 1e6).toFixed(1)} MB)\n`);
   }
+  const tPlan = performance.now();
+  const plan = planDesign({
+    basePrices: bases, rungs: geometricLadder(0.01, 0.25, 8), repetitions: 2, respondents: 200, task: 'spot',
+    weberFraction: 0.07, beta: 2.6, lapse: 0.02, guess: 0.1, sigma: 0.4, catchPerBase: 4, simulations: 200, seed: 'bench-planner',
+  });
+  process.stdout.write(`planner: 200 simulated studies of 200 shoppers (5 bases × 8 rungs × 2, spot, σ ${plan.sigma}) in ${Math.round(performance.now() - tPlan)} ms\n`);
   const sorted = [...times].sort((a, b) => a - b);
   const median = sorted[Math.floor(sorted.length / 2)];
   process.stdout.write(`target: under 1000 ms median for ${ROWS} rows (floors + summary + CSV)\n`);

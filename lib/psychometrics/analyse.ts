@@ -11,7 +11,9 @@ import { fitJointModels } from './models';
 import { prepare, resampleGuess } from './prepare';
 import { createRng } from './random';
 import type { AnalysisReport } from './report-types';
-import type { Cell, CatchCell, IntervalMethod, Task } from './types';
+import { shopperCounts } from './shoppers';
+import { reportShopperSpread } from './shopper-spread';
+import type { Cell, CatchCell, IntervalMethod, ShopperCell, Task } from './types';
 
 export { PsychometricsInputError } from './errors';
 export type { AnalysisReport } from './report-types';
@@ -30,6 +32,8 @@ export interface AnalyseInput {
   seed?: number | string;
   intervalMethod?: IntervalMethod;
   monteCarloP?: boolean;
+  /** Each shopper's cells (same trials as `cells`/`catchCells`); the shopper is then the unit. */
+  shopperCells?: ShopperCell[];
 }
 
 /**
@@ -73,6 +77,12 @@ export function analyse(input: AnalyseInput): AnalysisReport {
     bases.map((b) => b.nTrials),
   );
   const { models, tests, preferredModel } = reportJoint(ctx, joint);
+  // --- shopper spread (mixed model, shopper-spread.ts) ---
+  const shopperSpread = input.shopperCells
+    ? reportShopperSpread(prep, shopperCounts(prep, input.shopperCells), preferredModel, { target: input.target, joint })
+    : undefined;
+  if (shopperSpread && !shopperSpread.converged) ctx.warnings.push('shopper spread: the mixed model (or the search for its σ interval) did not converge');
+  // --- end shopper spread ---
   return {
     task: prep.task,
     target: input.target ?? 0.5,
@@ -85,6 +95,7 @@ export function analyse(input: AnalyseInput): AnalysisReport {
     bootstrapSamples: samples,
     seed,
     warnings: ctx.warnings,
+    ...(shopperSpread !== undefined ? { shopperSpread } : {}),
   };
 }
 

@@ -128,10 +128,20 @@ export interface ShopperSpreadReport {
   sigmaMethod: string;
   logLik: number;
   converged: boolean;
+  /** The typical shopper's slope β and the lapse rate of the mixed fit. */
+  slope?: number;
+  lapse?: number;
+  /** Likelihood-ratio test of σ = 0 (the pooled fit) with the boundary null ½χ²₀ + ½χ²₁. */
+  sigmaTest?: { chi2: number; p: number };
+  /** σ for each model fitted: the preferred one first, then the free model (σ and fit only, no interval). */
+  fits?: { model: ModelName; sigma: number; sigmaCi: Interval | null; logLik: number; converged: boolean }[];
   bases: {
     basePrice: number;
     /** Threshold of the typical shopper (fraction), null when only a bound is known. */
     typicalFraction: number | null;
+    typicalCi?: Interval | null;
+    /** The discount a quarter of shoppers notice (the lower end of the middle half). */
+    quarter?: ShareOfShoppers;
     /** Discounts between which half of shoppers' own thresholds lie (25th–75th percentile). */
     middleHalf: Interval | null;
     shares: ShareOfShoppers[];

@@ -1,5 +1,6 @@
 import 'server-only';
-import { assumedObserver, respondentsForWidth } from '@/lib/psychometrics/planner';
+import { assumedObserver, DEFAULT_SIGMA, respondentsForWidth } from '@/lib/psychometrics/planner';
+import { trialsPerRespondent } from '@/lib/schemas/study.schema';
 import { hashKey, requestComputation, runCached, type JobData } from './cache';
 import { fitCacheKey, getFitState, FIT_SEED } from './study-fit';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
@@ -14,7 +15,8 @@ export const PLANNER_MAX_RESPONDENTS = 5000;
 export interface PlannerResult extends Record<string, unknown> {
   widthPoints: number;
   currentCompletes: number;
-  assumed: { beta: number; lapse: number; guess: number };
+  /** σ: the spread of shoppers' ln thresholds (the study's mixed-model fit, or the planning default). */
+  assumed: { beta: number; lapse: number; guess: number; sigma?: number; sigmaSource?: 'study' | 'default'; catchPerBase?: number };
   bases: { basePrice: number; thresholdPercent: number; currentWidthPoints: number | null; respondents: number | null; more: number | null }[];
 }
 
@@ -28,7 +30,12 @@ export async function getPlan(ctx: WorkspaceContext, studyId: string, widthPoint
   if (fit.fit.status !== 'ready') return fit.fit.status === 'pending' ? { status: 'pending', message: 'Waiting for the fit first…' } : fit.fit;
   const s = fit.study;
   const report = fit.fit.report;
-  const assumed = assumedObserver(report.bases);
+  const spread = report.shopperSpread?.sigma;
+  const assumed = {
+    ...assumedObserver(report.bases),
+    sigma: spread ?? DEFAULT_SIGMA, sigmaSource: spread === undefined ? 'default' as const : 'study' as const,
+    catchPerBase: trialsPerRespondent(s.design).catch / s.design.basePrices.length,
+  };
   const payload = {
     widthPoints, assumed, task: s.design.task, rungs: s.design.ladder, repetitions: s.design.repetitions,
     currentCompletes: fit.counts?.respondents.after ?? 0,
@@ -52,6 +59,7 @@ export async function runPlannerJob(data: PlannerJob, lastAttempt = true) {
       basePrices: data.bases.map((b) => b.basePrice), rungs: data.rungs, repetitions: data.repetitions, task: data.task,
       alpha: data.bases.map((b) => b.alpha), beta: data.assumed.beta, lapse: data.assumed.lapse,
       guess: data.task === 'pick' ? 0.5 : data.assumed.guess, simulations: PLANNER_SIMULATIONS, seed: FIT_SEED,
+      sigma: data.assumed.sigma, catchPerBase: data.assumed.catchPerBase,
       targetWidth: data.widthPoints / 100, maxRespondents: PLANNER_MAX_RESPONDENTS,
     });
     const result: PlannerResult = {

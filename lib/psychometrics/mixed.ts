@@ -1,0 +1,563 @@
+// The mixed psychometric model: how much shoppers differ (a generalised linear mixed model for
+// psychometric functions, Moscatelli, Mezzetti & Lacquaniti 2012). Each shopper s has an own
+// ln threshold α_s = α(model, base) + σ·z_s with z_s ~ Normal(0, 1), so σ is the SD of
+// shoppers' ln thresholds; given z_s the shopper answers like the fixed model in fit-core.ts:
+//   P_si = γ_i + (1 − γ_i − λ)·F(β(x_i − α_i − σ z_s)),  F logistic, α_i = z_i·θ + offset_i,
+// with the same Design (free, weber, constant amount, power) and the same guess rates γ (the
+// task's, or the catch trials' false-alarm rates, held at their estimates: catch trials do
+// not depend on the shopper's threshold, so they add a constant to the likelihood) and the
+// same lapse bound [0, 0.06]. Parameters ψ = [θ, ln β, λ (unless fixed), σ].
+//
+// Estimation is by maximum marginal likelihood: each shopper's likelihood is integrated over
+// z_s by adaptive Gauss–Hermite quadrature (Liu & Pierce 1994): the integrand is centred at
+// its mode ẑ_s and scaled by its curvature τ_s = (−g''(ẑ_s))^(−1/2), so that
+//   L_s ≈ √2·τ_s·Σ_q w_q·exp(t_q² + g_s(ẑ_s + √2 τ_s t_q)),   g_s = ln(binomial terms · φ).
+// The number of nodes grows with β·σ·τ (sharper cell transitions across the integrand need
+// more), and a shopper whose integrand puts a visible share on the rule's outermost nodes
+// (a second mode: answers that contradict each other on a steep curve) is integrated on a
+// fine uniform grid instead; together they keep the likelihood within 1e-6 of an independent
+// integration (tests/fixtures/psychometrics/mixed-loglik.json, made by scipy).
+// At σ = 0 the integral is the fixed model's likelihood exactly, so σ = 0 is the pooled fit.
+// Each shopper is a count vector over the prepared cells (shoppers.ts); shoppers with the
+// same counts are integrated once and weighted, and the modes are warm-started between
+// evaluations, so a likelihood costs about (shoppers × cells seen × nodes) logistic terms.
+//
+// The optimiser is projected BHHH (Berndt–Hall–Hall–Hausman: the sum of outer products of the
+// shoppers' scores stands in for the information, which is natural here because the shopper
+// is the independent unit) with backtracking; a line search that cannot improve is reported
+// as not converged unless the Newton decrement is already negligible. Gradients hold the
+// quadrature nodes fixed (the error of that is of the quadrature's own order). σ's interval
+// is the profile likelihood interval {σ : 2(ℓ̂ − ℓ_p(σ)) ≤ χ²₁(0.95)}, found on the signed
+// root of the deviance by regula falsi; it is fast (a handful of warm-started refits) and,
+// unlike a Wald interval, behaves at σ = 0 (the lower end is 0 whenever the pooled fit lies
+// within the cut-off). The test of σ = 0 is the likelihood ratio against the pooled fit with
+// the boundary null distribution ½χ²₀ + ½χ²₁ (Self & Liang 1987, value from memory).
+// Tests: tests/unit/psychometrics/mixed.test.ts (reference integrals), shopper-spread.test.ts.
+import { chiSquareP } from './chi2';
+import { type Design, LAPSE_MAX, LOG_SLOPE_MAX, LOG_SLOPE_MIN } from './fit-core';
+import { gaussHermite, type GaussHermiteRule } from './gauss-hermite';
+import { choleskySolve, invertSpd } from './linalg';
+import { logChoose } from './math';
+import type { ShopperCounts } from './shoppers';
+
+/**
+ * Nodes per shopper, chosen per shopper from ρ = β·σ·τ: the integrand's width τ measured in
+ * units of one cell's transition 1/(βσ). An informative shopper (many trials, ρ ≲ 1) has a
+ * near-normal integrand and 9 adaptive nodes reach ~1e-9; a shopper with few trials on a
+ * steep curve has plateaus with sharp edges in z and needs more. The levels were set so
+ * that each case of tests/fixtures/psychometrics/mixed-loglik.json is within 1e-6 (mixed.test.ts).
+ */
+export const NODE_LEVELS = [9, 15, 21, 31, 41] as const;
+const RHO_LIMITS = [1, 1.6, 2.2, 3];
+export const MIXED_NODES = NODE_LEVELS[0];
+/** Most points of the fallback grid for a row whose integrand is far from normal. */
+const MAX_GRID = 801;
+/** Share of a row's integral on an outermost node above which the row goes to the grid. */
+const OUTER_SHARE = 5e-4;
+/** Upper bound for σ (SD of ln thresholds): e^4 ≈ 55-fold between neighbouring SDs is no longer a spread. */
+export const SIGMA_MAX = 4;
+/** χ²₁ 95 % point: the profile-likelihood cut-off for σ's interval. */
+export const CHI2_1_95 = 3.841458820694124;
+const P_EPS = 1e-12;
+const LN_SQRT_2PI = 0.5 * Math.log(2 * Math.PI);
+
+/** Shoppers in compressed rows: shopper r's cells are cell[start[r] .. start[r+1]). */
+export interface MixedData {
+  rows: number;
+  start: Int32Array;
+  cell: Int32Array;
+  n: Float64Array;
+  k: Float64Array;
+  /** How many shoppers share row r's counts (times their bootstrap or simulation weight). */
+  weight: Float64Array;
+  /** Σ weight·ln C(n, k): added to the reported log-likelihood so it is comparable with a glm's. */
+  logConst: number;
+  /** Total weight of shoppers with at least one test trial. */
+  shoppers: number;
+}
+
+/** Shopper count vectors → compressed rows, identical shoppers merged (weights optional). */
+export function mixedData(counts: ShopperCounts, weights?: ArrayLike<number>): MixedData {
+  const m = counts.nCells;
+  const S = counts.ids.length;
+  const byKey = new Map<string, number>();
+  const start: number[] = [0], cell: number[] = [], n: number[] = [], k: number[] = [], weight: number[] = [];
+  let logConst = 0, shoppers = 0;
+  for (let s = 0; s < S; s++) {
+    const w = weights ? weights[s] : 1;
+    if (!(w > 0)) continue;
+    const idx: number[] = [];
+    for (let i = 0; i < m; i++) if (counts.n[s * m + i] > 0) idx.push(i);
+    if (idx.length === 0) continue;
+    shoppers += w;
+    let lc = 0;
+    const key = idx.map((i) => { lc += logChoose(counts.n[s * m + i], counts.k[s * m + i]); return `${i}:${counts.n[s * m + i]}:${counts.k[s * m + i]}`; }).join(',');
+    logConst += w * lc;
+    const r = byKey.get(key);
+    if (r !== undefined) { weight[r] += w; continue; }
+    byKey.set(key, weight.length);
+    for (const i of idx) { cell.push(i); n.push(counts.n[s * m + i]); k.push(counts.k[s * m + i]); }
+    start.push(cell.length);
+    weight.push(w);
+  }
+  return {
+    rows: weight.length, start: Int32Array.from(start), cell: Int32Array.from(cell),
+    n: Float64Array.from(n), k: Float64Array.from(k), weight: Float64Array.from(weight), logConst, shoppers,
+  };
+}
+
+export interface MixedProblem {
+  d: Design;
+  data: MixedData;
+  nPar: number;
+  iBeta: number;
+  /** Index of λ, or −1 when the lapse rate is fixed. */
+  iLapse: number;
+  iSigma: number;
+  lower: Float64Array;
+  upper: Float64Array;
+  /** Rules for NODE_LEVELS (or the one fixed rule given to mixedProblem). */
+  rules: GaussHermiteRule[];
+  /** Per row: the last mode of the integrand (warm start) and scale τ. */
+  mode: Float64Array;
+  scale: Float64Array;
+  grad: Float64Array;
+  info: Float64Array;
+  alpha: Float64Array;
+  nodeGrad: Float64Array;
+  nodeLog: Float64Array;
+  nodeZ: Float64Array;
+  nodeW: Float64Array;
+  /** Rows integrated on the fallback grid (over all evaluations so far). */
+  fallbacks: number;
+  score: Float64Array;
+  evaluations: number;
+}
+
+/** A mixed problem over a fixed-effect design (jointDesign / baseDesign) and shoppers' rows. */
+export function mixedProblem(d: Design, data: MixedData, nodes?: number): MixedProblem {
+  const p = d.pTheta;
+  const iLapse = d.lapseFixed === null ? p + 1 : -1;
+  const nPar = p + 2 + (iLapse >= 0 ? 1 : 0);
+  const lower = new Float64Array(nPar), upper = new Float64Array(nPar);
+  for (let j = 0; j < p; j++) { lower[j] = d.lower[j]; upper[j] = d.upper[j]; }
+  lower[p] = LOG_SLOPE_MIN; upper[p] = LOG_SLOPE_MAX;
+  if (iLapse >= 0) { lower[iLapse] = 0; upper[iLapse] = LAPSE_MAX; }
+  lower[nPar - 1] = 0; upper[nPar - 1] = SIGMA_MAX;
+  const rules = nodes === undefined ? NODE_LEVELS.map((q) => gaussHermite(q)) : [gaussHermite(nodes)];
+  return {
+    d, data, nPar, iBeta: p, iLapse, iSigma: nPar - 1, lower, upper, rules,
+    mode: new Float64Array(data.rows), scale: new Float64Array(data.rows).fill(1),
+    grad: new Float64Array(nPar), info: new Float64Array(nPar * nPar), alpha: new Float64Array(d.nCells),
+    nodeGrad: new Float64Array(MAX_GRID * nPar), nodeLog: new Float64Array(MAX_GRID), score: new Float64Array(nPar),
+    nodeZ: new Float64Array(MAX_GRID), nodeW: new Float64Array(MAX_GRID),
+    evaluations: 0, fallbacks: 0,
+  };
+}
+
+/** ψ = [θ, ln β, λ?, σ] from a fixed-effect fit's parameters ([θ, ln β, λ?]) and a σ. */
+export function mixedStart(pr: MixedProblem, fixedParams: ArrayLike<number>, sigma: number): Float64Array {
+  const psi = new Float64Array(pr.nPar);
+  for (let j = 0; j < pr.iSigma; j++) psi[j] = fixedParams[j];
+  psi[pr.iSigma] = sigma;
+  project(pr, psi);
+  return psi;
+}
+
+function project(pr: MixedProblem, v: Float64Array): void {
+  for (let j = 0; j < pr.nPar; j++) v[j] = v[j] < pr.lower[j] ? pr.lower[j] : v[j] > pr.upper[j] ? pr.upper[j] : v[j];
+}
+
+/**
+ * Marginal log-likelihood at ψ (without the ln C(n, k) constant). With `withScores` it also
+ * fills pr.grad and pr.info (Σ over shoppers of weight · score · scoreᵀ, the BHHH matrix).
+ */
+export function mixedLogLik(pr: MixedProblem, psi: ArrayLike<number>, withScores: boolean): number {
+  const { d, data, nPar, iBeta, iLapse, iSigma, rules, alpha, grad, info, nodeZ, nodeW, score } = pr;
+  const p = d.pTheta;
+  pr.evaluations++;
+  for (let i = 0; i < d.nCells; i++) {
+    let a = d.offset[i];
+    for (let j = 0; j < p; j++) a += d.z[i * p + j] * psi[j];
+    alpha[i] = a;
+  }
+  const beta = Math.exp(psi[iBeta]);
+  const lapse = iLapse >= 0 ? psi[iLapse] : d.lapseFixed!;
+  const sigma = psi[iSigma];
+  if (withScores) { grad.fill(0); info.fill(0); }
+  let total = 0;
+  for (let r = 0; r < data.rows; r++) {
+    const c0 = data.start[r], c1 = data.start[r + 1];
+    let ls: number;
+    if (withScores) score.fill(0);
+    if (sigma <= 0) {
+      // σ = 0: the shopper's likelihood is the fixed model's; ∂/∂σ is 0 by symmetry in z.
+      ls = 0;
+      for (let c = c0; c < c1; c++) ls += cellTerm(pr, c, 0, beta, lapse, 0, withScores ? score : null, 1);
+    } else {
+      const g2 = findMode(pr, r, beta, lapse, sigma);
+      const z = pr.mode[r];
+      const tau = 1 / Math.sqrt(-g2);
+      pr.scale[r] = tau;
+      const spread = Math.SQRT2 * tau;
+      const rho = beta * sigma * tau;
+      let level = 0;
+      while (level < rules.length - 1 && rho > RHO_LIMITS[level]) level++;
+      const rule = rules[level], Q = rule.nodes.length;
+      const logSpread = Math.log(spread);
+      for (let q = 0; q < Q; q++) {
+        const tq = rule.nodes[q];
+        nodeZ[q] = z + spread * tq;
+        nodeW[q] = rule.logWeights[q] + tq * tq + logSpread;
+      }
+      ls = rowIntegral(pr, r, Q, beta, lapse, sigma, withScores);
+      // A normal-shaped integrand puts almost nothing on the rule's outermost nodes (the
+      // Gaussian share there is w/√π, below 3e-5 for 9 nodes). Much more there means the
+      // integrand reaches past the rule (a second mode: answers that contradict each other on
+      // a steep curve, or a long plateau), so the row is integrated on a fine uniform grid
+      // instead (the trapezoid rule, exponentially accurate for smooth integrands on the line).
+      const outer = Math.max(pr.nodeLog[0], pr.nodeLog[Q - 1]);
+      if (outer > OUTER_SHARE) {
+        // The integrand's singularities (poles of the logistic) lie π/(βσ) off the real line,
+        // so the trapezoid error is about exp(−2π²/(βσh)) < 1e-15 with h ≤ 0.5/(βσ); other
+        // modes further than a few units from ẑ are crushed by the normal density.
+        const lo = Math.max(-9, z - 8 * tau - 4), hi = Math.min(9, z + 8 * tau + 4);
+        let h = Math.min(0.25, 0.5 / (beta * sigma));
+        let count = Math.ceil((hi - lo) / h) + 1;
+        if (count > MAX_GRID) { count = MAX_GRID; h = (hi - lo) / (count - 1); }
+        const lh = Math.log(h);
+        for (let q = 0; q < count; q++) { nodeZ[q] = lo + q * h; nodeW[q] = lh; }
+        ls = rowIntegral(pr, r, count, beta, lapse, sigma, withScores);
+        pr.fallbacks++;
+      }
+    }
+    const w = data.weight[r];
+    total += w * ls;
+    if (withScores) {
+      for (let a = 0; a < nPar; a++) {
+        grad[a] += w * score[a];
+        const wa = w * score[a];
+        for (let b = 0; b <= a; b++) info[a * nPar + b] += wa * score[b];
+      }
+    }
+  }
+  if (withScores) for (let a = 0; a < nPar; a++) for (let b = 0; b < a; b++) info[b * nPar + a] = info[a * nPar + b];
+  return total;
+}
+
+/**
+ * ∫ exp(g(z)) dz for row r on the points pr.nodeZ[0..count) with log weights pr.nodeW (which
+ * include any e^(t²) factor of the rule): returns the log of the sum and, with scores, puts
+ * the row's score (node scores averaged with the integrand's weights) into pr.score.
+ * pr.nodeLog[q] is left holding node q's share of the integral.
+ */
+function rowIntegral(pr: MixedProblem, r: number, count: number, beta: number, lapse: number, sigma: number, withScores: boolean): number {
+  const { data, nPar, nodeGrad, nodeLog, nodeZ, nodeW, score } = pr;
+  const c0 = data.start[r], c1 = data.start[r + 1];
+  let mx = -Infinity;
+  for (let q = 0; q < count; q++) {
+    const zq = nodeZ[q];
+    let g = -0.5 * zq * zq - LN_SQRT_2PI;
+    const ng = withScores ? nodeGrad.subarray(q * nPar, (q + 1) * nPar) : null;
+    if (ng) ng.fill(0);
+    for (let c = c0; c < c1; c++) g += cellTerm(pr, c, zq, beta, lapse, sigma, ng, 1);
+    nodeLog[q] = nodeW[q] + g;
+    if (nodeLog[q] > mx) mx = nodeLog[q];
+  }
+  let sum = 0;
+  for (let q = 0; q < count; q++) { nodeLog[q] = Math.exp(nodeLog[q] - mx); sum += nodeLog[q]; }
+  for (let q = 0; q < count; q++) nodeLog[q] /= sum;
+  if (withScores) {
+    score.fill(0);
+    for (let q = 0; q < count; q++) {
+      const wq = nodeLog[q];
+      if (wq === 0) continue;
+      for (let a = 0; a < nPar; a++) score[a] += wq * nodeGrad[q * nPar + a];
+    }
+  }
+  return mx + Math.log(sum);
+}
+
+const modeState = new Float64Array(4);
+
+/** g(z) = Σ ℓ_c(z) − z²/2 and its first two derivatives (exact, and the expected-information one). */
+function modeTerms(pr: MixedProblem, r: number, z: number, beta: number, lapse: number, sigma: number): void {
+  const { d, data, alpha } = pr;
+  let g = -0.5 * z * z, g1 = -z, g2 = -1, fisher = -1;
+  const u = -beta * sigma;
+  for (let c = data.start[r]; c < data.start[r + 1]; c++) {
+    const i = data.cell[c], n = data.n[c], k = data.k[c];
+    const gam = d.gamma[i], s = 1 - gam - lapse;
+    const f = 1 / (1 + Math.exp(-beta * (d.x[i] - alpha[i] - sigma * z)));
+    const df = f * (1 - f);
+    let P = gam + s * f;
+    P = P < P_EPS ? P_EPS : P > 1 - P_EPS ? 1 - P_EPS : P;
+    if (k > 0) g += k * Math.log(P);
+    if (n - k > 0) g += (n - k) * Math.log(1 - P);
+    const d1 = s * df * u, d2 = s * df * (1 - 2 * f) * u * u;
+    const w1 = k / P - (n - k) / (1 - P);
+    g1 += w1 * d1;
+    g2 += w1 * d2 - (k / (P * P) + (n - k) / ((1 - P) * (1 - P))) * d1 * d1;
+    fisher -= (n / (P * (1 - P))) * d1 * d1;
+  }
+  modeState[0] = g; modeState[1] = g1; modeState[2] = g2; modeState[3] = fisher;
+}
+
+/**
+ * Mode of shopper row r's integrand by Newton's method with an ascent safeguard (a step that
+ * lowers g is halved), warm-started at the row's last mode so the mode is tracked
+ * continuously as ψ moves; sets pr.mode[r] and returns the curvature g''(ẑ) (< 0; the
+ * expected-information value where the exact one is not negative).
+ */
+function findMode(pr: MixedProblem, r: number, beta: number, lapse: number, sigma: number): number {
+  let z = pr.mode[r];
+  modeTerms(pr, r, z, beta, lapse, sigma);
+  let [g, g1, g2, fisher] = modeState;
+  for (let it = 0; it < 50; it++) {
+    const h = g2 < -1e-6 ? g2 : fisher;
+    let step = -g1 / h;
+    if (step > 3) step = 3; else if (step < -3) step = -3;
+    if (Math.abs(step) < 1e-10) break;
+    let moved = false;
+    for (let half = 0; half < 40; half++) {
+      modeTerms(pr, r, z + step, beta, lapse, sigma);
+      if (modeState[0] >= g - 1e-13 * Math.abs(g)) { moved = true; break; }
+      step *= 0.5;
+    }
+    if (!moved) break;
+    z += step;
+    [g, g1, g2, fisher] = modeState;
+    if (Math.abs(step) < 1e-9) break;
+  }
+  pr.mode[r] = z;
+  return g2 < -1e-6 ? g2 : fisher;
+}
+
+/** One cell's binomial log term at shopper effect z; adds mult·∂/∂ψ into g when given. */
+function cellTerm(
+  pr: MixedProblem, c: number, z: number, beta: number, lapse: number, sigma: number, g: Float64Array | null, mult: number,
+): number {
+  const { d, data, alpha } = pr;
+  const i = data.cell[c], n = data.n[c], k = data.k[c];
+  const gam = d.gamma[i], s = 1 - gam - lapse;
+  const t = beta * (d.x[i] - alpha[i] - sigma * z);
+  const f = 1 / (1 + Math.exp(-t));
+  let P = gam + s * f;
+  P = P < P_EPS ? P_EPS : P > 1 - P_EPS ? 1 - P_EPS : P;
+  let ll = 0;
+  if (k > 0) ll += k * Math.log(P);
+  if (n - k > 0) ll += (n - k) * Math.log(1 - P);
+  if (g) {
+    const w1 = mult * (k / P - (n - k) / (1 - P));
+    const sdf = s * f * (1 - f);
+    const common = -w1 * sdf * beta;
+    const p = d.pTheta;
+    for (let j = 0; j < p; j++) g[j] += common * d.z[i * p + j];
+    g[p] += w1 * sdf * t;
+    if (pr.iLapse >= 0) g[pr.iLapse] -= w1 * f;
+    g[pr.iSigma] += common * z;
+  }
+  return ll;
+}
+
+export interface MixedFit {
+  params: Float64Array;
+  /** Marginal log-likelihood without the ln C(n, k) constant. */
+  logLik: number;
+  converged: boolean;
+  iterations: number;
+}
+
+/**
+ * Maximum marginal likelihood by projected BHHH with backtracking. `fixSigma` holds σ (the
+ * profile likelihood). Converged means the Newton decrement gᵀH⁻¹g fell below `tol`
+ * (log-likelihood units) at a point no line search could improve on.
+ */
+export function fitMixed(
+  pr: MixedProblem, start: ArrayLike<number>,
+  opts: { fixSigma?: number; tol?: number; maxIterations?: number } = {},
+): MixedFit {
+  const nPar = pr.nPar;
+  const tol = opts.tol ?? 1e-6;
+  const maxIt = opts.maxIterations ?? 100;
+  const psi = Float64Array.from(start);
+  if (opts.fixSigma !== undefined) psi[pr.iSigma] = opts.fixSigma;
+  project(pr, psi);
+  let ll = mixedLogLik(pr, psi, true);
+  const grad = new Float64Array(nPar), info = new Float64Array(nPar * nPar);
+  const freeIdx = new Int32Array(nPar);
+  const sub = new Float64Array(nPar * nPar), subG = new Float64Array(nPar), subX = new Float64Array(nPar), work = new Float64Array(nPar * nPar);
+  const step = new Float64Array(nPar), cand = new Float64Array(nPar);
+  let converged = false, it = 0;
+  for (it = 1; it <= maxIt; it++) {
+    grad.set(pr.grad); info.set(pr.info);
+    let m = 0;
+    for (let j = 0; j < nPar; j++) {
+      if (j === pr.iSigma && opts.fixSigma !== undefined) continue;
+      const atLo = psi[j] <= pr.lower[j] + 1e-12 && grad[j] <= 0;
+      const atHi = psi[j] >= pr.upper[j] - 1e-12 && grad[j] >= 0;
+      if (!atLo && !atHi) freeIdx[m++] = j;
+    }
+    if (m === 0) { converged = true; break; }
+    for (let a = 0; a < m; a++) {
+      subG[a] = grad[freeIdx[a]];
+      for (let b = 0; b < m; b++) sub[a * m + b] = info[freeIdx[a] * nPar + freeIdx[b]];
+    }
+    let ridge = 1e-10, ok = false;
+    for (let tries = 0; tries < 8 && !ok; tries++) {
+      for (let a = 0; a < m; a++) sub[a * m + a] = info[freeIdx[a] * nPar + freeIdx[a]] * (1 + ridge) + ridge;
+      ok = choleskySolve(sub, subG, m, subX, work);
+      ridge *= 100;
+    }
+    if (!ok) break;
+    step.fill(0);
+    let decrement = 0;
+    for (let a = 0; a < m; a++) { step[freeIdx[a]] = subX[a]; decrement += subX[a] * subG[a]; }
+    if (decrement < tol) { converged = true; break; }
+    let t = 1, llc = -Infinity, accepted = false;
+    for (let h = 0; h < 30; h++) {
+      for (let j = 0; j < nPar; j++) cand[j] = psi[j] + t * step[j];
+      project(pr, cand);
+      llc = mixedLogLik(pr, cand, true);
+      if (llc >= ll - 1e-12 * Math.abs(ll)) { accepted = true; break; }
+      t *= 0.5;
+    }
+    if (!accepted) {
+      // no improvement along the BHHH direction: only an optimum if the decrement is already tiny
+      converged = decrement < 1e3 * tol;
+      mixedLogLik(pr, psi, true);
+      break;
+    }
+    psi.set(cand);
+    const gain = llc - ll;
+    ll = llc;
+    // Near the optimum the score (nodes held fixed) and the quadrature carry errors of order
+    // 1e-9: once steps gain nothing measurable, stop, and call it an optimum only if the
+    // decrement is small on the scale of a log-likelihood unit.
+    if (gain < 1e-9 * Math.max(1, Math.abs(ll)) || (t < 1 / 64 && gain < 1e-6)) { converged = decrement < 1e-3; break; }
+  }
+  return { params: psi, logLik: ll, converged, iterations: Math.min(it, maxIt) };
+}
+
+/**
+ * Observed information −∂²ℓ/∂ψ² by forward differences of the analytic score, symmetrised.
+ * σ is included even at 0: ℓ is even in σ, so σ = 0 is an interior point of that function.
+ */
+export function observedInformation(pr: MixedProblem, psi: Float64Array): Float64Array {
+  const nPar = pr.nPar;
+  mixedLogLik(pr, psi, true);
+  const g0 = Float64Array.from(pr.grad);
+  const H = new Float64Array(nPar * nPar);
+  const p = Float64Array.from(psi);
+  for (let j = 0; j < nPar; j++) {
+    let h = 1e-5 * Math.max(1, Math.abs(psi[j]));
+    if (j !== pr.iSigma && psi[j] + h > pr.upper[j]) h = -h;
+    p[j] = psi[j] + h;
+    mixedLogLik(pr, p, true);
+    for (let a = 0; a < nPar; a++) H[a * nPar + j] = -(pr.grad[a] - g0[a]) / h;
+    p[j] = psi[j];
+  }
+  for (let a = 0; a < nPar; a++) for (let b = 0; b < a; b++) {
+    const v = 0.5 * (H[a * nPar + b] + H[b * nPar + a]);
+    H[a * nPar + b] = v; H[b * nPar + a] = v;
+  }
+  mixedLogLik(pr, psi, true);
+  return H;
+}
+
+/** Covariance from the observed information; parameters on a bound (other than σ) get NaN. */
+export function mixedCovariance(pr: MixedProblem, psi: Float64Array): Float64Array {
+  const nPar = pr.nPar;
+  const H = observedInformation(pr, psi);
+  const free: number[] = [];
+  for (let j = 0; j < nPar; j++) {
+    if (j === pr.iSigma || (psi[j] > pr.lower[j] + 1e-9 && psi[j] < pr.upper[j] - 1e-9)) free.push(j);
+  }
+  const m = free.length;
+  const a = new Float64Array(m * m);
+  for (let i = 0; i < m; i++) for (let j = 0; j < m; j++) a[i * m + j] = H[free[i] * nPar + free[j]];
+  const inv = invertSpd(a, m);
+  const cov = new Float64Array(nPar * nPar).fill(NaN);
+  if (inv) for (let i = 0; i < m; i++) for (let j = 0; j < m; j++) cov[free[i] * nPar + free[j]] = inv[i * m + j];
+  return cov;
+}
+
+export interface SigmaProfile {
+  ci: [number, number] | null;
+  /** Deviance of the pooled (σ = 0) fit against the mixed fit, and its boundary p-value. */
+  chi2: number;
+  p: number;
+  /** The best fit found, which may be the σ = 0 one if it beat the starting optimum. */
+  fit: MixedFit;
+  /** Whether both ends were found (false: the search gave up; the interval is then null). */
+  complete: boolean;
+}
+
+/**
+ * Profile-likelihood interval for σ at level 95 %: the σ values whose profile deviance
+ * 2(ℓ̂ − ℓ_p(σ)) stays under χ²₁(0.95). The signed root r(σ) = ±√(2(ℓ̂ − ℓ_p(σ))) is close
+ * to linear in σ, so regula falsi (Illinois) on r = ±1.96 needs few refits. `pooledLogLik` is
+ * ℓ_p(0), the fixed model's maximum (without constant).
+ */
+export function profileSigma(pr: MixedProblem, best: MixedFit, pooled: { params: ArrayLike<number>; logLik: number }): SigmaProfile {
+  let fit = best;
+  const iS = pr.iSigma;
+  if (pooled.logLik > fit.logLik + 1e-9) {
+    // the pooled fit is better: the optimum is at (or near) σ = 0; start again from there
+    const again = fitMixed(pr, mixedStart(pr, pooled.params, 0.05));
+    fit = again.logLik >= pooled.logLik ? again : { params: mixedStart(pr, pooled.params, 0), logLik: pooled.logLik, converged: again.converged, iterations: again.iterations };
+  }
+  const lhat = fit.logLik;
+  const sHat = fit.params[iS];
+  const chi2 = Math.max(0, 2 * (lhat - pooled.logLik));
+  const p = chi2 <= 0 ? 1 : 0.5 * chiSquareP(chi2, 1)!;
+  const crit = Math.sqrt(CHI2_1_95);
+  const profileTol = 1e-4;
+  const profileAt = (sigma: number, from: Float64Array) => fitMixed(pr, from, { fixSigma: sigma, tol: profileTol });
+  const r = (ll: number, sigma: number) => Math.sign(sigma - sHat) * Math.sqrt(Math.max(0, 2 * (lhat - ll)));
+  let complete = true;
+
+  // lower end
+  let lowerEnd = 0;
+  if (chi2 > CHI2_1_95 && sHat > 0) {
+    const e = solveRoot((s) => r(profileAt(s, fit.params).logLik, s) + crit, 0, crit - Math.sqrt(chi2), sHat, crit, 0.02);
+    if (e === null) complete = false; else lowerEnd = e;
+  }
+  // upper end: step out until the signed root passes +1.96
+  let upperEnd: number | null = null;
+  let prev = sHat, rPrev = 0;
+  let guess = sHat + Math.max(0.1, 0.5 * sHat);
+  let from = Float64Array.from(fit.params);
+  for (let expand = 0; expand < 12; expand++) {
+    if (guess > SIGMA_MAX) guess = SIGMA_MAX;
+    const f = profileAt(guess, from);
+    const rg = r(f.logLik, guess);
+    if (rg >= crit) {
+      const lo = prev, rlo = rPrev, hi = guess;
+      upperEnd = solveRoot((s) => r(profileAt(s, f.params).logLik, s) - crit, lo, rlo - crit, hi, rg - crit, 0.02);
+      break;
+    }
+    if (guess >= SIGMA_MAX) { upperEnd = SIGMA_MAX; break; }
+    // secant extrapolation on the (near-linear) signed root, at least doubling the step
+    const slope = (rg - rPrev) / (guess - prev);
+    const next = slope > 1e-6 ? prev + (crit - rPrev) / slope : guess + 2 * (guess - prev);
+    prev = guess; rPrev = rg; from = Float64Array.from(f.params);
+    guess = Math.max(next * 1.05, guess + 0.02);
+  }
+  if (upperEnd === null) complete = false;
+  return { ci: complete ? [lowerEnd, upperEnd!] : null, chi2, p, fit, complete };
+}
+
+/** Illinois regula falsi for h(s) = 0 on [lo, hi] with h(lo), h(hi) of opposite signs. */
+function solveRoot(h: (s: number) => number, lo: number, hLo: number, hi: number, hHi: number, tol: number): number | null {
+  if (!(hLo * hHi <= 0)) return null;
+  let side = 0;
+  for (let it = 0; it < 30; it++) {
+    const s = (lo * hHi - hi * hLo) / (hHi - hLo);
+    const hs = h(s);
+    if (Math.abs(hs) < tol || hi - lo < 1e-5) return s;
+    if (hs * hHi > 0) { hi = s; hHi = hs; if (side === -1) hLo /= 2; side = -1; }
+    else { lo = s; hLo = hs; if (side === 1) hHi /= 2; side = 1; }
+  }
+  return null;
+}
