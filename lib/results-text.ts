@@ -1,4 +1,4 @@
-import type { AnalysisReport, BaseReport } from '@/lib/psychometrics/report-types';
+import type { AnalysisReport, BaseReport, ThresholdBound } from '@/lib/psychometrics/report-types';
 
 // Plain words about a fit, shared by the results page, the printed report and the exports.
 
@@ -21,13 +21,21 @@ export function poorFitReason(r: AnalysisReport, jointP: number | null): string 
 }
 
 const pct = (f: number) => `${(f * 100).toFixed(f < 0.1 ? 1 : 0)} %`;
+
+/** A threshold as words: the percentage, or the bound when the data only bound it (fraction null). */
+export function thresholdText(t: { fraction: number | null; bound?: ThresholdBound | null }, format: (f: number) => string = pct): string {
+  if (t.fraction !== null) return format(t.fraction);
+  if (t.bound?.kind === 'below') return `below the shallowest rung (< ${format(t.bound.fraction)})`;
+  if (t.bound) return `above the deepest rung (> ${format(t.bound.fraction)})`;
+  return '—';
+}
 const num = (x: number, d = 2) => x.toFixed(d);
 
 /** Why a base was judged a poor fit (or what to watch on one that fits). */
 export function verdictWhy(b: BaseReport, warnings: string[]): string[] {
   const out: string[] = [];
   if (b.devianceP !== null && b.devianceP < 0.05) out.push(`The deviance (${num(b.deviance, 1)} on ${b.devianceDf} df) is larger than chance allows (p = ${b.devianceP.toFixed(3)}): the observed notice rates scatter around the curve more than binomial noise would.`);
-  if (b.overdispersed) out.push(`Deviance/df is ${num(b.deviance / Math.max(1, b.devianceDf), 2)}, above 1.5: respondents differ more than one curve describes (overdispersion). The intervals were widened by the quasi-binomial factor.`);
+  if (b.overdispersed) out.push(`The Monte-Carlo deviance test (p = ${b.devianceMonteCarloP == null ? '—' : b.devianceMonteCarloP.toFixed(3)}) says the notice rates scatter more than independent trials allow (deviance/df ${num(b.deviance / Math.max(1, b.devianceDf), 2)}).`);
   const mine = warnings.filter((w) => w.includes(String(b.basePrice)));
   out.push(...mine);
   if (!out.length && b.verdict === 'poor fit') out.push('The engine judged this fit poor; see the warnings of the report.');
@@ -49,9 +57,9 @@ export function promotionSentence(r: AnalysisReport, currencyFmt: (x: number) =>
     return `One amount fits this category: about ${currencyFmt(r.models.constantAmount.amount)} off is noticed whatever the base price, so percentages can fall as prices rise (${slopeText}).`;
   }
   if (p.weberSlope < 1) {
-    return `Deeper percentages are needed on cheap items: use tiers, from about ${pct(lo.threshold.fraction)} at ${currencyFmt(lo.basePrice)} down to about ${pct(hi.threshold.fraction)} at ${currencyFmt(hi.basePrice)} (${slopeText}).`;
+    return `Deeper percentages are needed on cheap items: use tiers, from about ${thresholdText(lo.threshold)} at ${currencyFmt(lo.basePrice)} down to about ${thresholdText(hi.threshold)} at ${currencyFmt(hi.basePrice)} (${slopeText}).`;
   }
-  return `Deeper percentages are needed on expensive items: use tiers, from about ${pct(lo.threshold.fraction)} at ${currencyFmt(lo.basePrice)} up to about ${pct(hi.threshold.fraction)} at ${currencyFmt(hi.basePrice)} (${slopeText}).`;
+  return `Deeper percentages are needed on expensive items: use tiers, from about ${thresholdText(lo.threshold)} at ${currencyFmt(lo.basePrice)} up to about ${thresholdText(hi.threshold)} at ${currencyFmt(hi.basePrice)} (${slopeText}).`;
 }
 
 export const REFERENCE_PRICE_CAUTION =
@@ -62,7 +70,7 @@ export const REFERENCE_PRICE_CAUTION =
 export function fitCautions(r: AnalysisReport, poorFit: boolean): string[] {
   const out = ['Thresholds are estimates from a sample: read them with their intervals.'];
   if (poorFit) out.push('At least one curve is a poor fit (see the verdicts): treat its threshold with care.');
-  if (r.bases.some((b) => b.overdispersed)) out.push('Respondents differ more than one curve describes (overdispersion); affected intervals were widened.');
+  if (r.bases.some((b) => b.overdispersed)) out.push(r.unit === 'shopper' ? 'The notice rates scatter more than independent trials allow; the intervals resample whole shoppers, so they carry that spread.' : 'The notice rates scatter more than independent trials allow (overdispersion); affected intervals were widened.');
   out.push(...r.warnings);
   out.push(REFERENCE_PRICE_CAUTION);
   return out;

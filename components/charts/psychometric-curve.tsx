@@ -4,6 +4,7 @@ import { Axis, DataContext, GlyphSeries, Grid, LineSeries, XYChart } from '@visx
 import { Area } from '@visx/shape';
 import type { BaseReport } from '@/lib/psychometrics/report-types';
 import { alphaFromThreshold, noticeRate, rateAtF, wilson } from '@/lib/psychometrics/curve';
+import { thresholdText } from '@/lib/results-text';
 import { COLORS, chartTheme, formatNumber, logTicks } from './chart-theme';
 
 // One base price: observed notice rates per rung (amber dots, area ∝ trials, Wilson 95 %
@@ -24,6 +25,8 @@ function Overlay({ band, cells, b, thresholdY, label }: { band: { x: number; lo:
   const X = (v: number) => Number(xScale(v));
   const Y = (v: number) => Number(yScale(v));
   const t = b.threshold;
+  // A bound (fraction null) is marked at the rung it names; the label says "above" / "below".
+  const mark = t.fraction ?? t.bound?.fraction ?? NaN;
   return (
     <g>
       <Area data={band} x={(d) => X(d.x)} y0={(d) => Y(d.lo)} y1={(d) => Y(d.hi)} fill={COLORS.teal} fillOpacity={0.12} />
@@ -34,8 +37,8 @@ function Overlay({ band, cells, b, thresholdY, label }: { band: { x: number; lo:
       {t.fractionCi ? (
         <line x1={X(t.fractionCi[0] * 100)} x2={X(t.fractionCi[1] * 100)} y1={Y(thresholdY)} y2={Y(thresholdY)} stroke={COLORS.ink} strokeWidth={1.5} />
       ) : null}
-      <line x1={X(t.fraction * 100)} x2={X(t.fraction * 100)} y1={Y(thresholdY) - 9} y2={Y(thresholdY) + 9} stroke={COLORS.ink} strokeWidth={2} />
-      <text x={X(t.fraction * 100) + 5} y={Y(thresholdY) - 12} fontSize={11} fill={COLORS.ink} fontFamily="var(--font-mono), monospace">{label}</text>
+      <line x1={X(mark * 100)} x2={X(mark * 100)} y1={Y(thresholdY) - 9} y2={Y(thresholdY) + 9} stroke={COLORS.ink} strokeWidth={2} />
+      <text x={X(mark * 100) + 5} y={Y(thresholdY) - 12} fontSize={11} fill={COLORS.ink} fontFamily="var(--font-mono), monospace">{label}</text>
     </g>
   );
 }
@@ -44,7 +47,7 @@ export function PsychometricCurve({ base, cells, fTarget, width = 440, height = 
   const pts = cells.map((c) => ({ ...c, x: c.discount * 100, y: c.n ? c.k / c.n : 0 }));
   const xs = pts.map((p) => p.x).concat(base.threshold.fractionCi ? base.threshold.fractionCi.map((v) => v * 100) : []);
   const lo = Math.max(0.05, Math.min(...xs) / 1.5), hi = Math.min(99, Math.max(...xs) * 1.5);
-  const alpha = alphaFromThreshold(base.threshold.fraction, base.slope, fTarget);
+  const alpha = alphaFromThreshold(base.threshold.fraction ?? base.threshold.bound?.fraction ?? NaN, base.slope, fTarget);
   const curve: Pt[] = [];
   const band: { x: number; lo: number; hi: number }[] = [];
   const ci = base.threshold.fractionCi, sci = base.slopeCi;
@@ -66,7 +69,7 @@ export function PsychometricCurve({ base, cells, fTarget, width = 440, height = 
         <Grid columns={false} numTicks={5} />
         <Axis orientation="bottom" label="Discount (% of base price, log scale)" tickValues={logTicks(lo, hi)} tickFormat={(v) => `${formatNumber(Number(v))}`} />
         <Axis orientation="left" label="Notice rate" numTicks={5} tickFormat={(v) => `${Math.round(Number(v) * 100)} %`} />
-        <Overlay band={band} cells={pts} b={base} thresholdY={thresholdY} label={`threshold ${(base.threshold.fraction * 100).toFixed(1)} %`} />
+        <Overlay band={band} cells={pts} b={base} thresholdY={thresholdY} label={`threshold ${thresholdText(base.threshold, (f) => `${(f * 100).toFixed(1)} %`)}`} />
         <LineSeries dataKey="fitted curve" data={curve} xAccessor={(d: Pt) => d.x} yAccessor={(d: Pt) => d.y} stroke={COLORS.teal} strokeWidth={2} />
         <GlyphSeries dataKey="observed" data={pts} xAccessor={(d) => d.x} yAccessor={(d) => d.y}
           renderGlyph={({ x, y, datum }) => <circle cx={x} cy={y} r={2 + 7 * Math.sqrt(datum.n / nMax)} fill={COLORS.amber} fillOpacity={0.85} stroke="#fff" strokeWidth={0.8} />} />

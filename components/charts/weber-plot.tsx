@@ -32,15 +32,17 @@ function Overlay({ report, refs, lo, hi }: { report: AnalysisReport; refs: { lab
 }
 
 export function WeberPlot({ report, currency, width = 560, height = 340 }: { report: AnalysisReport; currency: string; width?: number; height?: number }) {
-  const pts = report.bases.map((b) => ({ x: b.basePrice, y: b.threshold.amount }));
-  const prices = pts.map((p) => p.x);
-  const amounts = report.bases.flatMap((b) => [b.threshold.amount, ...(b.threshold.amountCi ?? [])]).filter((v) => v > 0);
+  // Bases whose threshold is only a bound (amount null) have no square to draw.
+  const pts = report.bases.flatMap((b) => (b.threshold.amount === null ? [] : [{ x: b.basePrice, y: b.threshold.amount }]));
+  const prices = report.bases.map((b) => b.basePrice);
+  const amounts = report.bases.flatMap((b) => [b.threshold.amount ?? NaN, ...(b.threshold.amountCi ?? [])]).filter((v) => v > 0);
   const xLo = Math.min(...prices) / 1.6, xHi = Math.max(...prices) * 1.6;
   const yLo = Math.min(...amounts) / 2, yHi = Math.max(...amounts) * 2;
   const power = report.models.power;
   const slope = power.weberSlope ?? 1;
   // Through the power model's own threshold at the middle base (a straight line on log–log axes).
-  const mid = power.thresholds[Math.floor(power.thresholds.length / 2)] ?? { basePrice: pts[0].x, amount: pts[0].y };
+  const midT = power.thresholds[Math.floor(power.thresholds.length / 2)];
+  const mid = midT ? { basePrice: midT.basePrice, amount: midT.amount ?? (midT.bound ? midT.bound.fraction * midT.basePrice : NaN) } : { basePrice: pts[0]?.x ?? prices[0], amount: pts[0]?.y ?? NaN };
   const line = (s: number, through: Pt): Pt[] => [xLo, xHi].map((x) => ({ x, y: through.y * Math.pow(x / through.x, s) }));
   const clip = (ps: Pt[]) => ps.map((p) => ({ x: p.x, y: Math.min(yHi, Math.max(yLo, p.y)) }));
   const gm = { x: geometricMean(prices), y: geometricMean(pts.map((p) => p.y)) };

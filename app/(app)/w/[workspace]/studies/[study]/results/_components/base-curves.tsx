@@ -2,7 +2,7 @@
 import type { AnalysisReport, BaseReport } from '@/lib/psychometrics/report-types';
 import type { Cell } from '@/lib/psychometrics/types';
 import { PsychometricCurve } from '@/components/charts/psychometric-curve';
-import { verdictWhy } from '@/lib/results-text';
+import { thresholdText, verdictWhy } from '@/lib/results-text';
 
 const pct = (f: number) => `${(f * 100).toFixed(2)} %`;
 
@@ -17,7 +17,7 @@ export function BaseTable({ b, report, money }: { b: BaseReport; report: Analysi
   return (
     <table className="table mt-2" data-testid={`base-table-${b.basePrice}`}>
       <tbody>
-        <tr><th>Notice threshold</th><td className="n">{pct(t.fraction)}</td><td className="n">{money.format(t.amount)}</td></tr>
+        <tr><th>Notice threshold</th><td className="n">{thresholdText(t, pct)}</td><td className="n">{t.amount === null ? '—' : money.format(t.amount)}</td></tr>
         <tr><th>95 % interval</th><td className="n">{t.fractionCi ? `${pct(t.fractionCi[0])} – ${pct(t.fractionCi[1])}` : '—'}</td><td className="n">{t.amountCi ? `${money.format(t.amountCi[0])} – ${money.format(t.amountCi[1])}` : '—'}</td></tr>
         <tr><th>Slope (per ln discount)</th><td className="n">{b.slope.toFixed(2)}</td><td className="n">{b.slopeCi ? `${b.slopeCi[0].toFixed(2)} – ${b.slopeCi[1].toFixed(2)}` : '—'}</td></tr>
         <tr><th>Lapse · guess rate</th><td className="n">{pct(b.lapse)}</td><td className="n" title={b.guessSource}>{pct(b.guess)}</td></tr>
