@@ -220,7 +220,7 @@ function describeMethod(ctx: AnalysisContext): string {
   if (ctx.samples === 0) return 'none (bootstrap 0)';
   const kind = ctx.method === 'bca'
     ? `BCa (acceleration from a ${ctx.unit === 'shopper' ? 'grouped jackknife over shoppers' : 'trial-level jackknife'})`
-    : 'percentile';
+    : ctx.unit === 'shopper' ? 'expanded percentile (t-based tails for the number of shoppers)' : 'percentile';
   let s = ctx.unit === 'shopper'
     ? `respondent-level bootstrap (whole shoppers resampled, ${ctx.shoppers} shoppers), ${ctx.samples} samples, ${kind}, 95 %`
     : `parametric bootstrap, ${ctx.samples} samples, ${kind}, 95 %; intervals assume independent trials`;

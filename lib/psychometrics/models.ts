@@ -182,33 +182,27 @@ export function jointDesigns(prep: Prepared): Record<ModelName, Design> {
   };
 }
 
+/** The larger model's parameters that reproduce a nested model's solution (weber/constantAmount → power → free). */
+export function startFromNested(prep: Prepared, designs: Record<ModelName, Design>, small: ModelName, big: ModelName, params: Float64Array, centre: number): Float64Array {
+  const ds = designs[small], db = designs[big];
+  const start = new Float64Array(db.nPar);
+  start.set(params.subarray(ds.pTheta), db.pTheta); // ln β, λ, γs
+  if (big === 'free') start.set(modelAlphas(prep, small, params, centre), 0);
+  else { start[0] = small === 'weber' ? params[0] : params[0] - centre; start[1] = small === 'weber' ? 1 : 0; }
+  return start;
+}
+
 /**
  * Nested-model repair on fitted joint models (in place): power refitted from weber (b = 1) or
  * constant amount (b = 0) when either fits better, then free from power when power fits better.
  */
 export function repairNested(prep: Prepared, designs: Record<ModelName, Design>, fits: Record<ModelName, FitOutcome>, k: Float64Array, centre: number, opts?: { maxIterations?: number; stepTol?: number }): string[] {
   const repaired: string[] = [];
-  const pd = designs.power;
-  const tail = (d: Design, p: Float64Array) => Array.from(p.subarray(d.pTheta));
-  for (const [name, b] of [['weber', 1], ['constantAmount', 0]] as const) {
-    if (fits[name].logLik > fits.power.logLik + 1e-7) {
-      const src = fits[name].params;
-      const theta0 = name === 'weber' ? src[0] : src[0] - centre;
-      const start = new Float64Array(pd.nPar);
-      start[0] = theta0; start[1] = b;
-      start.set(tail(designs[name], src), 2);
-      const refit = fitDesign(pd, k, start, opts);
-      if (refit.logLik > fits.power.logLik) { fits.power = refit; repaired.push(`power from ${name}`); }
+  for (const [small, big] of [['weber', 'power'], ['constantAmount', 'power'], ['power', 'free']] as const) {
+    if (fits[small].logLik > fits[big].logLik + 1e-7) {
+      const refit = fitDesign(designs[big], k, startFromNested(prep, designs, small, big, fits[small].params, centre), opts);
+      if (refit.logLik > fits[big].logLik) { fits[big] = refit; repaired.push(`${big} from ${small}`); }
     }
-  }
-  if (fits.power.logLik > fits.free.logLik + 1e-7) {
-    const fd = designs.free;
-    const alphas = modelAlphas(prep, 'power', fits.power.params, centre);
-    const start = new Float64Array(fd.nPar);
-    start.set(alphas, 0);
-    start.set(tail(pd, fits.power.params), fd.pTheta);
-    const refit = fitDesign(fd, k, start, opts);
-    if (refit.logLik > fits.free.logLik) { fits.free = refit; repaired.push('free from power'); }
   }
   return repaired;
 }

@@ -80,12 +80,15 @@ describe('hard cases fit without crashing', () => {
   });
 
   it('too few trials for a calibrated interval: no interval, and how many more are needed', () => {
-    const cells = [...cellsFor(9.99, [1, 2, 5, 7], 8), ...cellsFor(99, [2, 6, 12, 18])];
+    const cells = [...cellsFor(9.99, [1, 2, 5, 7], 8), ...cellsFor(99, [8, 24, 48, 72], 80)];
     const r = analyse({ cells, task: 'trip', bootstrap: 50 });
     expect(r.bases[0].nTrials).toBe(32);
     expect(r.bases[0].threshold.fractionCi).toBeNull();
-    expect(r.warnings.some((w) => /base 9.99: too few trials for a reliable interval \(32; .*8 more are needed\)/.test(w))).toBe(true);
+    expect(r.warnings.some((w) => /base 9.99: too few trials for a reliable interval \(32; without shopper ids intervals are calibrated from about 300 trials per base price, so 268 more are needed\)/.test(w))).toBe(true);
     expect(r.bases[1].threshold.fractionCi).not.toBeNull();
+    // the model tests say so too rather than give an uncalibrated p
+    expect(r.tests.weberVsPower.p).toBeNull();
+    expect(r.tests.weberVsPower.method).toMatch(/too few trials for a calibrated test without shopper ids \(32 at the smallest base/);
   });
 
   it('a single base price: weber = free, no Weber slope, no tests, a warning', () => {
