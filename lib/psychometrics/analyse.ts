@@ -17,7 +17,7 @@
 // Tests: tests/unit/psychometrics/analyse-*.test.ts, tests/calibration/*.test.ts.
 import { reportBase } from './base-analysis';
 import type { AnalysisContext } from './context';
-import { type Engine, type FitSet, degenerateGuess, drawShoppers, fitAll, loadObserved, makeEngine, parametricSample, perBaseProbabilities, shopperSample } from './engine';
+import { type Engine, type FitSet, degenerateGuess, drawShoppers, fitAll, loadObserved, makeEngine, packShoppers, parametricSample, perBaseProbabilities, shopperSample } from './engine';
 import { PsychometricsInputError } from './errors';
 import { devianceOf, fitDesign, probAt } from './fit-core';
 import { reportJoint } from './joint-analysis';
@@ -128,7 +128,11 @@ function runBootstrap(ctx: AnalysisContext, N: Float64Array, K: Float64Array, sc
   const { engine: e, samples, layout: L, rng } = ctx;
   const boot = new Float64Array(samples * L.length);
   const row = new Float64Array(L.length);
-  const Nb = new Float64Array(N.length), Kb = new Float64Array(K.length);
+  const packed = sc && ctx.unit === 'shopper' ? packShoppers(e, sc) : null;
+  const acc = new Float64Array(N.length + K.length);
+  // in the shopper case N*, K* are views on the weighted sum of the packed rows
+  const Nb = packed ? acc.subarray(0, N.length) : new Float64Array(N.length);
+  const Kb = packed ? acc.subarray(N.length) : new Float64Array(K.length);
   const J = e.J;
   const dev = ctx.unit === 'trial' ? Array.from({ length: J }, () => new Float64Array(samples)) : null;
   const P = ctx.unit === 'trial' ? perBaseProbabilities(e, ctx.point.bases) : null;
@@ -137,7 +141,7 @@ function runBootstrap(ctx: AnalysisContext, N: Float64Array, K: Float64Array, sc
   for (let s = 0; s < samples; s++) {
     if (ctx.unit === 'shopper') {
       drawShoppers(sc!.ids.length, rng, w!);
-      shopperSample(e, sc!, w!, rng, Nb, Kb, degenerate);
+      shopperSample(e, packed!, w!, rng, acc, degenerate);
     } else {
       Nb.set(N);
       parametricSample(N, P!, rng, Kb);

@@ -125,31 +125,43 @@ export function drawShoppers(S: number, rng: Rng, w: Float64Array): void {
 }
 
 /**
- * Respondent-level sample: N*, K* = Σ_s w_s · (shopper s's counts), then the degenerate-γ
- * redraw described in the header for catch cells whose γ group saw no variation.
+ * Each shopper's counts packed into one contiguous row [n (test cells, then catch cells),
+ * k (same)], so a respondent-level sample is one weighted sum of rows (a matrix–vector
+ * product) in a tight loop.
+ */
+export function packShoppers(e: Engine, sc: ShopperCounts): { rows: Float64Array; width: number } {
+  const { m, J } = e;
+  const half = m + J, width = 2 * half, S = sc.ids.length;
+  const rows = new Float64Array(S * width);
+  for (let s = 0; s < S; s++) {
+    const o = s * width;
+    for (let i = 0; i < m; i++) { rows[o + i] = sc.n[s * m + i]; rows[o + half + i] = sc.k[s * m + i]; }
+    for (let j = 0; j < J; j++) { rows[o + m + j] = sc.catchN[s * J + j]; rows[o + half + m + j] = sc.catchK[s * J + j]; }
+  }
+  return { rows, width };
+}
+
+/**
+ * Respondent-level sample into `acc` (length width; N* = acc[0 … m + J), K* = the rest):
+ * Σ_s w_s · (shopper s's row), then the degenerate-γ redraw described in the header for catch
+ * cells whose γ group saw no variation.
  */
 export function shopperSample(
-  e: Engine, sc: ShopperCounts, w: Float64Array, rng: Rng, N: Float64Array, K: Float64Array,
+  e: Engine, packed: { rows: Float64Array; width: number }, w: Float64Array, rng: Rng, acc: Float64Array,
   degenerate: { rate: Float64Array; flag: Uint8Array },
 ): void {
   const { m, J } = e;
-  N.fill(0); K.fill(0);
-  const S = sc.ids.length;
+  const { rows, width } = packed;
+  const half = width / 2;
+  acc.fill(0);
+  const S = w.length;
   for (let s = 0; s < S; s++) {
     const ws = w[s];
     if (ws === 0) continue;
-    const o = s * m;
-    for (let i = 0; i < m; i++) {
-      const ni = sc.n[o + i];
-      if (ni !== 0) { N[i] += ws * ni; K[i] += ws * sc.k[o + i]; }
-    }
-    const oc = s * J;
-    for (let j = 0; j < J; j++) {
-      const ni = sc.catchN[oc + j];
-      if (ni !== 0) { N[m + j] += ws * ni; K[m + j] += ws * sc.catchK[oc + j]; }
-    }
+    const o = s * width;
+    for (let i = 0; i < width; i++) acc[i] += ws * rows[o + i];
   }
-  for (let j = 0; j < J; j++) if (degenerate.flag[j]) K[m + j] = rng.binomial(N[m + j], degenerate.rate[j]);
+  for (let j = 0; j < J; j++) if (degenerate.flag[j]) acc[half + m + j] = rng.binomial(acc[m + j], degenerate.rate[j]);
 }
 
 /** Catch cells whose γ group has no false alarms at all (or only false alarms), with the add-half rate. */
