@@ -54,7 +54,12 @@ export function fitCacheKey(study: Pick<StudyDetail, 'dataVersion' | 'exclusionR
   return { optionsKey, cacheKey: hashKey({ v: study.dataVersion, optionsKey }) };
 }
 
-const preferredP = (r: AnalysisReport) => chiSquareP(r.models[r.preferredModel].deviance, r.models[r.preferredModel].devianceDf);
+// The Monte-Carlo deviance p-value of the preferred model when the engine computed one (the χ²
+// tail of the deviance misleads with few trials per cell), else the χ² tail.
+const preferredP = (r: AnalysisReport) => {
+  const m = r.models[r.preferredModel];
+  return m.devianceMonteCarloP ?? chiSquareP(m.deviance, m.devianceDf);
+};
 
 /** Any base judged a poor fit, or the preferred joint model's deviance p below 0.05. */
 export function isPoorFit(report: AnalysisReport): boolean {
