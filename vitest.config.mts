@@ -16,6 +16,11 @@ export default defineConfig({
         test: { name: 'unit', include: ['tests/unit/**/*.test.ts', 'lib/**/*.test.ts'], environment: 'node' },
       },
       {
+        // Seeded simulations that check the statistics hold their stated level (tests/calibration/README.md).
+        resolve: { alias },
+        test: { name: 'calibration', include: ['tests/calibration/**/*.test.ts'], environment: 'node', testTimeout: 600_000 },
+      },
+      {
         resolve: { alias },
         test: {
           name: 'integration',

@@ -173,7 +173,7 @@ export function weberVerdict(r: AnalysisReport, ev: VerdictEvidence, money: Mone
   const lo = withNumber[0], hi = withNumber[withNumber.length - 1];
   const range = lo && hi && lo !== hi ? `from about ${pct(lo.t.fraction!)} at ${money(lo.b.basePrice)} ${p.weberSlope < 1 ? 'down' : 'up'} to about ${pct(hi.t.fraction!)} at ${money(hi.b.basePrice)}` : 'by price tier';
   // Each tier stays on one line (no break inside "€12.99: 8.8 %").
-  const tiers = r.models.power.thresholds.map((t) => `${money(t.basePrice)}:\u00a0${pct(t.fraction).replace(' ', '\u00a0')}`).join(' · ');
+  const tiers = r.models.power.thresholds.map((t) => `${money(t.basePrice)}:\u00a0${thresholdText(t, pct).replace(' ', '\u00a0')}`).join(' · ');
   return {
     kind: p.weberSlope < 1 ? 'tiers-cheap' : 'tiers-dear',
     sentence: `${p.weberSlope < 1 ? 'Cheap' : 'Expensive'} items need deeper percentages: ${range} (${slopeText}; 1 would mean one percentage for all prices).`,
@@ -306,4 +306,11 @@ export function fitCautions(r: AnalysisReport, poorFit: boolean): string[] {
   out.push(...r.warnings);
   out.push(REFERENCE_PRICE_CAUTION);
   return out;
+}
+
+/** A threshold as words: the percentage, or the bound when the data only bound it (fraction null). */
+export function thresholdText(t: { fraction: number | null; bound?: ThresholdBound | null }, format: (f: number) => string = pct1): string {
+  if (t.fraction !== null) return format(t.fraction);
+  if (t.bound) return boundText(t.bound);
+  return '—';
 }

@@ -1,12 +1,15 @@
 // Command-line fit: `npm run fit -- FILE.csv [--task pick|spot|trip] [--bootstrap N]
 // [--seed S] [--target P] [--guess G] [--lapse L] [--interval percentile|bca] [--monte-carlo-p]`.
-// Reads trial rows (base_price,discount,response) or cell rows (base_price,discount,n,k) and
-// prints the analysis report as one JSON document. Bad input: one stderr line, exit code 2.
+// Reads trial rows (base_price,discount,response, optionally respondent) or cell rows
+// (base_price,discount,n,k) and prints the analysis report as one JSON document. With a
+// respondent column every row must name its shopper, and the intervals and tests resample
+// whole shoppers (the report's `unit: 'shopper'`); without one they assume independent
+// trials (`unit: 'trial'`). Bad input: one stderr line, exit code 2.
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import { aggregateTrials } from '../lib/psychometrics/aggregate';
 import { analyse, PsychometricsInputError } from '../lib/psychometrics/analyse';
-import type { Cell, CatchCell, IntervalMethod, Task, TrialRow } from '../lib/psychometrics/types';
+import type { Cell, CatchCell, IntervalMethod, ShopperCell, Task, TrialRow } from '../lib/psychometrics/types';
 
 class BadInput extends Error {}
 
@@ -45,7 +48,7 @@ function field(row: Record<string, string>, name: string, line: number, check: (
   return x;
 }
 
-function readRows(file: string): { cells: Cell[]; catchCells: CatchCell[] } {
+function readRows(file: string): { cells: Cell[]; catchCells: CatchCell[]; shopperCells?: ShopperCell[] } {
   let text: string;
   try { text = readFileSync(file, 'utf8'); } catch { throw new BadInput(`cannot read ${file}`); }
   const parsed = Papa.parse<Record<string, string>>(text.replace(/^\uFEFF/, ''), {
@@ -64,12 +67,21 @@ function readRows(file: string): { cells: Cell[]; catchCells: CatchCell[] } {
   const count = (x: number) => Number.isInteger(x) && x >= 0;
   const frac = (x: number) => x >= 0 && x < 1;
   if (!isCells) {
-    const rows: TrialRow[] = parsed.data.map((r, i) => ({
-      basePrice: field(r, 'base_price', i + 2, price, 'must be a number above 0'),
-      discount: field(r, 'discount', i + 2, frac, 'must be a fraction from 0 (catch trial) to below 1'),
-      response: field(r, 'response', i + 2, (x) => x === 0 || x === 1, 'must be 0 or 1') as 0 | 1,
-    }));
-    return aggregateTrials(rows);
+    const withIds = cols.includes('respondent');
+    const rows: TrialRow[] = parsed.data.map((r, i) => {
+      const row: TrialRow = {
+        basePrice: field(r, 'base_price', i + 2, price, 'must be a number above 0'),
+        discount: field(r, 'discount', i + 2, frac, 'must be a fraction from 0 (catch trial) to below 1'),
+        response: field(r, 'response', i + 2, (x) => x === 0 || x === 1, 'must be 0 or 1') as 0 | 1,
+      };
+      if (withIds) {
+        const id = (r.respondent ?? '').trim();
+        if (id === '') throw new BadInput(`line ${i + 2}: respondent is empty (every row needs its shopper when the column is present)`);
+        row.respondent = id;
+      }
+      return row;
+    });
+    return withIds ? { ...aggregateTrials(rows), shopperCells: shopperCellsOf(rows) } : aggregateTrials(rows);
   }
   const cells: Cell[] = [];
   const catchCells: CatchCell[] = [];
@@ -85,6 +97,19 @@ function readRows(file: string): { cells: Cell[]; catchCells: CatchCell[] } {
   return { cells, catchCells };
 }
 
+/** Trial rows → one row per shopper, base and discount (discount 0: catch trials). */
+function shopperCellsOf(rows: TrialRow[]): ShopperCell[] {
+  const map = new Map<string, ShopperCell>();
+  for (const r of rows) {
+    const key = `${r.respondent}\u0000${r.basePrice}|${r.discount}`;
+    let c = map.get(key);
+    if (!c) { c = { respondent: r.respondent!, basePrice: r.basePrice, discount: r.discount, n: 0, k: 0 }; map.set(key, c); }
+    c.n++;
+    c.k += r.response;
+  }
+  return [...map.values()];
+}
+
 // Numeric seeds stay numbers in the report; the generator treats 42 and '42' alike.
 function seedOf(v: string | true | undefined): number | string | undefined {
   if (typeof v !== 'string') return undefined;
@@ -97,9 +122,10 @@ function main(): number {
     const task = (opts.task ?? 'spot') as Task;
     if (!['spot', 'pick', 'trip'].includes(task)) throw new BadInput(`--task must be spot, pick or trip, got ${String(task)}`);
     const interval = (opts.interval ?? 'percentile') as IntervalMethod;
-    const { cells, catchCells } = readRows(file);
+    const { cells, catchCells, shopperCells } = readRows(file);
     const report = analyse({
       cells, catchCells: task === 'spot' ? catchCells : [], task,
+      shopperCells: shopperCells ? (task === 'spot' ? shopperCells : shopperCells.filter((r) => r.discount !== 0)) : undefined,
       bootstrap: num(opts, 'bootstrap'), seed: seedOf(opts.seed),
       target: num(opts, 'target'), guess: num(opts, 'guess'), lapse: num(opts, 'lapse'),
       intervalMethod: interval, monteCarloP: opts['monte-carlo-p'] === true,

@@ -76,7 +76,7 @@ function WeberSvg({ report, currency, width, height }: { report: AnalysisReport;
             <text x={X(r.pts[1].x) - 4} y={Y(r.pts[1].y) - 5} textAnchor="end" fontSize={11} fill={COLORS.muted}>{r.label}</text>
           </g>
         ))}
-        {power.weberSlope !== null && mid ? <LinePath data={line(power.weberSlope, { x: mid.basePrice, y: mid.amount })} x={(d) => X(d.x)} y={(d) => Y(d.y)} stroke={COLORS.teal} strokeWidth={2} /> : null}
+        {power.weberSlope !== null && mid && mid.amount !== null ? <LinePath data={line(power.weberSlope, { x: mid.basePrice, y: mid.amount })} x={(d) => X(d.x)} y={(d) => Y(d.y)} stroke={COLORS.teal} strokeWidth={2} /> : null}
         {pts.map((p) => p.ci ? <line key={`ci${p.x}`} x1={X(p.x)} x2={X(p.x)} y1={Y(clipY(p.ci[0]))} y2={Y(clipY(p.ci[1]))} stroke={COLORS.amber} strokeWidth={1.5} /> : null)}
         {pts.map((p) => <rect key={`p${p.x}`} x={X(p.x) - 4} y={Y(p.y) - 4} width={8} height={8} fill={COLORS.amber} stroke="#fff" strokeWidth={0.8} />)}
         {bounds.map((b) => (

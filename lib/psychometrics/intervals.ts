@@ -10,12 +10,27 @@ function finiteSorted(samples: ArrayLike<number>): Float64Array {
   return Float64Array.from(out).sort();
 }
 
-/** Percentile interval of the bootstrap distribution (Wichmann & Hill 2001, part II). */
-export function percentileCi(samples: ArrayLike<number>): Interval | null {
+/**
+ * Percentile interval of the bootstrap distribution (Wichmann & Hill 2001, part II). With
+ * `clusters` (the number of shoppers resampled) the expanded percentile interval: the tail
+ * share α' with z_{α'/2} = sqrt(S/(S − 1))·t_{S−1, α/2}, which undoes the bootstrap's
+ * (S − 1)/S variance shrinkage and uses Student's t for a spread estimated from S units
+ * (Hesterberg 2015, The American Statistician 69(4), from memory). For 40 shoppers the tails
+ * are 2.0 % instead of 2.5 %; for many shoppers it is the plain percentile interval.
+ */
+export function percentileCi(samples: ArrayLike<number>, clusters?: number): Interval | null {
   const s = finiteSorted(samples);
   if (s.length < 10) return null;
-  const a = (1 - LEVEL) / 2;
+  const a = tailShare(clusters);
   return [quantileSorted(s, a), quantileSorted(s, 1 - a)];
+}
+
+/** Lower tail share of the 95 % percentile interval (expanded for S clusters, see percentileCi). */
+export function tailShare(clusters?: number): number {
+  const a = (1 - LEVEL) / 2;
+  if (!clusters || clusters < 3) return a;
+  const z = Math.sqrt(clusters / (clusters - 1)) * jStat.studentt.inv(1 - a, clusters - 1);
+  return jStat.normal.cdf(-z, 0, 1);
 }
 
 /**

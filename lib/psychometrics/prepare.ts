@@ -1,3 +1,7 @@
+// Cells merged and sorted into typed arrays, and the guess-rate set-up: which bases share a γ
+// parameter (spot task with catch trials) or what fixed γ each base has (pick 0.5, trip 0,
+// a given value). The catch trials themselves enter the likelihood (fit-core.ts); the values
+// here are only starting points and the fixed cases.
 import { PsychometricsInputError } from './errors';
 import type { Cell, CatchCell, Task } from './types';
 import { validateCells, validateRate } from './validate';
@@ -23,8 +27,11 @@ export interface Prepared {
   guessSource: GuessSource[];
   catchN: Float64Array;
   catchK: Float64Array;
-  /** Guess rates come from catch counts, so the bootstrap resamples them too. */
+  /** γ is a parameter estimated with the catch trials in the likelihood (spot task). */
   guessFromCatch: boolean;
+  /** γ group of each base (a parameter index among the γs), or −1 when γ is fixed. */
+  guessGroup: Int32Array;
+  nGuessGroups: number;
   lapseFixed: number | null;
   minX: number;
   maxX: number;
@@ -57,7 +64,7 @@ export function prepare(
     baseStart: new Int32Array(J), baseEnd: new Int32Array(J), cellBase: new Int32Array(m),
     discount: new Float64Array(m), x: new Float64Array(m), n: new Float64Array(m), k: new Float64Array(m),
     guess: new Float64Array(J), guessSource: [], catchN: new Float64Array(J), catchK: new Float64Array(J),
-    guessFromCatch: false, lapseFixed: lapseGiven ?? null, minX: Infinity, maxX: -Infinity, warnings,
+    guessFromCatch: false, guessGroup: new Int32Array(J).fill(-1), nGuessGroups: 0, lapseFixed: lapseGiven ?? null, minX: Infinity, maxX: -Infinity, warnings,
   };
   prep.baseStart.fill(-1);
   cells.forEach((c, i) => {
@@ -85,12 +92,17 @@ export function prepare(
 
 /**
  * γ per base: given by the caller; 0.5 for pick (two-alternative choice); 0 for trip; for
- * spot the false-alarm rate of that base's catch trials, pooled over bases when a base has
- * fewer than MIN_CATCH_PER_BASE of them.
+ * spot a parameter fitted with that base's catch trials in the likelihood. A base with at
+ * least MIN_CATCH_PER_BASE catch trials gets its own γ; the others share one γ when their
+ * catch trials together reach that many, and otherwise every base shares one γ (too few
+ * catch trials to tell bases apart). prep.guess holds the add-half catch rate of each base's
+ * group: the starting value.
  */
 export function setGuessRates(prep: Prepared, guessGiven?: number): void {
   const J = prep.bases.length;
   prep.guessFromCatch = false;
+  prep.guessGroup.fill(-1);
+  prep.nGuessGroups = 0;
   if (guessGiven !== undefined || prep.task !== 'spot') {
     const g = guessGiven ?? (prep.task === 'pick' ? 0.5 : 0);
     prep.guess.fill(g);
@@ -106,30 +118,27 @@ export function setGuessRates(prep: Prepared, guessGiven?: number): void {
     return;
   }
   prep.guessFromCatch = true;
-  const pooledBases: string[] = [];
-  for (let j = 0; j < J; j++) {
-    const own = prep.catchN[j] >= MIN_CATCH_PER_BASE;
-    prep.guess[j] = own ? prep.catchK[j] / prep.catchN[j] : pk / pn;
-    prep.guessSource[j] = own ? 'own catch trials' : 'pooled catch trials';
-    if (!own) pooledBases.push(String(prep.bases[j]));
-  }
+  const own: number[] = [], rest: number[] = [];
+  for (let j = 0; j < J; j++) (prep.catchN[j] >= MIN_CATCH_PER_BASE ? own : rest).push(j);
+  let restN = 0;
+  for (const j of rest) restN += prep.catchN[j];
+  let groups: number[][];
+  if (rest.length === 0) groups = own.map((j) => [j]);
+  else if (restN >= MIN_CATCH_PER_BASE || own.length === 0) groups = [...own.map((j) => [j]), rest];
+  else groups = [[...own, ...rest].sort((a, b) => a - b)];
+  groups.forEach((members, g) => {
+    let n = 0, k = 0;
+    for (const j of members) { n += prep.catchN[j]; k += prep.catchK[j]; }
+    for (const j of members) {
+      prep.guessGroup[j] = g;
+      prep.guess[j] = (k + 0.5) / (n + 1);
+      prep.guessSource[j] = members.length === 1 ? 'own catch trials' : 'pooled catch trials';
+    }
+  });
+  prep.nGuessGroups = groups.length;
+  const pooledBases = prep.bases.filter((_, j) => prep.guessSource[j] === 'pooled catch trials');
   if (pooledBases.length) {
-    prep.warnings.push(`fewer than ${MIN_CATCH_PER_BASE} catch trials at base ${pooledBases.join(', ')}: guess rate pooled over all bases`);
+    prep.warnings.push(`fewer than ${MIN_CATCH_PER_BASE} catch trials at base ${prep.bases.filter((_, j) => prep.catchN[j] < MIN_CATCH_PER_BASE).join(', ')}: guess rate shared by base ${pooledBases.join(', ')}`);
   }
-  if (Math.max(...prep.guess) > 0.5) prep.warnings.push('false-alarm rate above 0.5 on catch trials: check the data-quality exclusions');
-}
-
-/** Guess rates redrawn from the catch counts, same pooling rule (for the bootstrap). */
-export function resampleGuess(prep: Prepared, draw: (n: number, p: number) => number, out: Float64Array): void {
-  const J = prep.bases.length;
-  let pn = 0, pk = 0;
-  const kk = new Float64Array(J);
-  for (let j = 0; j < J; j++) {
-    kk[j] = draw(prep.catchN[j], prep.guess[j]);
-    pn += prep.catchN[j];
-    pk += kk[j];
-  }
-  for (let j = 0; j < J; j++) {
-    out[j] = prep.catchN[j] >= MIN_CATCH_PER_BASE ? kk[j] / prep.catchN[j] : pk / pn;
-  }
+  if (pk / pn > 0.5) prep.warnings.push('false-alarm rate above 0.5 on catch trials: check the data-quality exclusions');
 }

@@ -1,47 +1,71 @@
 import type { Interval, ModelName, Task } from './types';
 
-export interface BaseReport {
-  basePrice: number;
-  nTrials: number;
-  guess: number;
-  guessSource: string;
-  lapse: number;
-  slope: number;
-  slopeCi: Interval | null;
-  /** `bound` (absent in older reports) is set when the data only bound the threshold. */
-  threshold: { fraction: number; amount: number; fractionCi: Interval | null; amountCi: Interval | null; bound?: ThresholdBound | null };
-  /** Pointwise bootstrap band of the fitted curve (the same samples as the intervals); null or absent in older reports. */
-  band?: CurveBandPoint[] | null;
-  deviance: number;
-  devianceDf: number;
-  devianceP: number | null;
-  /** Share of bootstrap deviances at least as large as the observed one (monteCarloP option). */
-  devianceMonteCarloP?: number | null;
-  overdispersed: boolean;
-  verdict: 'fits well' | 'poor fit';
-}
-
-/** One point of a curve's pointwise bootstrap band: notice rates lo–hi at a discount fraction. */
-export interface CurveBandPoint {
+/** One point of a base's pointwise 95 % band for the notice curve (same bootstrap samples as the intervals). */
+export interface BandPoint {
   discount: number;
   lo: number;
   hi: number;
 }
 
-/** A likelihood-ratio test; `method` says how its p-value was calibrated (absent in older reports). */
-export interface LrTest {
-  chi2: number;
-  df: number;
-  p: number | null;
-  method?: string;
+/** Names the results page uses for the same shapes. */
+export type CurveBandPoint = BandPoint;
+export type LrTest = ModelTest;
+
+export interface BaseReport {
+  basePrice: number;
+  nTrials: number;
+  guess: number;
+  /** 95 % interval of the guess rate when it is estimated from catch trials (spot task), else null. */
+  guessCi?: Interval | null;
+  guessSource: string;
+  lapse: number;
+  slope: number;
+  slopeCi: Interval | null;
+  /**
+   * fraction/amount are null when the data only bound the threshold (see `bound`): nobody
+   * noticed even the deepest rung ('above') or everybody noticed the shallowest ('below').
+   */
+  threshold: { fraction: number | null; amount: number | null; fractionCi: Interval | null; amountCi: Interval | null; bound?: ThresholdBound | null };
+  /** Pointwise 95 % band of the notice curve across the tested ladder; null without a bootstrap. */
+  band?: BandPoint[] | null;
+  deviance: number;
+  devianceDf: number;
+  devianceP: number | null;
+  /** Share of parametric-bootstrap deviances at least as large as the observed one (null without a bootstrap). */
+  devianceMonteCarloP?: number | null;
+  /** The Monte-Carlo deviance p-value is below 0.05 (the data disagree with independent binomial trials). */
+  overdispersed: boolean;
+  verdict: 'fits well' | 'poor fit';
 }
 
 export interface ModelThreshold {
   basePrice: number;
-  fraction: number;
-  amount: number;
+  /** Null when the model puts the threshold outside the rungs tested at this base (see bound). */
+  fraction: number | null;
+  amount: number | null;
   /** ln of the mid-point threshold fraction (the model's α for this base). */
   alpha: number;
+  bound?: ThresholdBound | null;
+  /** 95 % bootstrap interval of the fraction (same samples and method as the other intervals). */
+  fractionCi?: Interval | null;
+}
+
+/** A model-comparison test: the likelihood-ratio statistic and a p-value from the named method. */
+export interface ModelTest {
+  /** Likelihood-ratio statistic 2·(ℓ_larger − ℓ_nested). */
+  chi2: number;
+  df: number;
+  p: number | null;
+  /** How p was calibrated, in words. */
+  method?: string;
+}
+
+/** Bootstrap samples whose refits gave a non-finite statistic or did not converge (counted, never dropped silently). */
+export interface BootstrapFailures {
+  /** Samples in which at least one reported statistic was not a finite number (left out of the intervals). */
+  nonFinite: number;
+  /** Samples in which at least one refit did not converge (kept; their best point is used). */
+  notConverged: number;
 }
 
 export interface ModelReport {
@@ -54,6 +78,8 @@ export interface ModelReport {
   lapse: number;
   converged: boolean;
   thresholds: ModelThreshold[];
+  /** Monte-Carlo deviance p-value (parametric bootstrap under this model); computed for the preferred model. */
+  devianceMonteCarloP?: number | null;
 }
 
 export interface AnalysisReport {
@@ -64,21 +90,24 @@ export interface AnalysisReport {
   bases: BaseReport[];
   models: {
     free: ModelReport;
-    weber: ModelReport & { weberFraction: number; weberFractionCi: Interval | null };
+    weber: ModelReport & { weberFraction: number; weberFractionCi: Interval | null; weberFractionBound?: ThresholdBound | null };
     constantAmount: ModelReport & { amount: number };
     power: ModelReport & { a: number; weberSlope: number | null; weberSlopeCi: Interval | null };
   };
   tests: {
-    weberVsPower: LrTest;
-    powerVsFree: LrTest;
-    /** Constant amount vs power (slope 0), absent in older reports. */
-    constantVsPower?: LrTest;
+    weberVsPower: ModelTest;
+    powerVsFree: ModelTest;
+    /** Constant amount vs power (1 df, nested at Weber slope 0). */
+    constantVsPower?: ModelTest;
   };
   preferredModel: 'free' | 'weber' | 'constantAmount' | 'power';
   intervalMethod: string;
   bootstrapSamples: number;
   seed: number | string;
   warnings: string[];
+  /** Number of shoppers (respondent ids) behind the fit, or null for data without ids. */
+  shoppers?: number | null;
+  bootstrapFailures?: BootstrapFailures;
   /** 'shopper' when trials carried respondent ids (respondent-level bootstrap), else 'trial'. */
   unit?: 'shopper' | 'trial';
   /** Present when respondent ids were given (see ShopperSpreadReport). */

@@ -45,8 +45,14 @@ export function poolShopperCells(rows: ShopperCell[]): { cells: Cell[]; catchCel
 /** Per-shopper cells → count vectors aligned with the prepared cells (prepare() first). */
 export function shopperCounts(prep: Prepared, rows: ShopperCell[]): ShopperCounts {
   const m = prep.x.length, J = prep.bases.length;
-  const cellIndex = new Map<string, number>();
-  for (let i = 0; i < m; i++) cellIndex.set(`${prep.bases[prep.cellBase[i]]}|${prep.discount[i]}`, i);
+  // base price → discount → prepared cell (numeric keys: no string per row)
+  const cellIndex = new Map<number, Map<number, number>>();
+  for (let i = 0; i < m; i++) {
+    const b = prep.bases[prep.cellBase[i]];
+    let byDiscount = cellIndex.get(b);
+    if (!byDiscount) { byDiscount = new Map(); cellIndex.set(b, byDiscount); }
+    byDiscount.set(prep.discount[i], i);
+  }
   const baseIndex = new Map(prep.bases.map((b, j) => [b, j]));
   const shopperIndex = new Map<string, number>();
   for (const r of rows) if (!shopperIndex.has(r.respondent)) shopperIndex.set(r.respondent, shopperIndex.size);
@@ -64,7 +70,7 @@ export function shopperCounts(prep: Prepared, rows: ShopperCell[]): ShopperCount
       out.catchN[s * J + j] += r.n; out.catchK[s * J + j] += r.k;
       continue;
     }
-    const i = cellIndex.get(`${r.basePrice}|${r.discount}`);
+    const i = cellIndex.get(r.basePrice)?.get(r.discount);
     if (i === undefined) continue; // cells with n = 0 are dropped by prepare()
     out.n[s * m + i] += r.n; out.k[s * m + i] += r.k;
   }

@@ -33,7 +33,9 @@ describe('getStudyFit: queued job, cached result, workspace scope', () => {
     expect(state.fit.report.bootstrapSamples).toBe(1000);
     // The poor-fit flag follows its rule: a base judged a poor fit, or the preferred joint model's deviance p < 0.05.
     const preferred = state.fit.report.models[state.fit.report.preferredModel];
-    const jointP = chiSquareP(preferred.deviance, preferred.devianceDf);
+    // (its Monte-Carlo deviance p-value when the engine computed one, else the χ² tail)
+    expect(preferred.devianceMonteCarloP).not.toBeUndefined();
+    const jointP = preferred.devianceMonteCarloP ?? chiSquareP(preferred.deviance, preferred.devianceDf);
     expect(state.fit.poorFit).toBe(state.fit.report.bases.some((b) => b.verdict === 'poor fit') || (jointP !== null && jointP < 0.05));
     expect(state.counts!.respondents.before).toBe(40);
     expect(state.counts!.respondents.after).toBeLessThan(40);

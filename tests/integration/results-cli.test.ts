@@ -35,19 +35,23 @@ describe('results of a seeded study equal the fit CLI on its exported raw trials
     expect(kept.length).toBe(state.counts!.trials.after);
     const dir = mkdtempSync(path.join(tmpdir(), 'nw-cli-'));
     const file = path.join(dir, 'kept.csv');
-    writeFileSync(file, Papa.unparse(kept.map((r) => ({ base_price: r.base_price, discount: r.discount, response: r.response }))));
+    // With the respondent column the CLI resamples whole shoppers, as the app does.
+    writeFileSync(file, Papa.unparse(kept.map((r) => ({ respondent: r.respondent, base_price: r.base_price, discount: r.discount, response: r.response }))));
     const out = execFileSync(path.resolve('node_modules/.bin/tsx'), ['scripts/fit.ts', file, '--task', 'spot', '--bootstrap', '1000', '--seed', '1'], { encoding: 'utf8' });
     const cli = JSON.parse(out) as AnalysisReport;
     const app = state.fit.report;
     expect(cli.bases.map((b) => b.basePrice)).toEqual(app.bases.map((b) => b.basePrice));
     cli.bases.forEach((b, j) => {
-      expect(Math.abs(b.threshold.fraction - app.bases[j].threshold.fraction)).toBeLessThan(1e-9);
+      expect(b.threshold.fraction === null).toBe(app.bases[j].threshold.fraction === null);
+      expect(Math.abs((b.threshold.fraction ?? 0) - (app.bases[j].threshold.fraction ?? 0))).toBeLessThan(1e-9);
       expect(Math.abs(b.threshold.fractionCi![0] - app.bases[j].threshold.fractionCi![0])).toBeLessThan(1e-9);
       expect(Math.abs(b.threshold.fractionCi![1] - app.bases[j].threshold.fractionCi![1])).toBeLessThan(1e-9);
       expect(Math.abs(b.slope - app.bases[j].slope)).toBeLessThan(1e-9);
     });
     expect(Math.abs(cli.models.power.weberSlope! - app.models.power.weberSlope!)).toBeLessThan(1e-9);
     expect(cli.intervalMethod).toBe(app.intervalMethod);
+    expect(app.unit).toBe('shopper');
+    expect(cli.unit).toBe('shopper');
   });
 
   it('thresholds CSV: one row per base price, plain column names with units; JSON header block', async () => {
@@ -62,7 +66,11 @@ describe('results of a seeded study equal the fit CLI on its exported raw trials
     const json = await (await callRoute(exportGet, { params: { workspace: ws.slug, study: studyId, file: 'thresholds.json' } })).json();
     expect(json.about).toMatchObject({ dataVersion: 1, currency: 'EUR' });
     expect(json.about.exclusionRules.length).toBeGreaterThan(0);
-    expect(json.about.intervalMethod).toMatch(/parametric bootstrap, 1000 samples/);
+    expect(json.about.intervalMethod).toMatch(/respondent-level bootstrap \(whole shoppers resampled, \d+ shoppers\), 1000 samples/);
+    expect(json.about.unit).toMatch(/^shopper/);
+    expect(json.about.testWeberVsPower).toMatch(/respondent-level bootstrap SE/);
+    expect(json.about.bootstrapFailures).toMatch(/of 1000 samples non-finite/);
+    expect(header).toContain('Threshold bound');
     expect(json.about.cautions.join(' ')).toMatch(/16 CFR Part 233/);
     const about = await (await callRoute(exportGet, { params: { workspace: ws.slug, study: studyId, file: 'thresholds-about.csv' } })).text();
     expect(about.split('\r\n')[0]).toBe('Field,Value');

@@ -29,7 +29,8 @@ export interface CacheRow<T> {
 }
 
 /** Bump when the engine or the job's inputs change meaning, so old cached numbers are not reused. */
-export const CACHE_FORMAT = 1;
+// 2: the shopper became the unit (issue 12): per-shopper cells, new report fields.
+export const CACHE_FORMAT = 2;
 
 export function hashKey(parts: unknown): string {
   return createHash('sha256').update(JSON.stringify({ f: CACHE_FORMAT, parts })).digest('hex');

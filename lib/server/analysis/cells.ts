@@ -4,14 +4,18 @@ import type { IStudy } from '@/entities/study';
 import { brokenRules, emptyCounts, type ExclusionCounts, type RespondentQuality } from '@/lib/exclusions';
 import type { ExclusionRuleId, ExclusionRules } from '@/lib/schemas/exclusions.schema';
 import type { StudyDesign } from '@/lib/schemas/study.schema';
-import type { Cell, CatchCell } from '@/lib/psychometrics/types';
+import { poolShopperCells } from '@/lib/psychometrics/shoppers';
+import type { Cell, CatchCell, ShopperCell } from '@/lib/psychometrics/types';
 import { em } from '@/lib/server/db/orm';
 import { sql, sqlOne } from '@/lib/server/db/sql';
 import { loadStudy, toDetail, type StudyDetail } from '@/lib/server/studies/studies';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
 // Trials → the engine's cells, after the study's exclusion rules. Aggregation happens in SQL
-// (GROUP BY base price and discount) so the cost stays with the design, not the respondents.
+// (GROUP BY respondent, base price and discount) so the engine gets one small count vector per
+// shopper — the shopper is the sampled unit of its bootstrap and tests (DESIGN.md → "The
+// shopper is the unit") — and the cost stays with shoppers × design, not with trials.
+// Imported respondents have ids like any other, so imports are resampled by shopper too.
 // Only finished respondents count: completed ones and imported ones (drop-outs are fieldwork
 // information, not data for the fit).
 
@@ -96,35 +100,38 @@ export function screen(rows: RespondentRow[], rules: ExclusionRules): Screened {
 
 export interface CellData { cells: Cell[]; catchCells: CatchCell[] }
 
+export interface ShopperCellData extends CellData {
+  /** One row per kept shopper, base and discount (discount 0: that shopper's catch trials). */
+  shopperCells: ShopperCell[];
+}
+
 /**
- * Cells from the kept respondents, optionally only those who gave `answer` to segment
- * question `questionId`. Discount-0 trials and kind 'catch' both count as catch trials.
+ * Per-shopper cells of the kept respondents (optionally only those who gave `answer` to
+ * segment question `questionId`), plus the pooled cells they sum to (the dots on the charts).
+ * Discount-0 trials and kind 'catch' both count as catch trials.
  */
-export async function loadCells(studyId: string, keptIds: string[], segment?: { questionId: string; answer: string } | null): Promise<CellData> {
-  if (!keptIds.length) return { cells: [], catchCells: [] };
+export async function loadShopperCells(studyId: string, keptIds: string[], segment?: { questionId: string; answer: string } | null): Promise<ShopperCellData> {
+  if (!keptIds.length) return { cells: [], catchCells: [], shopperCells: [] };
   const params: unknown[] = [studyId, JSON.stringify(keptIds)];
   let segmentSql = '';
   if (segment) { segmentSql = 'and r.segment_answers ->> ? = ?'; params.push(segment.questionId, segment.answer); }
-  const rows = await sql<{ base_price: number; discount: number; catch: boolean; n: number; k: number }>(
+  const rows = await sql<{ rid: string; base_price: number; discount: number; n: number; k: number }>(
     await em(),
-    `select t.base_price, t.discount, (t.kind = 'catch' or t.discount = 0) as catch, count(*)::int as n, sum(t.answer)::int as k
+    `select r.id::text as rid, t.base_price, case when t.kind = 'catch' or t.discount = 0 then 0 else t.discount end as discount,
+            count(*)::int as n, sum(t.answer)::int as k
        from trial t join respondent r on r.id = t.respondent_id
       where t.study_id = ? and t.kind in ('test', 'catch')
         and r.id::text in (select jsonb_array_elements_text(?::jsonb)) ${segmentSql}
-      group by 1, 2, 3 order by 1, 2`,
+      group by 1, 2, 3 order by 1, 2, 3`,
     params,
   );
-  const cells: Cell[] = [];
-  const catchMap = new Map<number, CatchCell>();
-  for (const r of rows) {
-    const basePrice = Number(r.base_price);
-    if (r.catch) {
-      const c = catchMap.get(basePrice) ?? { basePrice, n: 0, k: 0 };
-      c.n += Number(r.n); c.k += Number(r.k);
-      catchMap.set(basePrice, c);
-    } else cells.push({ basePrice, discount: Number(r.discount), n: Number(r.n), k: Number(r.k) });
-  }
-  return { cells, catchCells: [...catchMap.values()] };
+  const shopperCells: ShopperCell[] = rows.map((r) => ({
+    respondent: String(r.rid), basePrice: Number(r.base_price), discount: Number(r.discount), n: Number(r.n), k: Number(r.k),
+  }));
+  const pooled = poolShopperCells(shopperCells);
+  pooled.cells.sort((a, b) => a.basePrice - b.basePrice || a.discount - b.discount);
+  pooled.catchCells.sort((a, b) => a.basePrice - b.basePrice);
+  return { ...pooled, shopperCells };
 }
 
 /** Whether any finished respondent answered a test trial (cheap check before queueing a fit). */

@@ -14,6 +14,10 @@ import { findStudy, respondentRows, screen } from './cells';
 // Export files, shared by the signed-in routes and the token API (/api/v1). Thresholds come as
 // CSV (with a side file thresholds-about.csv holding the header block as Field,Value rows, so
 // the table itself opens cleanly in a spreadsheet) and as JSON (header block + rows).
+// A threshold the data only bound (nobody noticed the deepest rung, or everybody the
+// shallowest) has no number: the CSV's threshold cells stay empty and the "Threshold bound"
+// column says "> 24 %" / "< 1 %"; the JSON carries `bound`. The about block names the unit
+// (shopper or trial), the interval and test methods and the bootstrap failures.
 
 export const EXPORT_FILES = ['thresholds.csv', 'thresholds-about.csv', 'thresholds.json', 'report.json', 'trials.csv'] as const;
 export type ExportFile = (typeof EXPORT_FILES)[number];
@@ -57,10 +61,24 @@ function about(state: FitState, report: AnalysisReport, segmentQuestion: string 
     weberSlope: report.models.power.weberSlope,
     weberSlopeInterval: report.models.power.weberSlopeCi,
     target: report.targetMeaning === 'mid-point' ? 'curve mid-point (half-way between guess rate and 1 − lapse)' : `notice rate ${report.target}`,
+    unit: report.unit === 'shopper' ? `shopper (${report.shoppers ?? '?'} respondents resampled as whole units)` : 'trial (intervals assume independent trials)',
     intervalMethod: report.intervalMethod,
+    testWeberVsPower: testText(report.tests.weberVsPower),
+    testPowerVsFree: testText(report.tests.powerVsFree),
+    testConstantVsPower: report.tests.constantVsPower ? testText(report.tests.constantVsPower) : null,
+    bootstrapFailures: report.bootstrapFailures ? `${report.bootstrapFailures.nonFinite} of ${report.bootstrapSamples} samples non-finite, ${report.bootstrapFailures.notConverged} with a refit that did not converge` : null,
     segmentQuestion: q ? q.text : null,
     cautions: fitCautions(report, isPoorFit(report)),
   };
+}
+
+function testText(t: AnalysisReport['tests']['weberVsPower']): string {
+  return `p = ${t.p === null ? '—' : t.p.toPrecision(3)} (LR ${t.chi2.toFixed(2)} on ${t.df} df; ${t.method ?? 'likelihood ratio, χ² reference'})`;
+}
+
+function boundText(b: AnalysisReport['bases'][number]['threshold']['bound']): string {
+  if (!b) return '';
+  return `${b.kind === 'above' ? '>' : '<'} ${round(b.fraction * 100, 4)} %`;
 }
 
 function thresholdRows(state: FitState, report: AnalysisReport, segment: Segment | null, questionText: string | null) {
@@ -69,18 +87,20 @@ function thresholdRows(state: FitState, report: AnalysisReport, segment: Segment
     'Segment question': questionText ?? '',
     'Segment answer': segment?.answer ?? 'All respondents',
     [`Base price (${cur})`]: b.basePrice,
-    'Notice threshold (% of base price)': round(b.threshold.fraction * 100, 4),
+    'Notice threshold (% of base price)': round(b.threshold.fraction === null ? null : b.threshold.fraction * 100, 4),
     [`Notice threshold (${cur})`]: round(b.threshold.amount, 4),
     '95% interval low (%)': round(b.threshold.fractionCi ? b.threshold.fractionCi[0] * 100 : null, 4),
     '95% interval high (%)': round(b.threshold.fractionCi ? b.threshold.fractionCi[1] * 100 : null, 4),
     [`95% interval low (${cur})`]: round(b.threshold.amountCi?.[0], 4),
     [`95% interval high (${cur})`]: round(b.threshold.amountCi?.[1], 4),
+    'Threshold bound': boundText(b.threshold.bound),
     'Slope (per unit of ln discount)': round(b.slope, 4),
     'Lapse rate (%)': round(b.lapse * 100, 3),
     'Guess rate (%)': round(b.guess * 100, 3),
     'Trials': b.nTrials,
     'Deviance p-value': round(b.devianceP, 4),
     'Verdict': b.verdict,
+    'Interval unit': report.unit ?? 'trial',
   }));
 }
 

@@ -39,7 +39,8 @@ export async function getPlan(ctx: WorkspaceContext, studyId: string, widthPoint
   const payload = {
     widthPoints, assumed, task: s.design.task, rungs: s.design.ladder, repetitions: s.design.repetitions,
     currentCompletes: fit.counts?.respondents.after ?? 0,
-    bases: report.bases.map((b) => ({ basePrice: b.basePrice, alpha: Math.log(b.threshold.fraction), fraction: b.threshold.fraction, ci: b.threshold.fractionCi })),
+    // A threshold known only as a bound plans at the rung that bounds it (fraction null in the report).
+    bases: report.bases.map((b) => { const f = b.threshold.fraction ?? b.threshold.bound?.fraction ?? NaN; return { basePrice: b.basePrice, alpha: Math.log(f), fraction: f, ci: b.threshold.fractionCi }; }),
   };
   const cacheKey = hashKey({ fit: fitCacheKey(s, {}).cacheKey, widthPoints, sims: PLANNER_SIMULATIONS });
   const row = await requestComputation<PlannerResult>({ studyId: s.id, kind: 'planner', cacheKey, dataVersion: s.dataVersion, queue: 'planner', payload });

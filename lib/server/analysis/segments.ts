@@ -6,10 +6,12 @@ import { FIT_SEED, loadFitInput } from './study-fit';
 import { em } from '@/lib/server/db/orm';
 import { AppError } from '@/lib/server/http/errors';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
-import { findStudy, hasAnsweredTests, loadCells } from './cells';
+import { findStudy, hasAnsweredTests, loadShopperCells } from './cells';
 
 // Segment comparison: each answer group of one segment question fitted on its own (power
-// model), then one shared model on all groups; the likelihood-ratio test asks whether they differ.
+// model), then one shared model on all groups; the likelihood-ratio statistic asks whether they
+// differ, its p-value from a permutation of whole shoppers between the groups (the engine's
+// segments.ts), since every respondent carries an id.
 
 export const SEGMENT_BOOTSTRAP = 200;
 
@@ -47,9 +49,10 @@ export async function runSegmentsJob(data: JobData & { questionId: string }, las
     for (const answer of q.options) {
       const ids = loaded.kept.filter((r) => r.segmentAnswers[q.id] === answer).map((r) => r.id);
       respondents[answer] = ids.length;
-      const cells = await loadCells(data.studyId, ids);
+      const cells = await loadShopperCells(data.studyId, ids);
       if (!cells.cells.length) { skipped.push(answer); continue; }
-      groups.push({ label: answer, cells: cells.cells, catchCells: loaded.study.design.task === 'spot' ? cells.catchCells : [] });
+      const spot = loaded.study.design.task === 'spot';
+      groups.push({ label: answer, shopperCells: spot ? cells.shopperCells : cells.shopperCells.filter((r) => r.discount !== 0) });
     }
     if (groups.length < 2) throw new PsychometricsInputError('fewer than two answer groups have data, so there is nothing to compare');
     const result = compareGroups(groups, { task: loaded.study.design.task, bootstrap: SEGMENT_BOOTSTRAP, seed: FIT_SEED });

@@ -12,14 +12,15 @@ import { em } from '@/lib/server/db/orm';
 import { sql } from '@/lib/server/db/sql';
 import { toDetail, type StudyDetail } from '@/lib/server/studies/studies';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
-import { findStudy, hasAnsweredTests, loadCells, respondentRows, screen, type StudyInfo } from './cells';
+import { findStudy, hasAnsweredTests, loadShopperCells, respondentRows, screen, type StudyInfo } from './cells';
 
 // The fitted study: per-base fits and the joint Weber models with bootstrap intervals, computed
 // by the 'analysis' job and cached per data version, exclusion rules and options (./cache.ts).
 // `getStudyFit` is the contract other domains use (promotion plans, exports): ready, pending
 // (the caller answers 202 with Retry-After) or empty. 1,000 bootstrap samples with seed 1, so
 // the numbers equal `npm run fit -- trials.csv --bootstrap 1000 --seed 1`; the CLI and the app
-// are held equal to 1e-9 by tests/integration/results-cli.test.ts.
+// are held equal to 1e-9 by tests/integration/results-cli.test.ts (the CLI given the exported
+// trials with their respondent column, so both resample the same shoppers).
 
 /** Fixed so a study's numbers are reproducible (and equal the CLI's with --seed 1 --bootstrap 1000). */
 export const FIT_BOOTSTRAP = 1000;
@@ -53,7 +54,12 @@ export function fitCacheKey(study: Pick<StudyDetail, 'dataVersion' | 'exclusionR
   return { optionsKey, cacheKey: hashKey({ v: study.dataVersion, optionsKey }) };
 }
 
-const preferredP = (r: AnalysisReport) => chiSquareP(r.models[r.preferredModel].deviance, r.models[r.preferredModel].devianceDf);
+// The Monte-Carlo deviance p-value of the preferred model when the engine computed one (the χ²
+// tail of the deviance misleads with few trials per cell), else the χ² tail.
+const preferredP = (r: AnalysisReport) => {
+  const m = r.models[r.preferredModel];
+  return m.devianceMonteCarloP ?? chiSquareP(m.deviance, m.devianceDf);
+};
 
 /** Any base judged a poor fit, or the preferred joint model's deviance p below 0.05. */
 export function isPoorFit(report: AnalysisReport): boolean {
@@ -119,10 +125,11 @@ export async function runFitJob(data: JobData & { segment: Segment | null; targe
     const started = Date.now();
     const loaded = await loadFitInput(data.studyId, data.dataVersion, data.segment);
     if (loaded === 'obsolete') return 'obsolete';
-    const { study, cells, catchCells, counts } = loaded;
+    const { study, cells, catchCells, shopperCells, counts } = loaded;
+    // Per-shopper cells: the engine resamples whole shoppers (catch rows only count on the spot task).
     const report = analyse({
-      cells, catchCells: study.design.task === 'spot' ? catchCells : [], task: study.design.task,
-      target: data.target ?? undefined, bootstrap: FIT_BOOTSTRAP, seed: FIT_SEED,
+      shopperCells: study.design.task === 'spot' ? shopperCells : shopperCells.filter((r) => r.discount !== 0),
+      task: study.design.task, target: data.target ?? undefined, bootstrap: FIT_BOOTSTRAP, seed: FIT_SEED,
     });
     if (study.design.task !== 'spot' && catchCells.length) report.warnings.push(`catch trials ignored: the ${study.design.task} task does not estimate a guess rate from them`);
     const result: FitResult = { report, counts, cells, catchCells, optionsKey: optionsKeyOf(study.exclusionRules, { segment: data.segment, target: data.target ?? undefined }), computedMs: Date.now() - started };
@@ -139,10 +146,10 @@ export async function loadFitInput(studyId: string, dataVersion: number, segment
   const rows = await respondentRows(studyId);
   const { counts, kept } = screen(rows, study.exclusionRules);
   const inSegment = segment ? kept.filter((r) => r.segmentAnswers[segment.questionId] === segment.answer) : kept;
-  const { cells, catchCells } = await loadCells(studyId, inSegment.map((r) => r.id));
+  const { cells, catchCells, shopperCells } = await loadShopperCells(studyId, inSegment.map((r) => r.id));
   const again = await db.findOne(Study, { id: studyId }, { refresh: true, fields: ['dataVersion'] });
   if (!again || again.dataVersion !== dataVersion) return 'obsolete' as const;
-  return { study, cells, catchCells, counts, kept };
+  return { study, cells, catchCells, shopperCells, counts, kept };
 }
 
 /** Studies with answered test trials, for pickers (promotion plans, exports). */

@@ -23,7 +23,7 @@ describe('recovery of a known Weber fraction', () => {
     for (const b of report.bases) {
       expect(b.threshold.fractionCi![0]).toBeLessThan(0.05);
       expect(b.threshold.fractionCi![1]).toBeGreaterThan(0.05);
-      expect(b.threshold.amount).toBeCloseTo(b.threshold.fraction * b.basePrice, 10);
+      expect(b.threshold.amount!).toBeCloseTo(b.threshold.fraction! * b.basePrice, 10);
       expect(b.guess).toBe(0.5);
     }
   });
@@ -64,7 +64,9 @@ describe('model comparison on square-root data', () => {
     const ci = report.models.power.weberSlopeCi!;
     expect(ci[0]).toBeGreaterThan(0);
     expect(ci[1]).toBeLessThan(1);
-    expect(report.tests.weberVsPower.p!).toBeLessThan(0.001);
+    // a parametric-bootstrap p-value with 200 samples bottoms out at 1/201
+    expect(report.tests.weberVsPower.p!).toBeLessThanOrEqual(1 / 201 + 1e-12);
+    expect(report.tests.weberVsPower.method).toMatch(/parametric bootstrap under the weber model/);
   });
 });
 
@@ -79,11 +81,13 @@ describe('lapse rate 0.02 (Wichmann & Hill 2001, Perception & Psychophysics 63(8
     expect(r.bases[0].lapse).toBeGreaterThanOrEqual(0);
     expect(r.bases[0].lapse).toBeLessThanOrEqual(0.06);
     expect(Math.abs(r.bases[0].lapse - 0.02)).toBeLessThan(0.01);
-    expect(Math.abs(Math.log(r.bases[0].threshold.fraction / 0.06))).toBeLessThan(0.05);
+    expect(Math.abs(Math.log(r.bases[0].threshold.fraction! / 0.06))).toBeLessThan(0.05);
   });
 
-  for (const trials of [40, 160]) {
-    it(`95 % intervals cover the true threshold in about 95 % of runs (${trials} trials per cell)`, () => {
+  // 44 × 7 rungs = 308 trials: above the 300 per base that intervals without shopper ids need.
+  for (const trials of [44, 160]) {
+    // Every bootstrap sample now refits γ, λ, the base and all four joint models: more work per run.
+    it(`95 % intervals cover the true threshold in about 95 % of runs (${trials} trials per cell)`, { timeout: 60_000 }, () => {
       const rng = createRng(`coverage-${trials}`);
       const runs = 40;
       let covered = 0;

@@ -123,9 +123,9 @@ describe('shopper spread: honest edges', () => {
     expect(other.typicalFraction).not.toBeNull();
   });
 
-  it('is absent from the report when trials carry no shopper ids', () => {
+  it('is null in the report when trials carry no shopper ids', () => {
     const rows = study(0.5, 'spread-none', 10);
     const report = analyse({ ...poolShopperCells(rows), task: 'pick', bootstrap: 0 });
-    expect(report.shopperSpread).toBeUndefined();
+    expect(report.shopperSpread).toBeNull();
   });
 });

@@ -2,6 +2,7 @@
 import { useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { segmentsQuery } from '@/lib/queries/results';
+import { thresholdText } from '@/lib/results-text';
 import { FitProgress } from './fit-progress';
 
 type Question = { id: string; text: string; options: string[] };
@@ -35,7 +36,7 @@ export function SegmentsPanel({ slug, studyId, questions, money }: { slug: strin
               {d.result.groups[0].thresholds.map((t, i) => (
                 <tr key={t.basePrice}>
                   <td className="num">{money.format(t.basePrice)}</td>
-                  {d.result.groups.map((g) => <td key={g.label} className="n">{(g.thresholds[i].fraction * 100).toFixed(2)} % · {money.format(g.thresholds[i].amount)}</td>)}
+                  {d.result.groups.map((g) => <td key={g.label} className="n">{thresholdText(g.thresholds[i], (f) => `${(f * 100).toFixed(2)} %`)}{g.thresholds[i].amount === null ? '' : ` · ${money.format(g.thresholds[i].amount!)}`}</td>)}
                 </tr>
               ))}
               <tr className="font-semibold">
@@ -45,7 +46,7 @@ export function SegmentsPanel({ slug, studyId, questions, money }: { slug: strin
             </tbody>
           </table>
           <p className="mt-3 text-sm" data-testid="segment-test">
-            Likelihood-ratio test of one shared power model against one per group: χ² = <span className="num">{d.result.test.chi2.toFixed(2)}</span> on {d.result.test.df} df, p = <span className="num">{pv(d.result.test.p)}</span>.{' '}
+            Likelihood-ratio test of one shared power model against one per group: χ² = <span className="num">{d.result.test.chi2.toFixed(2)}</span> on {d.result.test.df} df, p = <span className="num">{pv(d.result.test.p)}</span>{d.result.test.method ? ` (${d.result.test.method})` : ''}.{' '}
             {d.result.test.p !== null && d.result.test.p < 0.05 ? 'The answer groups notice discounts differently: consider separate promo floors.' : 'No clear evidence that the answer groups differ; one set of thresholds serves them all.'}
           </p>
           <p className="hint">Thresholds from each group&apos;s power model; intervals from {200} bootstrap samples per group.{d.result.skipped.length ? ` Without data: ${d.result.skipped.join(', ')}.` : ''}</p>
