@@ -1,4 +1,5 @@
 'use client';
+import { useId } from 'react';
 import type { UseFormRegisterReturn } from 'react-hook-form';
 
 interface Props {
@@ -10,9 +11,13 @@ interface Props {
   autoComplete?: string;
 }
 
-/** A labelled input with its field error below it. */
+/**
+ * A labelled input with its field error below it. The id is unique per rendered field (useId),
+ * not derived from the field name: two forms on one page may both have a `name` field, and a
+ * label must point at its own input.
+ */
 export function TextField({ label, type = 'text', registration, error, hint, autoComplete }: Props) {
-  const id = `f-${registration.name}`;
+  const id = `f-${registration.name}-${useId().replace(/[^a-zA-Z0-9_-]/g, '')}`;
   return (
     <div className="field">
       <label htmlFor={id}>{label}</label>

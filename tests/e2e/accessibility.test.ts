@@ -5,7 +5,7 @@ import { baseUrl, openBrowser, signIn } from '../support/browser';
 
 // axe-core on the main pages outside the respondent flow (whose screens are checked one by one
 // in respondent-phone-flow.test.ts): sign-in and sign-up, at desktop and phone size, the
-// respondent stop screen, and, signed in, the workspace's study list and a study's page.
+// respondent stop screen, and, signed in, the workspace's study list, a study's page and Settings.
 // Every form control has its own label; names, contrast and landmarks as WCAG 2.x A/AA ask.
 
 describe('the accessibility check', () => {
@@ -60,5 +60,19 @@ describe('the accessibility check', () => {
     const study = await axeViolations(page, 'study-page');
     expect(describeViolations(home)).toBe('');
     expect(describeViolations(study)).toBe('');
+  });
+
+  it('settings: each label points at its own field, and the page passes the check', async () => {
+    await context.clearCookies(); // the test before signed in as the analyst
+    await signIn(page, 'owner@harbourline.example', 'harbour-demo-2026');
+    await page.goto(`${baseUrl()}/w/harbourline/settings`);
+    const tokenName = page.getByLabel('Token name');
+    const workspaceName = page.getByLabel('Workspace name');
+    await tokenName.waitFor();
+    // Both forms register a field called "name": the labels must still reach different inputs.
+    expect(await tokenName.evaluate((el) => el.id)).not.toBe(await workspaceName.evaluate((el) => el.id));
+    await page.getByText('Token name', { exact: true }).click();
+    expect(await page.evaluate(() => document.activeElement?.id)).toBe(await tokenName.evaluate((el) => el.id));
+    expect(describeViolations(await axeViolations(page, 'settings'))).toBe('');
   });
 });

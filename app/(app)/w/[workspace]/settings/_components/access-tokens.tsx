@@ -36,7 +36,7 @@ export function AccessTokens({ slug, initial, appUrl }: { slug: string; initial:
     <section aria-labelledby="tokens-h" className="mt-10 max-w-3xl">
       <h2 id="tokens-h" className="mb-1 text-xl">Access tokens</h2>
       <p className="mb-3 text-sm text-muted">Personal, read-only tokens for the export API, valid in this workspace only. Use one from a notebook or script:</p>
-      <pre className="card mb-4 overflow-x-auto p-3 text-xs num">curl -H &quot;Authorization: Bearer $NOTCHWISE_TOKEN&quot; {appUrl}/api/v1/studies{'\n'}curl -H &quot;Authorization: Bearer $NOTCHWISE_TOKEN&quot; {appUrl}/api/v1/studies/STUDY_ID/thresholds.csv</pre>
+      <pre tabIndex={0} aria-label="Example calls with a token" className="card mb-4 overflow-x-auto p-3 text-xs num">curl -H &quot;Authorization: Bearer $NOTCHWISE_TOKEN&quot; {appUrl}/api/v1/studies{'\n'}curl -H &quot;Authorization: Bearer $NOTCHWISE_TOKEN&quot; {appUrl}/api/v1/studies/STUDY_ID/thresholds.csv</pre>
       <form onSubmit={onSubmit} noValidate className="card mb-4 flex flex-wrap items-end gap-3 p-4">
         <div className="min-w-64 flex-1"><TextField label="Token name" registration={register('name')} error={formState.errors.name?.message} /></div>
         <button className="btn btn-primary" type="submit" disabled={formState.isSubmitting}>Create token</button>
