@@ -29,3 +29,16 @@ export function allowedActions(state: StudyStateName): StudyAction[] {
 
 /** A stored design may change only while the study is a draft; afterwards it is frozen. */
 export const isEditable = (state: StudyStateName) => state === 'draft';
+
+/**
+ * What a respondent link's state column says: a link takes respondents only while it is open
+ * AND its study is live, so the study's state wins over the link's own (a link of a closed
+ * study is never shown as open).
+ */
+export function linkStateLabel(linkClosed: boolean, study: StudyStateName): { text: string; takesRespondents: boolean } {
+  if (linkClosed) return { text: 'Closed', takesRespondents: false };
+  if (study === 'live') return { text: 'Open', takesRespondents: true };
+  if (study === 'draft') return { text: 'Opens at launch', takesRespondents: false };
+  if (study === 'paused') return { text: 'Study paused', takesRespondents: false };
+  return { text: 'Study closed', takesRespondents: false };
+}

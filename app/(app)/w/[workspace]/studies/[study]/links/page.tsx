@@ -25,7 +25,7 @@ export default async function LinksPage({ params }: { params: Promise<{ workspac
         <Link href={`/w/${ctx.workspace.slug}/studies/${study.id}`}>← Back to the study</Link>
         {study.state === 'draft' ? <span className="ml-3 text-muted">Links work once the study is launched.</span> : null}
       </p>
-      <LinksManager slug={ctx.workspace.slug} studyId={study.id} initial={links} canManage={hasRole(ctx.role, 'analyst') && study.state !== 'closed'} />
+      <LinksManager slug={ctx.workspace.slug} studyId={study.id} studyState={study.state} initial={links} canManage={hasRole(ctx.role, 'analyst') && study.state !== 'closed'} />
     </>
   );
 }

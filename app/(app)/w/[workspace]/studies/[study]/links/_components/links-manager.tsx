@@ -5,8 +5,9 @@ import { fetchJson } from '@/lib/fetch-json';
 import type { RespondentLinkDto } from '@/lib/server/studies/respondent-links';
 import { CopyButton } from './copy-button';
 import { NewLinkForm } from './new-link-form';
+import { linkStateLabel, type StudyStateName } from '@/lib/study-states';
 
-export function LinksManager({ slug, studyId, initial, canManage }: { slug: string; studyId: string; initial: RespondentLinkDto[]; canManage: boolean }) {
+export function LinksManager({ slug, studyId, studyState, initial, canManage }: { slug: string; studyId: string; studyState: StudyStateName; initial: RespondentLinkDto[]; canManage: boolean }) {
   const qc = useQueryClient();
   const q = linksQuery(slug, studyId);
   const { data: links = initial } = useQuery({ ...q, initialData: initial });
@@ -45,7 +46,7 @@ export function LinksManager({ slug, studyId, initial, canManage }: { slug: stri
                     <td className="n">{l.quota ?? '—'}</td>
                     <td className="n">{l.completes}{l.quota ? ` / ${l.quota}` : ''}</td>
                     <td>{l.acceptsPid ? 'Passed through (?pid=)' : 'Not used'}</td>
-                    <td>{l.closedAt ? <span className="pill text-muted">■ Closed</span> : <span className="pill text-moss">● Open</span>}</td>
+                    <td data-testid="link-state">{(() => { const st = linkStateLabel(Boolean(l.closedAt), studyState); return st.takesRespondents ? <span className="pill text-moss">● {st.text}</span> : <span className="pill text-muted">■ {st.text}</span>; })()}</td>
                     {canManage ? <td>{l.closedAt ? null : <button type="button" className="btn btn-danger !min-h-0 !py-1" onClick={() => close(l)}>Close</button>}</td> : null}
                   </tr>
                 );
