@@ -19,12 +19,17 @@ describe('fixed trial plans', () => {
   const plan = generatePlan(d, 1234) as FixedPlan;
   const counts = trialsPerRespondent(d);
 
-  it('has every base × rung × repetitions once, the catch share, one attention check and practice first', () => {
+  it('has every base × rung × repetitions once, the catch share (spot; none in pick), one attention check and practice first', () => {
     expect(plan.trials).toHaveLength(counts.total);
     const tests = plan.trials.filter((t) => t.kind === 'test');
     for (const b of d.basePrices) for (const r of d.ladder) expect(tests.filter((t) => t.basePrice === b && t.rung === r)).toHaveLength(3);
-    const catches = plan.trials.filter((t) => t.kind === 'catch');
-    expect(catches).toHaveLength(counts.catch);
+    // Pick the lower price has no catch trials (two equal tags carry no information).
+    expect(counts.catch).toBe(0);
+    expect(plan.trials.filter((t) => t.kind === 'catch')).toHaveLength(0);
+    const spot = design({ task: 'spot' });
+    const spotPlan = generatePlan(spot, 1234) as FixedPlan;
+    const catches = spotPlan.trials.filter((t) => t.kind === 'catch');
+    expect(catches).toHaveLength(trialsPerRespondent(spot).catch);
     expect(catches.length / (catches.length + tests.length)).toBeCloseTo(0.2, 1);
     expect(catches.every((t) => t.discount === 0 && t.price === t.basePrice)).toBe(true);
     expect(plan.trials.slice(0, 3).every((t) => t.kind === 'practice' && t.discount >= 0.3)).toBe(true);
@@ -77,7 +82,7 @@ describe('fixed trial plans', () => {
 });
 
 describe('adaptive plans', () => {
-  const d = design({ adaptive: { enabled: true, rule: '1u2d', trialsPerBase: 10, reversals: 20 }, basePrices: [9.99, 49], catchShare: 0.1 });
+  const d = design({ task: 'spot', adaptive: { enabled: true, rule: '1u2d', trialsPerBase: 10, reversals: 20 }, basePrices: [9.99, 49], catchShare: 0.1 });
   const plan = generatePlan(d, 42) as AdaptivePlan;
 
   function run(respond: (t: { basePrice: number; discount: number }) => 0 | 1) {
