@@ -51,16 +51,19 @@ describe('fixed trial plans', () => {
     expect(Math.abs(left - (main.length - left))).toBeLessThanOrEqual(1);
   });
 
-  it('applies the price ending and records the discount actually shown', () => {
+  it('applies the price ending only where it fits the rung, and records the discount actually shown', () => {
     const p = generatePlan(design({ priceEnding: 'ends-99' }), 3) as FixedPlan;
     for (const t of p.trials.filter((x) => x.kind === 'test')) {
-      expect(t.price).toBe(applyPriceEnding(t.basePrice * (1 - t.rung!), 'ends-99') || t.price);
+      expect(t.price).toBe(shownPrice(t.basePrice, t.rung!, 'ends-99'));
       expect(t.price).toBeLessThan(t.basePrice);
       expect(t.discount).toBeCloseTo((t.basePrice - t.price) / t.basePrice, 6);
-      expect(t.discount).toBeGreaterThanOrEqual(t.rung! - 1e-9);
+      // within a tenth of the rung, or the nearest cent when cents are too coarse for that
+      const exact = applyPriceEnding(Math.round(t.basePrice * (1 - t.rung!) * 100) / 100, 'exact');
+      if (t.price !== exact) expect(Math.abs(t.discount - t.rung!)).toBeLessThanOrEqual(0.1 * t.rung! + 1e-9);
     }
-    // 49 at 1 % = 48.51 → 47.99 with the .99 ending: a shown discount of about 2.06 %.
-    expect(shownPrice(49, 0.01, 'ends-99')).toBe(47.99);
+    // 49 at 1 % = 48.51; .99 would show 2.06 % (or 0.02 %), so the exact cents are shown.
+    expect(shownPrice(49, 0.01, 'ends-99')).toBe(48.51);
+    expect(shownPrice(199, 0.2, 'ends-99')).toBe(158.99); // 20.1 %: the ending fits
     expect(shownDiscount(49, 47.99)).toBeCloseTo(0.020612, 6);
     expect(shownPrice(0.5, 0.1, 'ends-99')).toBe(0.45); // no .99 price below 0.99: exact cents
   });
