@@ -39,8 +39,11 @@ export interface RespondentRow extends RespondentQuality {
   trials: number;
 }
 
-/** Per finished respondent: what the exclusion rules judge. A response time of 0 means not recorded (imports). */
-export async function respondentRows(studyId: string): Promise<RespondentRow[]> {
+/**
+ * Per finished respondent: what the exclusion rules judge. A response time of 0 means not
+ * recorded (imports). `onlyIds` limits it to those respondents (the billing ledger's page).
+ */
+export async function respondentRows(studyId: string, onlyIds?: readonly string[]): Promise<RespondentRow[]> {
   const rows = await sql(
     await em(),
     `select r.id, r.segment_answers, r.attention_passed, s.design ->> 'task' as task,
@@ -50,13 +53,14 @@ export async function respondentRows(studyId: string): Promise<RespondentRow[]> 
             coalesce(sum(t.answer) filter (where t.kind = 'test'), 0)::int as test_k,
             percentile_cont(0.5) within group (order by t.response_ms) filter (where t.kind in ('test', 'catch') and t.response_ms > 0) as median_ms,
             -- pick the lower price: the side tapped (the lower one when answer = 1), for the straight-lining rule
-            count(t.id) filter (where t.kind = 'test' and t.shown ? 'lowerSide' and ((t.shown ->> 'lowerSide' = 'left') = (t.answer = 1)))::int as left_n,
-            count(t.id) filter (where t.kind = 'test' and t.shown ? 'lowerSide' and ((t.shown ->> 'lowerSide' = 'left') <> (t.answer = 1)))::int as right_n
+            count(t.id) filter (where t.kind = 'test' and t.shown ->> 'lowerSide' is not null and ((t.shown ->> 'lowerSide' = 'left') = (t.answer = 1)))::int as left_n,
+            count(t.id) filter (where t.kind = 'test' and t.shown ->> 'lowerSide' is not null and ((t.shown ->> 'lowerSide' = 'left') <> (t.answer = 1)))::int as right_n
        from respondent r join study s on s.id = r.study_id
        left join trial t on t.respondent_id = r.id and t.kind in ('test', 'catch')
       where r.study_id = ? and r.state in ('completed', 'imported')
+        and (?::jsonb is null or r.id::text in (select jsonb_array_elements_text(?::jsonb)))
       group by r.id, s.id order by r.started_at, r.id`,
-    [studyId],
+    [studyId, onlyIds ? JSON.stringify(onlyIds) : null, onlyIds ? JSON.stringify(onlyIds) : null],
   );
   return rows.map((r) => ({
     id: String(r.id),
