@@ -27,6 +27,14 @@ export const FLOOR_BASIS_LABELS: Record<FloorBasis, string> = {
   share: 'Discount a chosen share of shoppers notices',
 };
 
+/** What the new-plan form knows of a study's bases (lib/server/promotions/basis-options.ts). */
+export interface BasisOption {
+  /** Shares of shoppers the study reports (e.g. 0.5, 0.75, 0.9); empty when unavailable. */
+  shares: number[];
+  /** Why the share basis cannot be used, or null. */
+  shareUnavailable: string | null;
+}
+
 /** What a plan stores beside FloorParams to place floors on any basis (per tested base, ascending as params.lnB). */
 export interface BasisData {
   /** ln(upper end ÷ estimate) of the threshold at each tested base; null where there is no interval. */

@@ -3,6 +3,7 @@ import Link from 'next/link';
 import { requireRole } from '@/lib/server/http/page-guard';
 import { listFittableStudies } from '@/lib/server/analysis/study-fit';
 import { listPriceLists } from '@/lib/server/promotions/price-lists';
+import { basisOptions } from '@/lib/server/promotions/basis-options';
 import { PageTitle } from '@/components/ui/page-title';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PlanForm } from './_components/plan-form';
@@ -14,6 +15,7 @@ export default async function NewPlanPage({ params }: { params: Promise<{ worksp
   const ctx = await requireRole(workspace, 'analyst');
   const [studies, lists] = await Promise.all([listFittableStudies(ctx), listPriceLists(ctx)]);
   const base = `/w/${ctx.workspace.slug}/promotions`;
+  const options = await basisOptions(ctx, studies.map((s) => s.id));
   return (
     <>
       <PageTitle title="New promotion plan" />
@@ -26,7 +28,7 @@ export default async function NewPlanPage({ params }: { params: Promise<{ worksp
       ) : (
         <PlanForm
           slug={ctx.workspace.slug}
-          studies={studies.map((s) => ({ id: s.id, name: s.name, currency: s.currency, basePrices: s.basePrices, segmentQuestions: s.segmentQuestions }))}
+          studies={studies.map((s) => ({ id: s.id, name: s.name, currency: s.currency, basePrices: s.basePrices, segmentQuestions: s.segmentQuestions, basis: options[s.id] ?? { shares: [], shareUnavailable: 'The study’s fit is not computed yet.' } }))}
           lists={lists.map((l) => ({ id: l.id, name: l.name, currency: l.currency, itemCount: l.itemCount }))}
         />
       )}
