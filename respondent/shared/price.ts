@@ -5,7 +5,8 @@ import { applyPriceEnding, type PriceEnding } from '@/lib/psychometrics/promo-fl
 // shoppers see is the ladder the analyst checked. The test price for a rung is the nearest
 // cent to base × (1 − rung); a price ending is used only where it moves the discount shown by
 // at most a tenth of the rung's depth (ENDING_TOLERANCE), otherwise the exact cent price is
-// shown. The discount actually shown is recorded with every answer and is what the fit uses.
+// shown. Currencies written without cents (JPY) get whole units. The discount actually shown is
+// recorded with every answer and is what the fit uses.
 // Tests: tests/unit/respondent-plan.test.ts, tests/unit/promo/ladder-check.test.ts.
 
 /** Formats a price the way the study's locale writes its currency (shared by server and client). */
@@ -18,9 +19,23 @@ export const ENDING_TOLERANCE = 0.1;
 
 const toCents = (v: number) => Math.round(v * 100);
 
-/** The nearest cent to base × (1 − depth), before any ending; equals `base` when the rung is under half a cent. */
-export function nearestCentPrice(base: number, depth: number): number {
-  return toCents(base * (1 - depth)) / 100;
+/**
+ * Decimal places the currency is written with (2 for EUR, 0 for JPY): a shown price never has
+ * more, or the screen (formatPrice rounds to them) would show another price than the one recorded.
+ */
+export function minorDigits(currency: string | undefined): number {
+  if (!currency) return 2;
+  try {
+    return new Intl.NumberFormat('en', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2;
+  } catch {
+    return 2;
+  }
+}
+
+/** The nearest cent (or whole unit, for currencies without cents) to base × (1 − depth), before any ending; equals `base` when the rung is under half of that. */
+export function nearestCentPrice(base: number, depth: number, digits = 2): number {
+  const unit = Math.pow(10, Math.min(2, digits));
+  return Math.round(base * (1 - depth) * unit) / unit;
 }
 
 /**
@@ -29,12 +44,14 @@ export function nearestCentPrice(base: number, depth: number): number {
  * ending: the price with that ending nearest to the exact one (above or below), if the discount
  * it shows is within ENDING_TOLERANCE × depth of the rung; else the exact cent price.
  */
-export function shownPrice(base: number, depth: number, ending: PriceEnding): number {
+export function shownPrice(base: number, depth: number, ending: PriceEnding, digits = 2): number {
   if (depth <= 0) return base;
   const baseCents = toCents(base);
-  let exact = toCents(base * (1 - depth));
-  exact = Math.min(baseCents - 1, Math.max(1, exact));
-  if (ending === 'exact') return exact / 100;
+  // Whole units for currencies written without cents (JPY): the step is 100 cents.
+  const step = digits >= 2 ? 1 : digits === 1 ? 10 : 100;
+  let exact = Math.round((base * (1 - depth) * 100) / step) * step;
+  exact = Math.min(Math.ceil(baseCents / step) * step - step, Math.max(step, exact));
+  if (ending === 'exact' || (step > 1 && ending !== 'whole')) return exact / 100;
   const raw = base * (1 - depth);
   const below = applyPriceEnding(raw, ending);
   const candidates = [below, Number.isFinite(below) ? below + 1 : applyPriceEnding(raw + 1, ending)];

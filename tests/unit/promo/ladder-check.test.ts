@@ -58,3 +58,13 @@ describe('the builder ladder check', () => {
     expect(checkLadder([9.99], [0.05, 0.054, 0.2], 'exact').issues).toEqual([]);
   });
 });
+
+describe('currencies written without cents', () => {
+  it('yen prices are whole units, so the screen shows the price that is recorded', () => {
+    expect(shownPrice(250, 0.03, 'exact', 0)).toBe(243); // 242.5 → 243 (2.8 %)
+    expect(shownPrice(250, 0.03, 'ends-99', 0)).toBe(243); // no .99 in yen: whole units
+    const { grid, issues } = checkLadder([250, 1980], [0.01, 0.05, 0.2], 'exact', 'JPY');
+    for (const c of grid.flat()) expect(Number.isInteger(c.price)).toBe(true);
+    expect(issues.map((i) => [i.kind, i.base, i.rung])).toEqual([['far', 250, 0.01]]); // 1 % of ¥250 is ¥2.5: 0.8 % or 1.2 %
+  });
+});

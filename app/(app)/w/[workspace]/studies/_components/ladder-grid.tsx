@@ -18,7 +18,7 @@ export function LadderGrid({ form }: { form: BuilderForm }) {
   const ladder = positives(ladderRaw).filter((d) => d < 1);
   let money = (v: number) => v.toFixed(2);
   try { const f = new Intl.NumberFormat(String(locale || 'en-GB'), { style: 'currency', currency: String(currency || 'EUR') }); money = (v) => f.format(v); } catch { /* half-typed currency: plain numbers */ }
-  const { grid, issues } = checkLadder(bases, ladder, ending);
+  const { grid, issues } = checkLadder(bases, ladder, ending, String(currency || 'EUR'));
   const flagged = new Set(issues.map((i) => `${i.base}|${i.rung}`));
 
   const apply = (fix: LadderFix) => {
