@@ -87,7 +87,7 @@ export function PlanForm({ slug, studies, lists }: { slug: string; studies: Stud
               <span>
                 <span className="font-semibold">{FLOOR_BASIS_LABELS[b]}</span>
                 <span className="block text-muted">
-                  {b === 'point' ? 'The fitted threshold at the target notice rate below.' : b === 'cautious' ? 'The deeper end of the threshold’s 95 % interval: the floor still works if the true threshold is at the unfavourable end.' : off ? `Not available: ${shareOff}` : 'Each shopper at their own threshold; the floor is the discount that this share of shoppers notices (from the study’s shopper-level model).'}
+                  {b === 'point' ? 'The fitted threshold at the notice rate chosen below.' : b === 'cautious' ? 'The deeper end of the threshold’s 95 % interval: the floor still works if the true threshold is at the unfavourable end.' : off ? `Not available: ${shareOff}` : 'Each shopper at their own threshold; the floor is the discount that this share of shoppers notices (from the study’s shopper-level model).'}
                 </span>
               </span>
             </label>
