@@ -9,7 +9,9 @@ export const randomSeed = () => Math.floor(Math.random() * 2_147_483_647);
 
 /**
  * A plain spot-the-saving design on three base prices and an eight-rung ladder; the numbers
- * are our working defaults (common practice, no source).
+ * are our working defaults (common practice, no source). Prices are shown to the exact cent,
+ * and the base prices are ones where every rung shows within a tenth of its depth (at 2.49 a
+ * 1 % rung could only show 0.80 % or 1.20 %; at 2.99 it shows 1.00 %): lib/promo/ladder-check.ts.
  */
 export function newStudyDefaults(seed: number): StudyDesignInput {
   return {
@@ -19,7 +21,7 @@ export function newStudyDefaults(seed: number): StudyDesignInput {
     category: '',
     currency: 'EUR',
     task: 'spot',
-    basePrices: ['2.49', '9.99', '49'],
+    basePrices: ['2.99', '9.99', '49'],
     ladder: [0.01, 0.02, 0.03, 0.05, 0.08, 0.12, 0.18, 0.25],
     repetitions: 4,
     catchShare: 0.15,
@@ -30,6 +32,6 @@ export function newStudyDefaults(seed: number): StudyDesignInput {
     segmentQuestions: [],
     attentionCheck: { enabled: true, ...DESIGN_DEFAULTS.attentionCheck, options: [...DESIGN_DEFAULTS.attentionCheck.options] },
     targetCompletes: 200,
-    priceEnding: 'ends-99',
+    priceEnding: 'exact',
   };
 }

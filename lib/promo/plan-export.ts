@@ -2,6 +2,7 @@ import { round, toCsv, type CsvValue } from '@/lib/csv';
 import { POOR_FIT_WARNING, planCautions } from './cautions';
 import type { FloorRow } from './floor-table';
 import type { PlanSummary } from './summary';
+import type { FloorBasis } from './floor-basis';
 
 // Plan exports, pure so the route handler and the benchmark build exactly the same bytes.
 
@@ -18,6 +19,23 @@ export interface PlanExportHeader {
   priceList: { id: string; name: string; currency: string; itemCount: number };
   testedBasePrices: number[];
   poorFit: boolean;
+  /** Where the floors sit (lib/promo/floor-basis.ts); 'point' for plans made before the choice existed. */
+  basis: FloorBasis;
+  /** For basis 'share': the share of shoppers who notice. */
+  share: number | null;
+  /** How far (fraction) the ending may deepen a discount beyond the floor; null = no limit (older plans). */
+  tolerance: number | null;
+}
+
+/** The floor basis in words, for the plan page and every export. */
+export function describeBasis(basis: FloorBasis, share: number | null): string {
+  if (basis === 'share') return `Discount that ${round((share ?? 0) * 100, 1)} % of shoppers notice`;
+  if (basis === 'cautious') return 'Cautious end of the 95 % interval of the threshold';
+  return 'Point estimate of the threshold';
+}
+
+export function describeTolerance(tolerance: number | null): string {
+  return tolerance === null ? 'no limit (plan made before the limit existed)' : `at most ${round(tolerance * 100, 2)} points deeper than the floor; beyond that the exact floor price is kept`;
 }
 
 const pct = (v: number | null) => (v === null ? null : round(v * 100, 2));
@@ -31,7 +49,7 @@ export function planCsvHeader(currency: string): string[] {
     'Promo floor (% off)', `Promo floor (${currency} off)`,
     `Promo price (${currency})`, 'Discount at promo price (% off)',
     `Margin before (${currency}/unit)`, `Margin after (${currency}/unit)`,
-    'Outside tested range', 'Deeper than margin', 'No promo price',
+    'Outside tested range', 'Deeper than margin', 'No promo price', 'Exact price kept (ending too deep)', 'No threshold (bound only)',
   ];
 }
 
@@ -43,7 +61,8 @@ export function planCsv(currency: string, rows: readonly FloorRow[]): string {
       r.sku, r.name, r.category, r.regularPrice, r.unitCost,
       pct(r.floorFraction), money(r.floorAmount), r.promoPrice, pct(r.discountAfterEnding),
       r.marginBefore, r.marginAfter,
-      yesNo(r.outsideRange), yesNo(r.deeperThanMargin), yesNo(r.noPromoPrice),
+      yesNo(r.outsideRange), yesNo(r.deeperThanMargin), yesNo(r.noPromoPrice), yesNo(r.endingSkipped),
+      r.bound ? `${r.bound.kind === 'above' ? 'above the deepest rung' : 'below the shallowest rung'} (${round(r.bound.fraction * 100, 2)} %)` : 'no',
     ];
   }
   return toCsv(planCsvHeader(currency), body);
@@ -58,8 +77,10 @@ export function planAboutCsv(h: PlanExportHeader, generatedAt: string): string {
     ['Fit version (study data version)', h.fitVersion],
     ['Exclusion rules', JSON.stringify(h.exclusionRules ?? {})],
     ['Model', h.model],
-    ['Target notice rate', h.target === null ? 'mid-point of the curve' : `${round(h.target * 100, 2)} %`],
+    ['Floor basis', describeBasis(h.basis, h.share)],
+    ['Target notice rate', h.basis === 'share' ? 'not used (each shopper at their own mid-point)' : h.target === null ? 'mid-point of the curve' : `${round(h.target * 100, 2)} %`],
     ['Price ending', h.ending],
+    ['Price ending tolerance', describeTolerance(h.tolerance)],
     ['Price list', `${h.priceList.name} (${h.priceList.itemCount} items, ${h.priceList.currency})`],
     ['Tested base prices', h.testedBasePrices.join(' / ')],
     ['Generated at', generatedAt],
@@ -74,7 +95,8 @@ export function planJson(h: PlanExportHeader, summary: PlanSummary, rows: readon
   return {
     header: {
       ...h,
-      targetMeaning: h.target === null ? 'mid-point' : 'notice rate',
+      targetMeaning: h.basis === 'share' ? 'not used' : h.target === null ? 'mid-point' : 'notice rate',
+      basisMeaning: describeBasis(h.basis, h.share),
       generatedAt,
       cautions: planCautions(false),
       poorFitWarning: h.poorFit ? planCautions(true)[0] : null,

@@ -5,7 +5,7 @@ import { FLAG_FILTERS, matchesFlagFilter } from './flags';
 // Server-side paging, sorting, filtering and search of a plan's rows: 50,000 rows stay on the
 // server and the table asks for one page at a time.
 
-export const SORT_KEYS = ['sku', 'name', 'category', 'regularPrice', 'floorFraction', 'floorAmount', 'promoPrice', 'marginBefore', 'marginAfter'] as const;
+export const SORT_KEYS = ['sku', 'name', 'category', 'regularPrice', 'floorFraction', 'floorAmount', 'promoPrice', 'discountAfterEnding', 'marginBefore', 'marginAfter'] as const;
 export type SortKey = (typeof SORT_KEYS)[number];
 
 export const rowQuerySchema = z.object({

@@ -1,10 +1,11 @@
 import { z } from 'zod';
+import type { Task } from '@/lib/psychometrics/types';
 
 // Data-quality exclusion rules: one schema for the results page form, the route handler that
 // saves them into Study.exclusionRules, the analysis cache key and every export header.
 
 export const exclusionRulesSchema = z.object({
-  /** Exclude respondents who reported a saving on more than this share of their catch trials. */
+  /** Spot the saving: exclude respondents whose false alarms on catch trials are clearly above this share (lib/exclusions.ts). */
   falseAlarms: z.object({
     enabled: z.boolean(),
     maxRate: z.coerce.number({ error: 'Enter a share.' }).min(0.05, 'At least 5 %.').max(1, 'At most 100 %.'),
@@ -16,7 +17,7 @@ export const exclusionRulesSchema = z.object({
     enabled: z.boolean(),
     minMedianMs: z.coerce.number({ error: 'Enter milliseconds.' }).int('Whole milliseconds.').min(100, 'At least 100 ms.').max(10_000, 'At most 10,000 ms.'),
   }),
-  /** Exclude respondents who gave the same answer on every test trial. */
+  /** Exclude respondents who gave the same answer (pick: tapped the same side) on every test trial. */
   straightLining: z.object({ enabled: z.boolean() }),
 });
 
@@ -36,7 +37,7 @@ export const DEFAULT_EXCLUSION_RULES: ExclusionRules = {
 };
 
 export const EXCLUSION_RULE_LABELS: Record<ExclusionRuleId, string> = {
-  falseAlarms: 'Catch-trial false alarms above the limit',
+  falseAlarms: 'Catch-trial false alarms clearly above the limit',
   attention: 'Failed the attention check',
   speeders: 'Median response time under the limit',
   straightLining: 'Same answer on every trial',
@@ -48,12 +49,24 @@ export function rulesOrDefault(stored: unknown): ExclusionRules {
   return parsed.success ? parsed.data : DEFAULT_EXCLUSION_RULES;
 }
 
-/** A one-line description of the rules in force, for export headers and the printed report. */
-export function describeRules(r: ExclusionRules): string[] {
+/** The tasks on which each rule has meaning (why, per rule: lib/exclusions.ts). */
+export const RULE_TASKS: Record<ExclusionRuleId, readonly Task[]> = {
+  attention: ['spot', 'pick', 'trip'],
+  falseAlarms: ['spot'],
+  speeders: ['spot', 'trip'],
+  straightLining: ['spot', 'pick'],
+};
+
+/**
+ * A one-line description of each rule in force, for export headers and the printed report.
+ * With the study's task, rules without meaning for it are left out (they never exclude there).
+ */
+export function describeRules(r: ExclusionRules, task?: Task): string[] {
+  const on = (id: keyof ExclusionRules) => r[id].enabled && (!task || RULE_TASKS[id].includes(task));
   const out: string[] = [];
-  if (r.falseAlarms.enabled) out.push(`excluded: false-alarm rate on catch trials above ${Math.round(r.falseAlarms.maxRate * 100)} %`);
-  if (r.attention.enabled) out.push('excluded: failed the attention check');
-  if (r.speeders.enabled) out.push(`excluded: median response time under ${r.speeders.minMedianMs} ms`);
-  if (r.straightLining.enabled) out.push('excluded: the same answer on every test trial');
+  if (on('falseAlarms')) out.push(`excluded: false alarms on catch trials clearly above ${Math.round(r.falseAlarms.maxRate * 100)} % (one-sided exact binomial test at 5 %)`);
+  if (on('attention')) out.push('excluded: failed the attention check');
+  if (on('speeders')) out.push(`excluded: median response time under ${r.speeders.minMedianMs} ms`);
+  if (on('straightLining')) out.push(task === 'pick' ? 'excluded: tapped the same side on every test trial' : 'excluded: the same answer on every test trial');
   return out.length ? out : ['no exclusion rules in force'];
 }

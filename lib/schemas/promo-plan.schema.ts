@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { PRICE_ENDINGS } from './study.schema';
+import { FLOOR_BASES, type FloorBasis } from '@/lib/promo/floor-basis';
 
 // The promotion plan form and the route handler that creates plans parse this same schema.
 
@@ -37,7 +38,13 @@ export const promoPlanCreateSchema = z.object({
   model: z.enum(PLAN_MODEL_CHOICES).default('preferred'),
   target: targetSchema.default('mid-point'),
   ending: z.enum(PRICE_ENDINGS, { error: 'Choose a price ending.' }),
-});
+  /** Where the floor sits: the point estimate, the cautious end of the 95 % interval, or the discount a share of shoppers notices. */
+  basis: z.enum(FLOOR_BASES, { error: 'Choose where the floor sits.' }).default('point'),
+  /** For basis 'share': the share of shoppers who should notice (one the study's mixed model reports, e.g. 0.75). */
+  share: z.coerce.number({ error: 'Choose a share of shoppers.' }).gt(0, 'Above 0 %.').lt(1, 'Below 100 %.').nullable().default(null),
+  /** Percentage points the ending may deepen the discount beyond the floor; beyond that the exact floor price is kept. */
+  tolerancePoints: z.coerce.number({ error: 'Enter percentage points.' }).min(0, 'At least 0 points.').max(50, 'At most 50 points.').default(2),
+}).refine((v) => v.basis !== 'share' || v.share !== null, { message: 'Choose the share of shoppers who should notice.', path: ['share'] });
 export type PromoPlanCreateInput = z.input<typeof promoPlanCreateSchema>;
 export type PromoPlanCreate = z.output<typeof promoPlanCreateSchema>;
 
@@ -49,4 +56,9 @@ export interface PromoPlanSettings {
   target: number | null;
   ending: (typeof PRICE_ENDINGS)[number];
   segment: { questionId: string; answer: string } | null;
+  /** Absent in plans made before it existed: read as 'point'. */
+  basis?: FloorBasis;
+  share?: number | null;
+  /** Fraction (0.02 = 2 points); absent or null in older plans: no limit, as they were made. */
+  tolerance?: number | null;
 }

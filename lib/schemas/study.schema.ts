@@ -113,7 +113,7 @@ const designFields = z.object({
     .max(20, 'At most 20 rungs.')
     .refine(uniqueSorted, 'Each rung only once.'),
   repetitions: z.coerce.number().int().min(1, 'At least once.').max(20, 'At most 20.'),
-  /** Share of all trials that are catch trials (no discount). */
+  /** Share of all trials that are catch trials (no discount); always 0 for "pick the lower price" (see normalise). */
   catchShare: z.coerce.number().min(0, 'At least 0 %.').max(0.5, 'At most 50 %.'),
   practiceTrials: z.coerce.number().int().min(0).max(10, 'At most 10.'),
   orderSeed: z.coerce.number().int().min(0).max(2_147_483_647),
@@ -129,10 +129,23 @@ const designFields = z.object({
   priceEnding: z.enum(PRICE_ENDINGS),
 });
 
-const sortPrices = <D extends { basePrices: number[]; ladder: number[] }>(d: D): D => ({ ...d, basePrices: [...d.basePrices].sort((a, b) => a - b), ladder: [...d.ladder].sort((a, b) => a - b) });
+/**
+ * Sorted prices and rungs; and "Pick the lower price" never has catch trials: both tags would
+ * show the same price, so the tap carries no information (the guess rate is 1/2 by design).
+ * Forced here so saved designs and older stored pick designs read alike (catchShare 0).
+ */
+const normalise = <D extends { basePrices: number[]; ladder: number[]; task: string; catchShare: number }>(d: D): D => ({
+  ...d,
+  basePrices: [...d.basePrices].sort((a, b) => a - b),
+  ladder: [...d.ladder].sort((a, b) => a - b),
+  catchShare: d.task === 'pick' ? 0 : d.catchShare,
+});
+
+/** Whether a task uses catch trials at all (the builder offers them only then). */
+export const taskHasCatchTrials = (task: string) => task !== 'pick';
 
 /** A design an analyst saves (and launches): every limit of the builder applies. */
-export const studyDesignSchema = designFields.transform(sortPrices);
+export const studyDesignSchema = designFields.transform(normalise);
 
 export type StudyDesignInput = z.input<typeof studyDesignSchema>;
 export type StudyDesign = z.output<typeof studyDesignSchema>;
@@ -154,7 +167,7 @@ export const importedDesignSchema = designFields
     })),
     targetCompletes: z.coerce.number().int().min(1, 'At least 1.'),
   })
-  .transform(sortPrices);
+  .transform(normalise);
 
 export interface DesignIssue { path: string; message: string }
 
@@ -191,7 +204,7 @@ export function geometricLadder(min: number, max: number, rungs: number): number
 }
 
 /** Trials one respondent answers (practice and attention check included). */
-export function trialsPerRespondent(d: Pick<StudyDesign, 'basePrices' | 'ladder' | 'repetitions' | 'catchShare' | 'practiceTrials' | 'adaptive' | 'attentionCheck'>): {
+export function trialsPerRespondent(d: Pick<StudyDesign, 'basePrices' | 'ladder' | 'repetitions' | 'catchShare' | 'practiceTrials' | 'adaptive' | 'attentionCheck'> & Partial<Pick<StudyDesign, 'task'>>): {
   test: number;
   catch: number;
   practice: number;
@@ -199,7 +212,7 @@ export function trialsPerRespondent(d: Pick<StudyDesign, 'basePrices' | 'ladder'
   total: number;
 } {
   const test = d.adaptive.enabled ? d.basePrices.length * d.adaptive.trialsPerBase : d.basePrices.length * d.ladder.length * d.repetitions;
-  const catchTrials = d.catchShare > 0 ? Math.round((test * d.catchShare) / (1 - d.catchShare)) : 0;
+  const catchTrials = d.catchShare > 0 && (d.task === undefined || taskHasCatchTrials(d.task)) ? Math.round((test * d.catchShare) / (1 - d.catchShare)) : 0;
   const attention = d.attentionCheck.enabled ? 1 : 0;
   return { test, catch: catchTrials, practice: d.practiceTrials, attention, total: test + catchTrials + d.practiceTrials + attention };
 }

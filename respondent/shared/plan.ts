@@ -1,6 +1,6 @@
 import { createRng, type Rng } from '@/lib/psychometrics/random';
 import { trialsPerRespondent, type StudyDesign } from '@/lib/schemas/study.schema';
-import { shownDiscount, shownPrice } from './price';
+import { minorDigits, shownDiscount, shownPrice } from './price';
 import { buildShelf, shelfIndexOf } from './shelf';
 import type { OpenSlot, PlannedTrial, ShelfItem, Side, TrialPlan } from './types';
 
@@ -16,7 +16,7 @@ export function planRng(design: StudyDesign, seed: number, salt = ''): Rng {
 }
 
 export function pricedTrial(design: StudyDesign, kind: PlannedTrial['kind'], base: number, depth: number, shelf: ShelfItem[]): PlannedTrial {
-  const price = depth > 0 ? shownPrice(base, depth, design.priceEnding) : base;
+  const price = depth > 0 ? shownPrice(base, depth, design.priceEnding, minorDigits(design.currency)) : base;
   const t: PlannedTrial = { kind, basePrice: base, rung: kind === 'catch' ? null : depth, price, discount: depth > 0 ? shownDiscount(base, price) : 0 };
   const si = shelfIndexOf(shelf, base);
   if (si !== undefined) t.shelfItem = si;

@@ -74,13 +74,15 @@ describe('promotion planning in Chromium (demo analyst)', () => {
     expect(rows[0]).toEqual([
       'SKU', 'Name', 'Category', 'Regular price (EUR)', 'Unit cost (EUR)', 'Promo floor (% off)', 'Promo floor (EUR off)',
       'Promo price (EUR)', 'Discount at promo price (% off)', 'Margin before (EUR/unit)', 'Margin after (EUR/unit)',
-      'Outside tested range', 'Deeper than margin', 'No promo price',
+      'Outside tested range', 'Deeper than margin', 'No promo price', 'Exact price kept (ending too deep)', 'No threshold (bound only)',
     ]);
     expect(rows).toHaveLength(201);
     const kettle = rows.find((r) => r[1] === 'Electric kettle, 1.7 l')!;
     expect(kettle[3]).toBe('29.99');
     expect(Number(kettle[5])).toBeGreaterThan(0);
-    expect(kettle[7]).toMatch(/\.99$/);
+    // .99 where it deepens the discount by at most 2 points (the plan's default tolerance), else the exact floor price.
+    if (kettle[14] === 'no') expect(kettle[7]).toMatch(/\.99$/);
+    expect(Number(kettle[8]) - Number(kettle[5])).toBeLessThanOrEqual(2.01);
     expect(Number(kettle[7])).toBeLessThan(29.99);
     expect(kettle[11]).toBe('no');
   });

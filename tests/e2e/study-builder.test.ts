@@ -65,6 +65,9 @@ describe('an analyst builds, launches and shares a study in Chromium', () => {
 
     await page.getByLabel('Pick the lower price').check();
     await poll(() => page.getByLabel('Viewing time (ms)').count()).toBe(1);
+    // Pick the lower price has no catch trials (two equal tags carry no information): 36 + 3 + 1.
+    await poll(trials).toBe(40);
+    expect(await page.getByTestId('no-catch-trials').textContent()).toMatch(/guess rate is 1\/2/);
     await page.getByRole('button', { name: 'Add a segment question' }).click();
     await page.getByLabel('Question 1', { exact: true }).fill('How often do you buy coffee?');
     await page.getByLabel('Answer 1', { exact: true }).fill('Every week');
@@ -75,11 +78,15 @@ describe('an analyst builds, launches and shares a study in Chromium', () => {
     await page.waitForURL(/\/studies\/[0-9a-f-]{36}$/);
     studyUrl = page.url();
     await poll(() => page.getByRole('heading', { name }).count()).toBe(1);
-    expect(await page.getByText('46 trials').count()).toBe(1);
+    expect(await page.getByText('40 trials').count()).toBe(1);
   });
 
   it('launches it; the design is then frozen and the monitor reads zero completes', async () => {
     await page.getByRole('button', { name: 'Launch' }).click();
+    // The app's own dialog (no browser confirm box) asks first.
+    const dialog = page.getByTestId('confirm-dialog');
+    await poll(() => dialog.isVisible()).toBe(true);
+    await dialog.getByRole('button', { name: 'Launch' }).click();
     await poll(() => page.locator('[data-state="live"]').count()).toBe(1);
     expect(await page.getByRole('link', { name: 'Edit' }).count()).toBe(0);
     await poll(() => page.getByTestId('completes').textContent()).toBe('0');

@@ -8,6 +8,8 @@ import { em } from '@/lib/server/db/orm';
 import { Purchase } from '@/entities/purchase';
 import { AuditEvent } from '@/entities/audit-event';
 import { WebhookEvent } from '@/entities/webhook-event';
+import { Workspace } from '@/entities/workspace';
+import { receiptNumber } from '@/lib/server/billing/webhook';
 import { callRoute, makeWorkspace, signInAs } from '../support/factories';
 
 const signer = new Stripe('sk_test_signer_only');
@@ -48,7 +50,13 @@ describe('Stripe webhook: seats credited exactly once per payment', () => {
     expect(p.paidAt).toBeInstanceOf(Date);
     expect(await db.count(AuditEvent, { workspace: p.workspace, action: 'billing.purchase' })).toBe(1);
     const [mail] = await waitForMail(ws.owner.email);
-    expect(mail.subject).toBe('Receipt: Study bundle, 400 seats');
+    // Receipt number (stable per purchase), date and the workspace's name as the billing name.
+    const number = receiptNumber(p.id, p.paidAt!);
+    expect(number).toMatch(/^NW-\d{4}-[0-9A-F]{4}-[0-9A-F]{4}-[0-9A-F]{4}$/);
+    expect(mail.subject).toBe(`Receipt ${number}: Study bundle, 400 seats`);
+    expect(mail.text).toContain(`Receipt number: ${number}`);
+    expect(mail.text).toContain(`Date: ${p.paidAt!.toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' })}`);
+    expect(mail.text).toContain(`Billed to: ${(await db.findOneOrFail(Workspace, { slug: ws.slug })).name}`);
     expect(mail.text).toContain('€320.00');
     expect(mail.text).toContain('balance is now 425 seats');
     expect(mail.html).toContain('<p>');

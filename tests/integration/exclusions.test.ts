@@ -46,9 +46,13 @@ describe('exclusion rules change the counts as stated', () => {
       expect(counts.trials).toEqual({ before: 40 * TRIALS_EACH, after: after * TRIALS_EACH });
       expect(counts.byRule).toMatchObject({ attention: 4, speeders: 3 });
     }
-    // Straight-liners also say "yes" on every catch trial: the false-alarm rule catches them too.
-    const fa = await (await put({ ...off, falseAlarms: { enabled: true, maxRate: 0.9 } })).json();
+    // Straight-liners also say "yes" on every one of their 9 catch trials: the false-alarm rule
+    // catches them too (9 of 9 is clearly above a 50 % limit: P = 0.5^9 < 5 %). A 90 % limit
+    // cannot be shown to be exceeded on 9 catch trials (0.9^9 = 0.39), so it excludes nobody.
+    const fa = await (await put({ ...off, falseAlarms: { enabled: true, maxRate: 0.5 } })).json();
     expect(fa.counts.respondents.after).toBeLessThanOrEqual(37);
+    const fa90 = await (await put({ ...off, falseAlarms: { enabled: true, maxRate: 0.9 } })).json();
+    expect(fa90.counts.respondents.after).toBe(40);
   });
 
   it('saved rules change the fit key: the results ask for a new fit', async () => {

@@ -57,7 +57,7 @@ describe('promotion plans', () => {
     const fit = await getStudyFit(ctx, studyId);
     if (fit.status !== 'ready') throw new Error('fit should be ready');
     const expectedModel = fit.report.preferredModel === 'constantAmount' ? 'power' : fit.report.preferredModel;
-    expect(plan.settings).toEqual({ model: expectedModel, modelChoice: 'preferred', target: 0.75, ending: 'ends-99', segment: null });
+    expect(plan.settings).toEqual({ model: expectedModel, modelChoice: 'preferred', target: 0.75, ending: 'ends-99', segment: null, basis: 'point', share: null, tolerance: 0.02 });
     expect(plan.fitVersion).toBe(study.dataVersion);
     expect(plan.exclusionRules).toEqual(fit.exclusionRules);
     expect(plan.poorFit).toBe(fit.poorFit);
@@ -71,6 +71,9 @@ describe('promotion plans', () => {
       const e = calc(r.regularPrice, 'ends-99');
       expect(r.floorFraction).toBeCloseTo(e.floorFraction, 12);
       expect(r.outsideRange).toBe(e.extrapolated);
+      // The .99 ending only where it deepens the discount by at most 2 points; else the exact floor price.
+      if (r.promoPrice !== null) expect(r.discountAfterEnding - r.floorFraction).toBeLessThanOrEqual(0.02 + 1e-9);
+      if (r.endingSkipped) expect(Math.round(r.promoPrice * 100) % 100).not.toBe(99);
     }
     expect(page.rows[0]).toMatchObject({ sku: 'HL-10001', regularPrice: 0.89, outsideRange: true });
     const flagged = await (await callRoute(getRows, { url: 'http://127.0.0.1/x?flag=outsideRange&pageSize=500', params: { ...params(), plan: planId } })).json();

@@ -19,12 +19,17 @@ describe('fixed trial plans', () => {
   const plan = generatePlan(d, 1234) as FixedPlan;
   const counts = trialsPerRespondent(d);
 
-  it('has every base × rung × repetitions once, the catch share, one attention check and practice first', () => {
+  it('has every base × rung × repetitions once, the catch share (spot; none in pick), one attention check and practice first', () => {
     expect(plan.trials).toHaveLength(counts.total);
     const tests = plan.trials.filter((t) => t.kind === 'test');
     for (const b of d.basePrices) for (const r of d.ladder) expect(tests.filter((t) => t.basePrice === b && t.rung === r)).toHaveLength(3);
-    const catches = plan.trials.filter((t) => t.kind === 'catch');
-    expect(catches).toHaveLength(counts.catch);
+    // Pick the lower price has no catch trials (two equal tags carry no information).
+    expect(counts.catch).toBe(0);
+    expect(plan.trials.filter((t) => t.kind === 'catch')).toHaveLength(0);
+    const spot = design({ task: 'spot' });
+    const spotPlan = generatePlan(spot, 1234) as FixedPlan;
+    const catches = spotPlan.trials.filter((t) => t.kind === 'catch');
+    expect(catches).toHaveLength(trialsPerRespondent(spot).catch);
     expect(catches.length / (catches.length + tests.length)).toBeCloseTo(0.2, 1);
     expect(catches.every((t) => t.discount === 0 && t.price === t.basePrice)).toBe(true);
     expect(plan.trials.slice(0, 3).every((t) => t.kind === 'practice' && t.discount >= 0.3)).toBe(true);
@@ -46,16 +51,19 @@ describe('fixed trial plans', () => {
     expect(Math.abs(left - (main.length - left))).toBeLessThanOrEqual(1);
   });
 
-  it('applies the price ending and records the discount actually shown', () => {
+  it('applies the price ending only where it fits the rung, and records the discount actually shown', () => {
     const p = generatePlan(design({ priceEnding: 'ends-99' }), 3) as FixedPlan;
     for (const t of p.trials.filter((x) => x.kind === 'test')) {
-      expect(t.price).toBe(applyPriceEnding(t.basePrice * (1 - t.rung!), 'ends-99') || t.price);
+      expect(t.price).toBe(shownPrice(t.basePrice, t.rung!, 'ends-99'));
       expect(t.price).toBeLessThan(t.basePrice);
       expect(t.discount).toBeCloseTo((t.basePrice - t.price) / t.basePrice, 6);
-      expect(t.discount).toBeGreaterThanOrEqual(t.rung! - 1e-9);
+      // within a tenth of the rung, or the nearest cent when cents are too coarse for that
+      const exact = applyPriceEnding(Math.round(t.basePrice * (1 - t.rung!) * 100) / 100, 'exact');
+      if (t.price !== exact) expect(Math.abs(t.discount - t.rung!)).toBeLessThanOrEqual(0.1 * t.rung! + 1e-9);
     }
-    // 49 at 1 % = 48.51 → 47.99 with the .99 ending: a shown discount of about 2.06 %.
-    expect(shownPrice(49, 0.01, 'ends-99')).toBe(47.99);
+    // 49 at 1 % = 48.51; .99 would show 2.06 % (or 0.02 %), so the exact cents are shown.
+    expect(shownPrice(49, 0.01, 'ends-99')).toBe(48.51);
+    expect(shownPrice(199, 0.2, 'ends-99')).toBe(158.99); // 20.1 %: the ending fits
     expect(shownDiscount(49, 47.99)).toBeCloseTo(0.020612, 6);
     expect(shownPrice(0.5, 0.1, 'ends-99')).toBe(0.45); // no .99 price below 0.99: exact cents
   });
@@ -77,7 +85,7 @@ describe('fixed trial plans', () => {
 });
 
 describe('adaptive plans', () => {
-  const d = design({ adaptive: { enabled: true, rule: '1u2d', trialsPerBase: 10, reversals: 20 }, basePrices: [9.99, 49], catchShare: 0.1 });
+  const d = design({ task: 'spot', adaptive: { enabled: true, rule: '1u2d', trialsPerBase: 10, reversals: 20 }, basePrices: [9.99, 49], catchShare: 0.1 });
   const plan = generatePlan(d, 42) as AdaptivePlan;
 
   function run(respond: (t: { basePrice: number; discount: number }) => 0 | 1) {

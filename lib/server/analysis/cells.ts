@@ -5,7 +5,7 @@ import { brokenRules, emptyCounts, type ExclusionCounts, type RespondentQuality 
 import type { ExclusionRuleId, ExclusionRules } from '@/lib/schemas/exclusions.schema';
 import type { StudyDesign } from '@/lib/schemas/study.schema';
 import { poolShopperCells } from '@/lib/psychometrics/shoppers';
-import type { Cell, CatchCell, ShopperCell } from '@/lib/psychometrics/types';
+import type { Cell, CatchCell, ShopperCell, Task } from '@/lib/psychometrics/types';
 import { em } from '@/lib/server/db/orm';
 import { sql, sqlOne } from '@/lib/server/db/sql';
 import { loadStudy, toDetail, type StudyDetail } from '@/lib/server/studies/studies';
@@ -43,28 +43,40 @@ export interface RespondentRow extends RespondentQuality {
   trials: number;
 }
 
-/** Per finished respondent: what the exclusion rules judge. A response time of 0 means not recorded (imports). */
-export async function respondentRows(studyId: string): Promise<RespondentRow[]> {
+/**
+ * Per finished respondent: what the exclusion rules judge. A response time of 0 means not
+ * recorded (imports). `onlyIds` limits it to those respondents (the billing ledger's page).
+ */
+export async function respondentRows(studyId: string, onlyIds?: readonly string[]): Promise<RespondentRow[]> {
   const rows = await sql(
     await em(),
-    `select r.id, r.segment_answers, r.attention_passed,
+    `select r.id, r.segment_answers, r.attention_passed, s.design ->> 'task' as task,
             count(t.id) filter (where t.kind = 'catch')::int as catch_n,
             coalesce(sum(t.answer) filter (where t.kind = 'catch'), 0)::int as catch_k,
             count(t.id) filter (where t.kind = 'test')::int as test_n,
             coalesce(sum(t.answer) filter (where t.kind = 'test'), 0)::int as test_k,
-            percentile_cont(0.5) within group (order by t.response_ms) filter (where t.kind in ('test', 'catch') and t.response_ms > 0) as median_ms
-       from respondent r left join trial t on t.respondent_id = r.id and t.kind in ('test', 'catch')
+            percentile_cont(0.5) within group (order by t.response_ms) filter (where t.kind in ('test', 'catch') and t.response_ms > 0) as median_ms,
+            -- pick the lower price: the side tapped (the lower one when answer = 1), for the straight-lining rule
+            count(t.id) filter (where t.kind = 'test' and t.shown ->> 'lowerSide' is not null and ((t.shown ->> 'lowerSide' = 'left') = (t.answer = 1)))::int as left_n,
+            count(t.id) filter (where t.kind = 'test' and t.shown ->> 'lowerSide' is not null and ((t.shown ->> 'lowerSide' = 'left') <> (t.answer = 1)))::int as right_n
+       from respondent r join study s on s.id = r.study_id
+       left join trial t on t.respondent_id = r.id and t.kind in ('test', 'catch')
       where r.study_id = ? and r.state in ('completed', 'imported')
-      group by r.id order by r.started_at, r.id`,
-    [studyId],
+        and (?::jsonb is null or r.id::text in (select jsonb_array_elements_text(?::jsonb)))
+      group by r.id, s.id order by r.started_at, r.id`,
+    [studyId, onlyIds ? JSON.stringify(onlyIds) : null, onlyIds ? JSON.stringify(onlyIds) : null],
   );
   return rows.map((r) => ({
     id: String(r.id),
     segmentAnswers: (r.segment_answers ?? {}) as Record<string, string>,
+    task: (r.task ?? 'spot') as Task,
     attentionPassed: r.attention_passed as boolean | null,
     catchTrials: Number(r.catch_n), catchYes: Number(r.catch_k),
     testTrials: Number(r.test_n), testYes: Number(r.test_k),
     medianMs: r.median_ms === null ? null : Number(r.median_ms),
+    // Sides are known only where the flow recorded them (imports carry none).
+    leftChosen: Number(r.left_n) + Number(r.right_n) > 0 ? Number(r.left_n) : null,
+    rightChosen: Number(r.left_n) + Number(r.right_n) > 0 ? Number(r.right_n) : null,
     trials: Number(r.catch_n) + Number(r.test_n),
   }));
 }

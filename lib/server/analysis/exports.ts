@@ -53,7 +53,7 @@ function about(state: FitState, report: AnalysisReport, segmentQuestion: string 
     task: s.design.task,
     dataVersion: s.dataVersion,
     generatedAt: new Date().toISOString(),
-    exclusionRules: describeRules(s.exclusionRules),
+    exclusionRules: describeRules(s.exclusionRules, s.design.task),
     exclusionRulesRaw: s.exclusionRules,
     respondents: state.counts?.respondents ?? null,
     trials: state.counts?.trials ?? null,

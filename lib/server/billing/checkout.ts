@@ -7,6 +7,7 @@ import { env } from '@/lib/server/platform/env';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 import { seatBalance, seatHistory } from './seat-ledger';
+import { completeDetails } from './ledger-details';
 import { stripe } from './stripe';
 
 // Buying seats, the analyst-facing half: the billing page's balance and ledger, starting a
@@ -20,7 +21,10 @@ const HISTORY_LIMIT = 200;
 /** Balance and ledger history for the billing page (every member may read it). */
 export async function billingOverview(ctx: WorkspaceContext) {
   const db = await em();
-  const [balance, entries] = await Promise.all([seatBalance(db, ctx.workspace.id), seatHistory(db, ctx.workspace.id, HISTORY_LIMIT)]);
+  const [balance, history] = await Promise.all([seatBalance(db, ctx.workspace.id), seatHistory(db, ctx.workspace.id, HISTORY_LIMIT)]);
+  // A complete's line names its study and whether the respondent is kept or excluded now.
+  const details = await completeDetails(db, ctx.workspace.id, history.filter((e) => e.reason === 'complete').map((e) => e.reference));
+  const entries = history.map((e) => ({ ...e, complete: details.get(e.reference) ?? null }));
   return { balance, canBuy: ctx.role === 'owner', entries };
 }
 export type BillingOverview = Awaited<ReturnType<typeof billingOverview>>;

@@ -25,6 +25,8 @@ import { stripe } from './stripe';
 // is still 200: Stripe retries any other status for days, and a retry cannot make the amount
 // right (Stripe's guidance: acknowledge receipt with a 2xx, then handle the event).
 // The signing secret has no fallback in production (lib/env-schema.ts refuses to start).
+// The receipt carries its number (receiptNumber(): from the purchase id, so a resend names the
+// same receipt), the payment date and the workspace's name as the billing name.
 // Tests: tests/integration/billing-webhook.test.ts (replays, two events, Promise.all, bad signatures).
 
 /** The event, if Stripe's signature over the raw body checks out; else a 400. */
@@ -41,6 +43,9 @@ export type WebhookOutcome = 'credited' | 'duplicate_event' | 'already_credited'
 
 interface Credited {
   workspaceId: string;
+  workspaceName: string;
+  purchaseId: string;
+  paidAt: Date;
   buyer: { email: string; name: string } | null;
   bundle: string;
   seats: number;
@@ -64,7 +69,7 @@ export async function applyStripeEvent(event: Stripe.Event): Promise<WebhookOutc
   const outcome = await db.transactional(async (tx): Promise<WebhookOutcome> => {
     const fresh = await sql(tx, 'insert into webhook_event (id, type, received_at) values (?, ?, now()) on conflict (id) do nothing returning id', [event.id, event.type]);
     if (fresh.length === 0) return 'duplicate_event';
-    const p = await tx.findOne(Purchase, { checkoutSessionId: session.id }, { populate: ['buyer'], lockMode: LockMode.PESSIMISTIC_WRITE });
+    const p = await tx.findOne(Purchase, { checkoutSessionId: session.id }, { populate: ['buyer', 'workspace'], lockMode: LockMode.PESSIMISTIC_WRITE });
     if (!p || p.workspace.id !== session.metadata?.workspaceId) return 'unknown_purchase';
     const paid = { amountCents: session.amount_total, currency: (session.currency ?? '').toUpperCase() };
     if (paid.amountCents !== p.amountCents || paid.currency !== p.currency.toUpperCase()) {
@@ -90,26 +95,38 @@ export async function applyStripeEvent(event: Stripe.Event): Promise<WebhookOutc
       target: `${findBundle(p.bundle)?.name ?? p.bundle} bundle, ${p.seats} seats`,
       detail: { checkoutSessionId: session.id, seats: p.seats, amountCents: p.amountCents, currency: p.currency },
     });
-    credited = { workspaceId: p.workspace.id, buyer: p.buyer ? { email: p.buyer.email, name: p.buyer.name } : null, bundle: p.bundle, seats: p.seats, amountCents: p.amountCents, currency: p.currency, sessionId: session.id };
+    credited = { workspaceId: p.workspace.id, workspaceName: p.workspace.name, purchaseId: p.id, paidAt: p.paidAt, buyer: p.buyer ? { email: p.buyer.email, name: p.buyer.name } : null, bundle: p.bundle, seats: p.seats, amountCents: p.amountCents, currency: p.currency, sessionId: session.id };
     return 'credited';
   });
   if (credited) await sendReceipt(credited, session.customer_details?.email ?? session.customer_email ?? null);
   return outcome;
 }
 
+/** A purchase's receipt number: stable for the purchase (a resend names the same receipt), readable over the phone. */
+export function receiptNumber(purchaseId: string, paidAt: Date): string {
+  const hex = purchaseId.replace(/-/g, '').slice(0, 12).toUpperCase();
+  return `NW-${paidAt.getUTCFullYear()}-${hex.slice(0, 4)}-${hex.slice(4, 8)}-${hex.slice(8, 12)}`;
+}
+
+const receiptDate = (d: Date) => d.toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
+
 async function sendReceipt(c: Credited, stripeEmail: string | null) {
   const to = c.buyer?.email ?? stripeEmail;
   if (!to) return;
   const balance = await seatBalance(await em(), c.workspaceId);
   const name = findBundle(c.bundle)?.name ?? c.bundle;
+  const number = receiptNumber(c.purchaseId, c.paidAt);
   const { text, html } = composeMail([
     `Hello ${c.buyer?.name ?? ''},`.replace(' ,', ','),
     `Thank you: your payment of ${formatCents(c.amountCents, c.currency)} for the ${name} bundle is confirmed.`,
+    `Receipt number: ${number}`,
+    `Date: ${receiptDate(c.paidAt)}`,
+    `Billed to: ${c.workspaceName}`,
     `${c.seats} respondent seats were added to your workspace; the balance is now ${balance} seats.`,
-    `Reference: ${c.sessionId}`,
+    `Payment reference: ${c.sessionId}`,
   ]);
   try {
-    await sendMail({ to, subject: `Receipt: ${name} bundle, ${c.seats} seats`, text, html });
+    await sendMail({ to, subject: `Receipt ${number}: ${name} bundle, ${c.seats} seats`, text, html });
   } catch (err) {
     // The seats are credited already; a mail outage must not make Stripe retry the payment.
     console.error('[billing] receipt e-mail failed', err);

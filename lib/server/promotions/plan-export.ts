@@ -32,6 +32,9 @@ export async function exportPlan(ctx: WorkspaceContext, planId: string, format: 
     priceList: plan.priceList,
     testedBasePrices: plan.fit.testedBasePrices,
     poorFit: plan.poorFit,
+    basis: plan.settings.basis ?? 'point',
+    share: plan.settings.share ?? null,
+    tolerance: plan.settings.tolerance ?? null,
   };
   const stem = fileStem(plan.name);
   if (format === 'csv') return csvFile(`${stem}.csv`, planCsv(plan.priceList.currency, rows));

@@ -1,5 +1,5 @@
 import 'server-only';
-import { computeFloorTable, type FloorRow } from '@/lib/promo/floor-table';
+import { computeFloorTable, type FloorRow, type FloorSettings } from '@/lib/promo/floor-table';
 import { promoChartData, type PromoChartData } from '@/lib/promo/chart-data';
 import { summarisePlan, type PlanSummary } from '@/lib/promo/summary';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
@@ -21,6 +21,15 @@ export interface PlanTable {
 const CACHE_SIZE = 4;
 const cache = new Map<string, Omit<PlanTable, 'plan'>>();
 
+/** A stored plan's floor settings; plans made before the basis and tolerance existed read as point floors with no limit. */
+export function planFloorSettings(plan: PromoPlanDto): FloorSettings {
+  return {
+    target: plan.settings.target ?? undefined, ending: plan.settings.ending,
+    basis: plan.settings.basis ?? 'point', share: plan.settings.share ?? null,
+    tolerance: plan.settings.tolerance ?? null, basisData: plan.fit.basis ?? null,
+  };
+}
+
 /** The plan with every item's floor, recomputed from the stored fit parameters (never refit). */
 export async function planTable(ctx: WorkspaceContext, planId: string): Promise<PlanTable> {
   const plan = await getPromoPlan(ctx, planId);
@@ -31,9 +40,9 @@ export async function planTable(ctx: WorkspaceContext, planId: string): Promise<
     return { plan, ...hit };
   }
   const items = await loadPriceListItems(ctx, plan.priceList.id);
-  const target = plan.settings.target ?? undefined;
-  const rows = computeFloorTable(plan.fit.params, { target, ending: plan.settings.ending }, items);
-  const computed = { rows, summary: summarisePlan(rows), chart: promoChartData(plan.fit.params, target, rows, plan.fit.testedBasePrices) };
+  const settings = planFloorSettings(plan);
+  const rows = computeFloorTable(plan.fit.params, settings, items);
+  const computed = { rows, summary: summarisePlan(rows), chart: promoChartData(plan.fit.params, settings, rows, plan.fit.testedBasePrices) };
   cache.set(plan.id, computed);
   if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
   return { plan, ...computed };

@@ -7,6 +7,7 @@ import { PsychometricsInputError } from '@/lib/psychometrics/errors';
 import type { PromoPlanCreate, PromoPlanSettings } from '@/lib/schemas/promo-plan.schema';
 import { defaultFloorModel } from '@/lib/promo/model-choice';
 import { unreachableTarget } from '@/lib/promo/floor-table';
+import { basisData, type BasisData } from '@/lib/promo/floor-basis';
 import { getStudyFit } from '@/lib/server/analysis/study-fit';
 import { recordAudit } from '@/lib/server/team/audit';
 import { em } from '@/lib/server/db/orm';
@@ -20,8 +21,12 @@ import type { WorkspaceContext } from '@/lib/server/team/membership';
 // stored and the route answers 202 with Retry-After: 5. A plan keeps only the fit's parameters
 // (StoredFit: floorParams for the chosen model, tested base prices, task, currency, …), so its
 // floors are recomputed, never refitted, and a later change to the study leaves it as it was.
+// The floor basis (point estimate, cautious end of the interval, share of shoppers) and the
+// ending tolerance are settings; what the bases need from the report is stored as `basis`
+// (lib/promo/floor-basis.ts), so older plans without it read as point floors with no limit.
 // Refusals (422): a list in another currency than the study, a target notice rate the model
-// never reaches, power with one tested base price; 409 for a name already used.
+// never reaches, power with one tested base price, a share of shoppers the study does not
+// report (no shopper ids, or no mixed model); 409 for a name already used.
 // Tests: tests/integration/promo-plans.test.ts; e2e promotions.test.ts.
 
 /** What a plan stores about its fit (PromoPlan.fit): enough to recompute every floor. */
@@ -34,6 +39,8 @@ export interface StoredFit {
   preferredModel: string;
   intervalMethod: string;
   warnings: string[];
+  /** What the cautious and share bases need, and the bounds; absent in older plans. */
+  basis?: BasisData;
 }
 
 export interface PromoPlanDto {
@@ -92,10 +99,23 @@ export async function createPromoPlan(ctx: WorkspaceContext, input: PromoPlanCre
   const target = input.target === 'mid-point' ? null : input.target;
   const why = unreachableTarget(params, target ?? undefined);
   if (why) throw invalid('target', why);
-  const settings: PromoPlanSettings = { model, modelChoice: input.model, target, ending: input.ending, segment: input.segment };
+  const basis = basisData(fit.report, model, params);
+  if (input.basis === 'share') {
+    if (basis.shareUnavailable) throw invalid('basis', basis.shareUnavailable);
+    if (!basis.shares.some((x) => x.share === input.share)) {
+      throw invalid('share', `The study reports the discount that ${basis.shares.map((x) => `${Math.round(x.share * 100)} %`).join(', ')} of shoppers notice; choose one of these.`);
+    }
+  }
+  if (input.basis === 'cautious' && basis.cautiousLnRatio.every((r) => r === null)) {
+    throw invalid('basis', 'The study’s fit has no intervals for this model (no bootstrap); use the point estimate.');
+  }
+  const settings: PromoPlanSettings = {
+    model, modelChoice: input.model, target: input.basis === 'share' ? null : target, ending: input.ending, segment: input.segment,
+    basis: input.basis, share: input.basis === 'share' ? input.share : null, tolerance: input.tolerancePoints / 100,
+  };
   const stored: StoredFit = {
     params, testedBasePrices: fit.basePrices, task: fit.task, currency: fit.currency, locale: fit.locale,
-    preferredModel: fit.report.preferredModel, intervalMethod: fit.report.intervalMethod, warnings: fit.report.warnings,
+    preferredModel: fit.report.preferredModel, intervalMethod: fit.report.intervalMethod, warnings: fit.report.warnings, basis,
   };
   const id = await db.transactional(async (tx) => {
     // Serialises plan creation per workspace so a double-submitted form stores one plan.

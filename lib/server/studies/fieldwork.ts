@@ -11,7 +11,11 @@ import type { WorkspaceContext } from '@/lib/server/team/membership';
 // respondents in progress, drop-outs (started, not completed, no answer for DROP_OUT_MINUTES),
 // completes per link, test answers per base price × rung with off-ladder (adaptive) and catch
 // trials counted apart, and the workspace's seats left from the seat ledger. Counted in SQL, so
-// the cost follows the design, not the number of respondents.
+// the cost follows the design, not the number of respondents. Answers are grouped by the rung
+// they were drawn from (Trial.shown.rung, recorded with every answer; rows without it, such as
+// imports, carry the nominal depth as their discount), never by the rounded discount shown,
+// which may differ from the rung by cents; the mean discount actually shown per cell travels
+// alongside (`shown`).
 // Tests: tests/integration/studies-fieldwork.test.ts.
 
 /** A respondent with no answer for this long, and not completed, counts as dropped out. */
@@ -27,8 +31,10 @@ export interface FieldworkDto {
   perLink: { linkId: string; source: string; completes: number; closed: boolean }[];
   basePrices: number[];
   ladder: number[];
-  /** Test-trial answers per cell, rows = base prices, columns = rungs (same order as above). */
+  /** Test-trial answers per cell, rows = base prices, columns = rungs (same order as above), by the rung drawn. */
   cells: number[][];
+  /** Mean discount actually shown per cell (fraction); null where no answer yet. */
+  shown: (number | null)[][];
   /** Test trials at depths off the ladder (adaptive placement), per base price. */
   offLadder: number[];
   /** Catch trials per base price, kept apart: they never sit on the discount axis. */
@@ -60,10 +66,10 @@ export async function getFieldwork(ctx: WorkspaceContext, studyId: string): Prom
       where l.study_id = ? and l.workspace_id = ? group by l.id order by l.created_at`,
     [study.id, ctx.workspace.id],
   );
-  const cellRows = await sql<{ kind: string; base_price: number; discount: number; n: string }>(
+  const cellRows = await sql<{ kind: string; base_price: number; rung: number; n: string; shown_sum: number }>(
     db,
-    `select kind, base_price, discount, count(*) as n from trial
-      where study_id = ? and kind in ('test', 'catch') group by kind, base_price, discount`,
+    `select kind, base_price, coalesce((shown ->> 'rung')::float8, discount) as rung, count(*) as n, sum(discount) as shown_sum
+       from trial where study_id = ? and kind in ('test', 'catch') group by 1, 2, 3`,
     [study.id],
   );
   const bases = design.basePrices;
@@ -71,6 +77,7 @@ export async function getFieldwork(ctx: WorkspaceContext, studyId: string): Prom
   const row = new Map(bases.map((b, i) => [key(b), i]));
   const col = new Map(ladder.map((d, i) => [key(d), i]));
   const cells = bases.map(() => ladder.map(() => 0));
+  const shownSum = bases.map(() => ladder.map(() => 0));
   const offLadder = bases.map(() => 0);
   const catchTrials = bases.map(() => 0);
   for (const r of cellRows) {
@@ -79,9 +86,9 @@ export async function getFieldwork(ctx: WorkspaceContext, studyId: string): Prom
     const n = Number(r.n);
     if (r.kind === 'catch') catchTrials[i] += n;
     else {
-      const j = col.get(key(r.discount));
+      const j = col.get(key(r.rung));
       if (j === undefined) offLadder[i] += n;
-      else cells[i][j] += n;
+      else { cells[i][j] += n; shownSum[i][j] += Number(r.shown_sum); }
     }
   }
   return {
@@ -95,6 +102,7 @@ export async function getFieldwork(ctx: WorkspaceContext, studyId: string): Prom
     basePrices: bases,
     ladder,
     cells,
+    shown: cells.map((row, i) => row.map((n, j) => (n ? Math.round((shownSum[i][j] / n) * 1e6) / 1e6 : null))),
     offLadder,
     catchTrials,
     refreshedAt: new Date().toISOString(),

@@ -51,10 +51,10 @@ describe('price-ending rules round the promo price down and keep the discount at
     for (const r of rows) {
       if (r.promoPrice === null) continue;
       expect(allowed).toContain(cents(r.promoPrice));
-      expect(r.discountAfterEnding!).toBeGreaterThanOrEqual(r.floorFraction);
-      expect(r.promoPrice).toBeLessThanOrEqual(r.regularPrice * (1 - r.floorFraction) + 1e-9);
+      expect(r.discountAfterEnding!).toBeGreaterThanOrEqual(r.floorFraction!);
+      expect(r.promoPrice).toBeLessThanOrEqual(r.regularPrice * (1 - r.floorFraction!) + 1e-9);
       // Rounded DOWN to the nearest such price: the next one up (one unit more) is shallower than the floor.
-      expect(1 - (r.promoPrice + 1) / r.regularPrice).toBeLessThan(r.floorFraction);
+      expect(1 - (r.promoPrice + 1) / r.regularPrice).toBeLessThan(r.floorFraction!);
     }
   });
 

@@ -53,7 +53,8 @@ describe('parsePriceList', () => {
 const row = (sku: string, price: number, flags: Partial<FloorRow> = {}): FloorRow => ({
   sku, name: `Item ${sku}`, category: null, regularPrice: price, unitCost: null,
   floorFraction: 0.1, floorAmount: price / 10, promoPrice: Math.floor(price * 90) / 100, discountAfterEnding: 0.1,
-  marginBefore: null, marginAfter: null, outsideRange: false, deeperThanMargin: false, noPromoPrice: false, ...flags,
+  marginBefore: null, marginAfter: null, outsideRange: false, deeperThanMargin: false, noPromoPrice: false,
+  endingSkipped: false, noThreshold: false, bound: null, ...flags,
 });
 
 describe('queryRows: server-side paging for big plans', () => {
@@ -87,7 +88,7 @@ describe('plan exports', () => {
     const parsed = Papa.parse<string[]>(csv.trim(), { header: false });
     expect(parsed.data[0]).toEqual(planCsvHeader('EUR'));
     expect(parsed.data[0]).toEqual(expect.arrayContaining(['Regular price (EUR)', 'Promo floor (% off)', 'Promo floor (EUR off)', 'Promo price (EUR)', 'Margin before (EUR/unit)', 'Margin after (EUR/unit)', 'Outside tested range', 'Deeper than margin']));
-    expect(parsed.data[1]).toEqual(['HL-1', 'Item HL-1', 'Kitchen, tools', '12.99', '6', '9.88', '1.28', '11.69', '10', '6.99', '5.69', 'no', 'no', 'no']);
+    expect(parsed.data[1]).toEqual(['HL-1', 'Item HL-1', 'Kitchen, tools', '12.99', '6', '9.88', '1.28', '11.69', '10', '6.99', '5.69', 'no', 'no', 'no', 'no', 'no']);
     expect(csv.endsWith('\r\n')).toBe(true);
   });
 
@@ -96,6 +97,7 @@ describe('plan exports', () => {
       plan: { id: 'p', name: 'Spring', createdAt: '2026-03-01T00:00:00Z' }, study: { id: 's', name: 'Kitchen', task: 'spot' }, segment: null,
       fitVersion: 7, exclusionRules: { attention: { enabled: true } }, model: 'Power', target: 0.75, ending: 'Ends in .99',
       priceList: { id: 'l', name: 'Range', currency: 'EUR', itemCount: 200 }, testedBasePrices: [3.49, 449], poorFit: true,
+      basis: 'point', share: null, tolerance: 0.02,
     };
     const rows = Papa.parse<string[]>(planAboutCsv(h, '2026-03-02T10:00:00Z').trim()).data;
     const get = (k: string) => rows.find((r) => r[0] === k)?.[1];

@@ -20,7 +20,7 @@ export function LedgerTable({ entries }: { entries: BillingOverview['entries'] }
             <th>Date</th>
             <th className="n">Change (seats)</th>
             <th>Reason</th>
-            <th>Reference</th>
+            <th>About</th>
           </tr>
         </thead>
         <tbody>
@@ -32,7 +32,18 @@ export function LedgerTable({ entries }: { entries: BillingOverview['entries'] }
                 {REASONS[e.reason] ?? e.reason}
                 {e.note && e.note !== REASONS[e.reason] ? <span className="text-muted"> · {e.note}</span> : null}
               </td>
-              <td className="num max-w-[18rem] truncate text-xs text-muted" title={e.reference}>{e.reference}</td>
+              {e.complete ? (
+                <td className="text-sm" title={e.reference} data-testid="ledger-complete">
+                  <span className="block">{e.complete.studyName}</span>
+                  {e.complete.excludedBy.length ? (
+                    <span className="block text-brick" data-testid="ledger-excluded">✕ Excluded from the analysis ({e.complete.excludedBy.join('; ')}); the seat was used</span>
+                  ) : (
+                    <span className="block text-muted">Kept in the analysis</span>
+                  )}
+                </td>
+              ) : (
+                <td className="num max-w-[18rem] truncate text-xs text-muted" title={e.reference}>{e.reference}</td>
+              )}
             </tr>
           ))}
         </tbody>

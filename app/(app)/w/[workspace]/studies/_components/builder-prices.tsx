@@ -3,6 +3,7 @@ import { Controller } from 'react-hook-form';
 import { errorAt, Section, type BuilderForm } from './form-bits';
 import { StringList } from './string-list';
 import { LadderEditor } from './ladder-editor';
+import { LadderGrid } from './ladder-grid';
 
 export function BuilderPrices({ form }: { form: BuilderForm }) {
   const errors = form.formState.errors;
@@ -30,6 +31,9 @@ export function BuilderPrices({ form }: { form: BuilderForm }) {
       </Section>
       <Section title="Discount ladder" intro="The discount depths (rungs) tested at each base price.">
         <LadderEditor form={form} />
+      </Section>
+      <Section title="Prices shoppers will see" intro="Each rung at each base price as the respondent’s screen shows it, after rounding to cents and the price ending.">
+        <LadderGrid form={form} />
       </Section>
     </>
   );

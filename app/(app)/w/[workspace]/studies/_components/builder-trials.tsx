@@ -1,6 +1,6 @@
 'use client';
 import { Controller, useWatch } from 'react-hook-form';
-import { STAIRCASE_RULES, STAIRCASE_RULE_LABELS } from '@/lib/schemas/study.schema';
+import { STAIRCASE_RULES, STAIRCASE_RULE_LABELS, taskHasCatchTrials } from '@/lib/schemas/study.schema';
 import { randomSeed } from '@/lib/study-defaults';
 import { errorAt, Field, fieldId, Section, type BuilderForm } from './form-bits';
 
@@ -8,22 +8,32 @@ export function BuilderTrials({ form }: { form: BuilderForm }) {
   const { register, formState } = form;
   const e = (p: string) => errorAt(formState.errors, p);
   const adaptive = useWatch({ control: form.control, name: 'adaptive.enabled' }) as boolean;
+  const task = useWatch({ control: form.control, name: 'task' }) as string;
   return (
     <Section title="Trials">
       <div className="grid gap-4 sm:grid-cols-3">
         <Field label="Repetitions per cell" name="repetitions" error={e('repetitions')} hint="Times each base price × rung is shown to one respondent.">
           <input id={fieldId('repetitions')} type="number" className="input" {...register('repetitions')} />
         </Field>
-        <Field label="Catch trials (% of all trials)" name="catchShare" error={e('catchShare')} hint="No discount at all; they measure false alarms (0 to 50 %).">
-          <Controller
-            control={form.control}
-            name="catchShare"
-            render={({ field }) => (
-              <input id={fieldId('catchShare')} type="number" step="any" className="input" value={field.value === '' || field.value == null ? '' : Math.round(Number(field.value) * 1000) / 10}
-                onChange={(ev) => field.onChange(ev.target.value === '' ? '' : Number(ev.target.value) / 100)} onBlur={field.onBlur} />
-            )}
-          />
-        </Field>
+        {taskHasCatchTrials(task) ? (
+          <Field label="Catch trials (% of all trials)" name="catchShare" error={e('catchShare')}
+            hint={task === 'spot' ? 'The regular price, no discount; “lower” there is a false alarm, which sets the guess rate (0 to 50 %).' : 'The same price at both places; the fit does not use them, so 0 % is fine (0 to 50 %).'}>
+            <Controller
+              control={form.control}
+              name="catchShare"
+              render={({ field }) => (
+                <input id={fieldId('catchShare')} type="number" step="any" className="input" value={field.value === '' || field.value == null ? '' : Math.round(Number(field.value) * 1000) / 10}
+                  onChange={(ev) => field.onChange(ev.target.value === '' ? '' : Number(ev.target.value) / 100)} onBlur={field.onBlur} />
+              )}
+            />
+          </Field>
+        ) : (
+          <div className="field" data-testid="no-catch-trials">
+            <span className="label">Catch trials</span>
+            <p className="text-sm">None for this task.</p>
+            <span className="hint">Both tags would show the same price, so a tap carries no information; the guess rate is 1/2 by design.</span>
+          </div>
+        )}
         <Field label="Practice trials" name="practiceTrials" error={e('practiceTrials')} hint="Shown first and never analysed.">
           <input id={fieldId('practiceTrials')} type="number" className="input" {...register('practiceTrials')} />
         </Field>

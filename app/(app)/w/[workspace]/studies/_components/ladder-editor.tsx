@@ -16,6 +16,15 @@ export function LadderEditor({ form }: { form: BuilderForm }) {
   const ladder = (useWatch({ control: form.control, name: 'ladder' }) as unknown[]) ?? [];
   const [text, setText] = useState(() => ladder.map((d) => pct(Number(d))).join(', '));
   const [gen, setGen] = useState({ min: '1', max: '25', rungs: '8' });
+  // A rung removed elsewhere (the ladder grid's fixes) shows in the text box too; typing that
+  // parses to the same rungs is left as typed. (State adjusted while rendering, as React advises.)
+  const key = (xs: unknown[]) => xs.map((d) => Number(d).toFixed(6)).join(',');
+  const ladderKey = key(ladder);
+  const [seenKey, setSeenKey] = useState(ladderKey);
+  if (seenKey !== ladderKey) {
+    setSeenKey(ladderKey);
+    if (key(parseLadder(text)) !== ladderKey) setText(ladder.map((d) => pct(Number(d))).join(', '));
+  }
   const generated = geometricLadder(Number(gen.min) / 100, Number(gen.max) / 100, Math.round(Number(gen.rungs)));
   const errors = form.formState.errors;
   const rungErrors = ladder.map((_, i) => errorAt(errors, `ladder.${i}`)).filter(Boolean);

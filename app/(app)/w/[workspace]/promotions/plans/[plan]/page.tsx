@@ -35,7 +35,7 @@ export default async function PlanPage({ params }: { params: Promise<{ workspace
       {plan.poorFit ? <PoorFitBanner /> : null}
       <div className="grid gap-6 lg:grid-cols-[1fr_19rem]">
         <div className="min-w-0 space-y-6">
-          <PlanSummaryCard summary={summary} />
+          <PlanSummaryCard summary={summary} currency={currency} locale={plan.fit.locale} />
           <figure className="card p-4">
             <figcaption className="mb-2 text-sm text-muted">
               Promo floor against regular price. The line is the model’s floor; dots are items at their promo price

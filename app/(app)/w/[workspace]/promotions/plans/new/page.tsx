@@ -3,6 +3,7 @@ import Link from 'next/link';
 import { requireRole } from '@/lib/server/http/page-guard';
 import { listFittableStudies } from '@/lib/server/analysis/study-fit';
 import { listPriceLists } from '@/lib/server/promotions/price-lists';
+import { basisOptions } from '@/lib/server/promotions/basis-options';
 import { PageTitle } from '@/components/ui/page-title';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PlanForm } from './_components/plan-form';
@@ -17,6 +18,7 @@ export default async function NewPlanPage({ params, searchParams }: { params: Pr
   // ?study=<id> (from a study's results): that study first, so the form starts with it chosen.
   const studies = [...fittable].sort((a, b) => Number(b.id === wanted) - Number(a.id === wanted));
   const base = `/w/${ctx.workspace.slug}/promotions`;
+  const options = await basisOptions(ctx, studies.map((s) => s.id));
   return (
     <>
       <PageTitle title="New promotion plan" />
@@ -29,7 +31,7 @@ export default async function NewPlanPage({ params, searchParams }: { params: Pr
       ) : (
         <PlanForm
           slug={ctx.workspace.slug}
-          studies={studies.map((s) => ({ id: s.id, name: s.name, currency: s.currency, basePrices: s.basePrices, segmentQuestions: s.segmentQuestions }))}
+          studies={studies.map((s) => ({ id: s.id, name: s.name, currency: s.currency, basePrices: s.basePrices, segmentQuestions: s.segmentQuestions, basis: options[s.id] ?? { shares: [], shareUnavailable: 'The study’s fit is not computed yet.' } }))}
           lists={lists.map((l) => ({ id: l.id, name: l.name, currency: l.currency, itemCount: l.itemCount }))}
         />
       )}

@@ -12,12 +12,20 @@ export function planColumns(currency: string, locale: string) {
   const money = (v: number | null) => formatMoney(v, currency, locale);
   return [
     col.accessor('sku', { header: 'SKU', cell: (c) => <span className="num whitespace-nowrap">{c.getValue()}</span> }),
-    col.accessor('name', { header: 'Name', cell: (c) => <span className="inline-block min-w-48">{c.getValue()}</span> }),
+    col.accessor('name', { header: 'Name', cell: (c) => <span className="inline-block min-w-36">{c.getValue()}</span> }),
     col.accessor('category', { header: 'Category', cell: (c) => c.getValue() ?? '—' }),
     col.accessor('regularPrice', { header: `Regular price (${currency})`, cell: (c) => money(c.getValue()), meta: numeric }),
-    col.accessor('floorFraction', { header: 'Promo floor (% off)', cell: (c) => formatPct(c.getValue()), meta: numeric }),
-    col.accessor('floorAmount', { header: `Promo floor (${currency} off)`, cell: (c) => money(c.getValue()), meta: numeric }),
+    col.accessor('floorFraction', {
+      header: `Promo floor (% off · ${currency} off)`,
+      cell: (c) => {
+        const r = c.row.original;
+        if (r.bound) return <span className="text-xs">{r.bound.kind === 'above' ? `above the deepest rung (> ${formatPct(r.bound.fraction)})` : `below the shallowest rung (< ${formatPct(r.bound.fraction)})`}</span>;
+        return <><span className="block">{formatPct(r.floorFraction)}</span><span className="block text-xs text-muted">{money(r.floorAmount)}</span></>;
+      },
+      meta: numeric,
+    }),
     col.accessor('promoPrice', { header: `Promo price (${currency})`, cell: (c) => <span className="font-semibold">{money(c.getValue())}</span>, meta: numeric }),
+    col.accessor('discountAfterEnding', { header: 'Discount given (% off)', cell: (c) => formatPct(c.getValue()), meta: numeric }),
     col.accessor('marginBefore', { header: `Margin before (${currency}/unit)`, cell: (c) => money(c.getValue()), meta: numeric }),
     col.accessor('marginAfter', {
       header: `Margin after (${currency}/unit)`,

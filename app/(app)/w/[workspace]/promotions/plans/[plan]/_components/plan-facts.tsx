@@ -2,19 +2,24 @@ import type { PromoPlanDto } from '@/lib/server/promotions/plans';
 import { FLOOR_MODEL_SHORT } from '@/lib/promo/model-choice';
 import { formatTarget } from '@/lib/promo/format';
 import { PRICE_ENDING_LABELS } from '@/lib/schemas/study.schema';
+import { EXCLUSION_RULE_LABELS, type ExclusionRuleId } from '@/lib/schemas/exclusions.schema';
+import { describeBasis, describeTolerance } from '@/lib/promo/plan-export';
 
 /** What the plan was built from: enough to reproduce it. */
 export function PlanFacts({ plan }: { plan: PromoPlanDto }) {
   const rules = plan.exclusionRules as Record<string, { enabled?: boolean }> | null;
-  const on = rules ? Object.entries(rules).filter(([, r]) => r?.enabled).map(([k]) => k) : [];
+  const on = rules ? Object.entries(rules).filter(([, r]) => r?.enabled).map(([k]) => EXCLUSION_RULE_LABELS[k as ExclusionRuleId] ?? k) : [];
+  const basis = plan.settings.basis ?? 'point';
   const rows: [string, string][] = [
     ['Study', plan.study.name],
     ['Respondents', plan.settings.segment ? `${plan.settings.segment.questionId}: ${plan.settings.segment.answer}` : 'All respondents'],
     ['Fit version', `data version ${plan.fitVersion}`],
-    ['Exclusion rules', on.length ? on.join(', ') : 'none'],
+    ['Exclusion rules', on.length ? on.join('; ') : 'none'],
     ['Model', `${FLOOR_MODEL_SHORT[plan.settings.model]}${plan.settings.modelChoice === 'preferred' ? ' (study’s preferred)' : ''}`],
-    ['Notice rate', formatTarget(plan.settings.target)],
+    ['Floor basis', describeBasis(basis, plan.settings.share ?? null)],
+    ['Notice rate', basis === 'share' ? 'Not used: each shopper at their own threshold' : formatTarget(plan.settings.target)],
     ['Price ending', PRICE_ENDING_LABELS[plan.settings.ending]],
+    ['Ending tolerance', describeTolerance(plan.settings.tolerance ?? null)],
     ['Price list', `${plan.priceList.name} · ${plan.priceList.currency}`],
     ['Tested base prices', plan.fit.testedBasePrices.join(' · ')],
   ];

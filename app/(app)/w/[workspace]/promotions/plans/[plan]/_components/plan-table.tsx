@@ -60,7 +60,7 @@ export function PlanTable({ slug, planId, currency, locale, total }: { slug: str
                   const sorted = h.column.getIsSorted();
                   const numeric = (h.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
                   return (
-                    <th key={h.id} className={`sticky top-0 z-10 bg-card ${numeric ? 'n' : ''}`} aria-sort={sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined}>
+                    <th key={h.id} className={`sticky top-0 z-10 bg-card align-bottom !whitespace-normal ${numeric ? 'n' : ''}`} aria-sort={sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined}>
                       {h.column.getCanSort() ? (
                         <button type="button" className="inline-flex items-center gap-1 font-semibold" onClick={h.column.getToggleSortingHandler()}>
                           {flexRender(h.column.columnDef.header, h.getContext())}
