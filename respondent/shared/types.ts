@@ -81,6 +81,8 @@ export interface FlowStudy {
   locale: string;
   viewMs: number;
   tripMinutes: number;
+  /** Who runs the study and how to reach them (the design's contact line, shown with the consent text). */
+  contact: string;
 }
 
 /** The next screen(s) for a respondent: returned by GET state, start and answer. */
@@ -94,4 +96,6 @@ export interface FlowState {
   answered: number;
   total: number;
   redirectUrl: string | null;
+  /** The respondent's reference code for a deletion request (shown on the thank-you screen); null in a preview. */
+  referenceCode: string | null;
 }

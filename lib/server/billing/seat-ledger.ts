@@ -4,7 +4,9 @@ import 'server-only';
 // entry is keyed by (reason, reference) — the workspace for welcome seats, the checkout
 // session for a purchase, the respondent for a used seat — so a retried sign-up, a replayed
 // webhook or a complete sent twice adds nothing: one insert below, `on conflict do nothing`.
-// Seat decisions of one workspace (starts and completes) are serialised by lockWorkspaceSeats.
+// Seat decisions of one workspace (starts and completes) are serialised by withSeatLock: an
+// in-process queue per workspace in front of a transaction holding lockWorkspaceSeats. Which
+// respondents hold a seat before they complete is ./seat-holds.ts.
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { LEDGER_REASONS } from '@/entities/seat-ledger-entry';
 import { sql, sqlOne } from '@/lib/server/db/sql';
@@ -61,6 +63,30 @@ export async function lockWorkspaceSeats(tx: EntityManager, workspaceId: string)
   await sql(tx, 'select id from workspace where id = ? for update', [workspaceId]);
 }
 
+const queues = ((globalThis as unknown as { __seatQueues?: Map<string, Promise<unknown>> }).__seatQueues ??= new Map());
+
+/**
+ * Runs `fn` in a transaction holding the workspace's seat lock (the row lock serialises every
+ * instance of the app). Inside one process, the seat decisions of a workspace also wait in an
+ * in-memory queue before they open their transaction: a burst of starts and completes then
+ * holds one pooled connection per workspace instead of one per waiter, so the answer path
+ * keeps the rest of the pool. A failure of one call does not stop the queue.
+ */
+export function withSeatLock<T>(em: EntityManager, workspaceId: string, fn: (tx: EntityManager) => Promise<T>): Promise<T> {
+  const run = (queues.get(workspaceId) ?? Promise.resolve()).then(() =>
+    em.transactional(async (tx) => {
+      await lockWorkspaceSeats(tx, workspaceId);
+      return fn(tx);
+    }),
+  );
+  const tail = run.then(() => undefined, () => undefined);
+  queues.set(workspaceId, tail);
+  void tail.then(() => {
+    if (queues.get(workspaceId) === tail) queues.delete(workspaceId);
+  });
+  return run;
+}
+
 /**
  * Uses one seat for a completing respondent, exactly once (a retried or concurrent complete
  * adds nothing). Returns false when no seat is left (only possible for a respondent who went
@@ -70,4 +96,37 @@ export async function useSeat(tx: EntityManager, workspaceId: string, respondent
   if ((await seatBalance(tx, workspaceId)) <= 0) return false;
   await addEntry(tx, { workspaceId, delta: -1, reason: 'complete', reference: respondentId, note: 'Respondent completed' });
   return true;
+}
+
+// useSeat's rule and the respondent's completion in one statement (the balance sum, the entry
+// keyed by the respondent with `on conflict do nothing`, the state change and the study's data
+// version), so a complete holds the seat lock for one round trip.
+const COMPLETE_WITH_SEAT = `
+with r as (
+  select r.id from respondent r join study s on s.id = r.study_id
+   where r.id = ? and r.state = 'started' and s.state <> 'closed' for update of r
+), bal as (
+  select coalesce(sum(delta), 0) as b from seat_ledger_entry where workspace_id = ?
+), ins as (
+  insert into seat_ledger_entry (id, workspace_id, delta, reason, reference, note, created_at)
+  select gen_random_uuid(), ?, -1, 'complete', r.id::text, 'Respondent completed', now() from r, bal where bal.b > 0
+  on conflict (reason, reference) do nothing returning id
+), upd as (
+  update respondent set state = 'completed', completed_at = now(), last_seen_at = now()
+   where id in (select id from r) and exists (select 1 from ins) returning id
+), st as (
+  update study set data_version = data_version + 1 where id = ? and exists (select 1 from upd) returning id
+)
+select (select count(*) from r) as open, (select count(*) from upd) as done`;
+
+/**
+ * Completes a started respondent of a study that is not closed and uses its seat, in one
+ * statement (call inside withSeatLock): 'completed'; 'no_seat' when the balance is spent (only
+ * possible for a respondent whose hold lapsed, lib/server/billing/seat-holds.ts); 'not_open' when
+ * the respondent is no longer started (completed meanwhile) or the study closed.
+ */
+export async function completeWithSeat(tx: EntityManager, r: { workspaceId: string; studyId: string; respondentId: string }): Promise<'completed' | 'no_seat' | 'not_open'> {
+  const row = await sqlOne<{ open: string; done: string }>(tx, COMPLETE_WITH_SEAT, [r.respondentId, r.workspaceId, r.workspaceId, r.studyId]);
+  if (Number(row?.done ?? 0) > 0) return 'completed';
+  return Number(row?.open ?? 0) > 0 ? 'no_seat' : 'not_open';
 }

@@ -24,6 +24,7 @@ export type LimitKind =
   | 'reset-ip'
   | 'invite-ip'
   | 'respondent-start-ip'
+  | 'respondent-start-link-address'
   | 'respondent-ip'
   | 'respondent';
 
@@ -42,6 +43,7 @@ function rules(kind: LimitKind): Rule {
     case 'reset-ip': return { points: 30, seconds: 600 };
     case 'invite-ip': return { points: 30, seconds: 600 };
     case 'respondent-start-ip': return { points: e.RATE_LIMIT_RESPONDENT_PER_MIN, seconds: 60 };
+    case 'respondent-start-link-address': return { points: e.RATE_LIMIT_STARTS_PER_LINK_ADDRESS, seconds: 600 };
     case 'respondent-ip': return { points: e.RATE_LIMIT_ANSWERS_PER_MIN, seconds: 60 };
     case 'respondent': return { points: e.RATE_LIMIT_ANSWERS_PER_RESPONDENT_PER_MIN, seconds: 60 };
   }
