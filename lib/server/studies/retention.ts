@@ -67,7 +67,8 @@ export async function purgeExpiredRespondents(now = new Date()): Promise<{ studi
   let respondents = 0;
   for (const s of await expiredStudies(now)) {
     await keepDefaultFit(s.id);
-    const db = await em();
+    // A fresh EntityManager: the fit above loaded the Study entity, and the audit's flush must not write it back over purged_at.
+    const db = (await em()).fork();
     const n = await db.transactional(async (tx) => {
       const claimed = await sql(tx, 'update study set purged_at = now() where id = ? and purged_at is null returning id', [s.id]);
       if (!claimed.length) return null; // another worker purged it meanwhile
@@ -92,7 +93,8 @@ export async function deleteRespondentByCode(ctx: WorkspaceContext, studyId: str
   const code = normalReferenceCode(rawCode);
   const notFound = () => new AppError(404, 'not_found', 'No respondent of this study has that reference code.', [{ path: 'code', message: 'No respondent of this study has this code. Check it with the respondent.' }]);
   if (!code) throw new AppError(422, 'validation_failed', 'That is not a reference code.', [{ path: 'code', message: 'A reference code has ten letters and digits, e.g. 7K2QD-M9XPA.' }]);
-  await db.transactional(async (tx) => {
+  // A fresh EntityManager for the write: the audit's flush must not write the loaded Study back over the data version.
+  await db.fork().transactional(async (tx) => {
     const gone = await sql<{ id: string }>(tx, 'delete from respondent where workspace_id = ? and study_id = ? and reference_code = ? returning id', [ctx.workspace.id, study.id, code]);
     if (!gone.length) throw notFound();
     // The cached fit is keyed by the data version: a new version means the next results view refits without them.
