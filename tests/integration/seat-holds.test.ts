@@ -16,7 +16,7 @@ import { balanceOf, makeLiveStudy, setBalance, testDesign } from '../support/res
 import { answersRes, answerFor, startOk, startRes, type Started } from '../support/respondent-client';
 
 const short = () => testDesign({ basePrices: [9.99], ladder: [0.05, 0.2], catchShare: 0, practiceTrials: 0, attentionCheck: { enabled: false }, segmentQuestions: [] });
-const consent = { consent: true, segmentAnswers: {} };
+const consent = { consent: true as const, segmentAnswers: {} };
 
 /** Moves a respondent's last activity (and start) back by `minutes`. */
 async function backdate(resumeToken: string, minutes: number) {
