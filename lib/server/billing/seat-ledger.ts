@@ -63,28 +63,58 @@ export async function lockWorkspaceSeats(tx: EntityManager, workspaceId: string)
   await sql(tx, 'select id from workspace where id = ? for update', [workspaceId]);
 }
 
-const queues = ((globalThis as unknown as { __seatQueues?: Map<string, Promise<unknown>> }).__seatQueues ??= new Map());
+interface Waiting { em: EntityManager; fn: (tx: EntityManager) => Promise<unknown>; resolve: (v: unknown) => void; reject: (e: unknown) => void }
+const holder = globalThis as unknown as { __seatQueues?: Map<string, Waiting[]> };
+const queues = (holder.__seatQueues ??= new Map());
+/** Seat decisions decided in one transaction at most (a burst of starts becomes a few transactions). */
+const MAX_BATCH = 50;
 
 /**
  * Runs `fn` in a transaction holding the workspace's seat lock (the row lock serialises every
- * instance of the app). Inside one process, the seat decisions of a workspace also wait in an
- * in-memory queue before they open their transaction: a burst of starts and completes then
- * holds one pooled connection per workspace instead of one per waiter, so the answer path
- * keeps the rest of the pool. A failure of one call does not stop the queue.
+ * instance of the app). Inside one process the seat decisions of a workspace wait in an
+ * in-memory queue instead: a burst of starts and completes then holds one pooled connection
+ * per workspace, not one per waiter, so the answer path keeps the rest of the pool. The
+ * decisions waiting when the lock comes free are taken together, in order, in ONE transaction
+ * (one BEGIN, one lock, one COMMIT and its WAL flush for the lot): each `fn` is one statement
+ * that decides from what the ones before it wrote. `fn` must not throw for an expected outcome
+ * (return it instead); should one fail, the batch is rolled back and each call is run alone,
+ * so every caller gets its own result. Results are handed out only after the commit.
  */
 export function withSeatLock<T>(em: EntityManager, workspaceId: string, fn: (tx: EntityManager) => Promise<T>): Promise<T> {
-  const run = (queues.get(workspaceId) ?? Promise.resolve()).then(() =>
-    em.transactional(async (tx) => {
-      await lockWorkspaceSeats(tx, workspaceId);
-      return fn(tx);
-    }),
-  );
-  const tail = run.then(() => undefined, () => undefined);
-  queues.set(workspaceId, tail);
-  void tail.then(() => {
-    if (queues.get(workspaceId) === tail) queues.delete(workspaceId);
+  return new Promise<T>((resolve, reject) => {
+    const waiting = queues.get(workspaceId);
+    const entry: Waiting = { em, fn, resolve: resolve as (v: unknown) => void, reject };
+    if (waiting) {
+      waiting.push(entry);
+      return;
+    }
+    queues.set(workspaceId, [entry]);
+    void drain(workspaceId);
   });
-  return run;
+}
+
+async function drain(workspaceId: string): Promise<void> {
+  const waiting = queues.get(workspaceId)!;
+  try {
+    while (waiting.length) await runBatch(workspaceId, waiting.splice(0, MAX_BATCH));
+  } finally {
+    queues.delete(workspaceId);
+  }
+}
+
+async function runBatch(workspaceId: string, batch: Waiting[]): Promise<void> {
+  const results: unknown[] = [];
+  try {
+    await batch[0].em.transactional(async (tx) => {
+      await lockWorkspaceSeats(tx, workspaceId);
+      for (const w of batch) results.push(await w.fn(tx));
+    });
+  } catch (err) {
+    if (batch.length === 1) return batch[0].reject(err);
+    for (const w of batch) await runBatch(workspaceId, [w]);
+    return;
+  }
+  batch.forEach((w, i) => w.resolve(results[i]));
 }
 
 /**
