@@ -16,6 +16,8 @@ export const RespondentLink = defineEntity({
     quota: p.integer().nullable(),
     /** Accept a panel's respondent id as ?pid= (kept only to prevent duplicates). */
     acceptsPid: p.boolean().default(false),
+    /** When set, a panel id must come signed with it (?pid=…&sig=…, see respondent/server/panel-ids.ts). */
+    pidSecret: p.string().length(64).nullable(),
     closedAt: p.datetime().nullable(),
     createdAt: p.datetime().onCreate(() => new Date()),
   }),

@@ -9,7 +9,13 @@ export const RESPONDENT_STATES = ['started', 'completed', 'imported'] as const;
 export const Respondent = defineEntity({
   name: 'Respondent',
   tableName: 'respondent',
-  indexes: [{ properties: ['study', 'state'] }],
+  indexes: [
+    { properties: ['study', 'state'] },
+    // The seat decision's reads (respondent/server/admission.ts): respondents still holding a seat.
+    { name: 'respondent_holding_index', expression: `create index "respondent_holding_index" on "respondent" ("workspace_id", "last_seen_at") where "state" = 'started'` },
+    { name: 'respondent_link_holding_index', expression: `create index "respondent_link_holding_index" on "respondent" ("link_id", "last_seen_at") where "state" = 'started'` },
+    { name: 'respondent_workspace_reference_unique', expression: `create unique index "respondent_workspace_reference_unique" on "respondent" ("workspace_id", "reference_code") where "reference_code" is not null` },
+  ],
   uniques: [{ name: 'respondent_study_pid_unique', properties: ['study', 'pid'] }],
   properties: (p) => ({
     id: p.uuid().primary().onCreate(() => randomUUID()),
@@ -22,6 +28,8 @@ export const Respondent = defineEntity({
     resumeToken: p.string().length(64).unique(),
     /** Label an imported respondent had in the uploaded file. */
     externalRef: p.string().length(120).nullable(),
+    /** The code shown on the thank-you screen, by which an analyst deletes this respondent on request. */
+    referenceCode: p.string().length(16).nullable(),
     seed: p.integer(),
     state: p.enum([...RESPONDENT_STATES]).default('started'),
     segmentAnswers: p.json<Record<string, string>>().default('{}'),

@@ -29,6 +29,10 @@ export const Study = defineEntity({
     createdAt: p.datetime().onCreate(() => new Date()),
     updatedAt: p.datetime().onCreate(() => new Date()).onUpdate(() => new Date()),
     launchedAt: p.datetime().nullable(),
+    /** Days respondents' data is kept after closing, frozen at launch (what the consent screen told them). */
+    retentionDays: p.integer().nullable(),
+    /** When the daily purge deleted the respondents of this closed study (lib/server/studies/retention.ts). */
+    purgedAt: p.datetime().nullable(),
     closedAt: p.datetime().nullable(),
   }),
 });

@@ -25,6 +25,8 @@ export const envSchema = z.object({
   BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(12),
   /** Respondent starts per minute from one IP address (a venue's or a panel's NAT shares one). */
   RATE_LIMIT_RESPONDENT_PER_MIN: z.coerce.number().int().positive().default(6000),
+  /** New respondents per link from one address per 10 minutes (a start holds a seat that long; see respondent/server/respondents.ts). */
+  RATE_LIMIT_STARTS_PER_LINK_ADDRESS: z.coerce.number().int().positive().default(10),
   /** Respondent answers (and state/complete calls) per minute from one IP address. */
   RATE_LIMIT_ANSWERS_PER_MIN: z.coerce.number().int().positive().default(120_000),
   /** Answers per minute of one respondent (a person answers about one a second). */

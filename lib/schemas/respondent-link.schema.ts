@@ -10,6 +10,8 @@ export const respondentLinkSchema = z.object({
     .optional()
     .transform((v) => v ?? null),
   acceptsPid: z.boolean().default(false),
+  /** The panel signs each id (&sig=): nobody else can use a panelist's id first (respondent/server/panel-ids.ts). */
+  signsPid: z.boolean().default(false),
 });
 export type RespondentLinkInput = z.input<typeof respondentLinkSchema>;
 

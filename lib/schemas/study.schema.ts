@@ -52,6 +52,7 @@ export const DESIGN_DEFAULTS = {
   adaptive: { rule: '1u2d', trialsPerBase: 24, reversals: 8 },
   attentionCheck: { question: 'To show you are reading carefully, choose “Often”.', options: ['Never', 'Sometimes', 'Often', 'Always'], correct: 'Often' },
   redirectUrl: '',
+  contact: '',
 } as const;
 
 const money = z.coerce.number({ error: 'Enter a price.' }).finite('Enter a price.').gt(0, 'Prices must be above zero.').max(1_000_000, 'At most 1,000,000.');
@@ -119,6 +120,8 @@ const designFields = z.object({
   orderSeed: z.coerce.number().int().min(0).max(2_147_483_647),
   adaptive: adaptiveSchema,
   consentText: z.string().trim().min(40, 'Write a consent text of at least 40 characters.').max(4000, 'At most 4,000 characters.'),
+  /** Who runs this study and how respondents reach them; shown with the consent text; required to launch (lib/server/studies/lifecycle.ts). */
+  contact: z.string().trim().max(300, 'At most 300 characters.').default(DESIGN_DEFAULTS.contact),
   segmentQuestions: z
     .array(segmentQuestionSchema)
     .max(MAX_SEGMENT_QUESTIONS, `At most ${MAX_SEGMENT_QUESTIONS} segment questions.`)

@@ -6,8 +6,10 @@ import { primaryButton } from './price-tag';
  * none) can still begin; the script then hydrates the same markup and starts without a reload.
  * No hooks, so the server can render it.
  */
-export function ConsentScreen({ consentText, retentionDays, action, pid, onAgree }: {
+export function ConsentScreen({ consentText, contact, retentionDays, action, pid, onAgree }: {
   consentText: string;
+  /** Who runs the study and how to reach them (required at launch). */
+  contact?: string;
   retentionDays: number;
   action?: string;
   pid?: string | null;
@@ -29,6 +31,8 @@ export function ConsentScreen({ consentText, retentionDays, action, pid, onAgree
       <ul className="flex flex-col gap-2 border-l-2 border-rule pl-4 text-base text-muted">
         <li>No names or e-mail addresses are stored.</li>
         <li>Your answers are kept for {retentionDays} days after the study closes, then deleted.</li>
+        {contact ? <li data-testid="consent-contact">Who runs this study: {contact}</li> : null}
+        <li>At the end you get a reference code: quote it to ask for your answers to be deleted.</li>
       </ul>
       {pid ? <input type="hidden" name="pid" value={pid} /> : null}
       <input type="hidden" name="consent" value="true" />

@@ -173,7 +173,7 @@ export function RespondentFlow(p: FlowProps) {
   const current = upcoming[0];
   let body: React.ReactNode;
   if (step.s === 'consent') {
-    body = <ConsentScreen consentText={p.consentText} retentionDays={p.retentionDays} action={p.formAction} pid={p.pid}
+    body = <ConsentScreen consentText={p.consentText} contact={p.study.contact} retentionDays={p.retentionDays} action={p.formAction} pid={p.pid}
       onAgree={() => (p.questions.length ? setStep({ s: 'question', i: 0 }) : void begin({}))} />;
   } else if (step.s === 'question') {
     body = <QuestionScreen key={step.i} question={p.questions[step.i]} n={step.i + 1} of={p.questions.length} onAnswer={(o) => answerQuestion(o, step.i)} />;
@@ -187,7 +187,7 @@ export function RespondentFlow(p: FlowProps) {
   } else if (step.s === 'trial' && current) {
     body = <TrialScreen key={current.idx} study={study} trial={current} onAnswer={(a, ms) => answerTrial(current, a, ms)} />;
   } else if (step.s === 'thanks') {
-    body = p.preview ? <PreviewEnd /> : <Thanks />;
+    body = p.preview ? <PreviewEnd /> : <Thanks referenceCode={flow?.referenceCode} />;
   } else if (step.s === 'stopped') {
     body = <Stopped code={step.code} message={step.message} />;
   } else {

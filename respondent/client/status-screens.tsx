@@ -33,11 +33,17 @@ export function Reconnecting() {
   );
 }
 
-export function Thanks() {
+export function Thanks({ referenceCode }: { referenceCode?: string | null }) {
   return (
     <div className="flex flex-col gap-4 py-10 text-center" data-testid="thanks">
       <h1 className="text-3xl">Thank you</h1>
       <p className="text-lg">Your answers have been saved. You can close this page now.</p>
+      {referenceCode ? (
+        <p className="text-base text-muted">
+          Your reference: <span className="font-mono text-ink" data-testid="reference-code">{referenceCode}</span>
+          <br />Quote it to the contact on the first screen to have your answers deleted.
+        </p>
+      ) : null}
     </div>
   );
 }

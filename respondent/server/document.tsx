@@ -55,7 +55,7 @@ export function consentDocument({ title, action, boot }: { title: string; action
     boot,
     screen: (
       <FlowColumn>
-        <ConsentScreen consentText={boot.consentText} retentionDays={boot.retentionDays} action={action} pid={boot.pid} />
+        <ConsentScreen consentText={boot.consentText} contact={boot.study.contact} retentionDays={boot.retentionDays} action={action} pid={boot.pid} />
       </FlowColumn>
     ),
   });

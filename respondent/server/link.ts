@@ -4,7 +4,7 @@ import { readDesign, type StudyDesign } from '@/lib/schemas/study.schema';
 import { sqlOne } from '@/lib/server/db/sql';
 import { AppError } from '@/lib/server/http/errors';
 
-/** A respondent link as the respondent side sees it: the link with its study's state and design and its workspace's retention. */
+/** A respondent link as the respondent side sees it: the link with its study's state, design and retention. */
 export interface RespondentLinkWithStudy {
   token: string;
   linkId: string;
@@ -14,7 +14,10 @@ export interface RespondentLinkWithStudy {
   closed: boolean;
   quota: number | null;
   acceptsPid: boolean;
+  /** The key panel ids must be signed with, or null (respondent/server/panel-ids.ts). */
+  pidSecret: string | null;
   design: StudyDesign;
+  /** Frozen in the study at launch (what the consent screen promises); the workspace's setting before that. */
   retentionDays: number;
 }
 
@@ -23,7 +26,8 @@ export async function loadLink(db: EntityManager, token: string): Promise<Respon
   if (!/^[A-Za-z0-9_-]{8,64}$/.test(token)) return null;
   const r = await sqlOne(
     db,
-    `select l.id as link_id, l.closed_at, l.quota, l.accepts_pid, s.id as study_id, s.state, s.design, s.workspace_id, w.retention_days
+    `select l.id as link_id, l.closed_at, l.quota, l.accepts_pid, l.pid_secret, s.id as study_id, s.state, s.design, s.workspace_id,
+            coalesce(s.retention_days, w.retention_days) as retention_days
        from respondent_link l join study s on s.id = l.study_id join workspace w on w.id = s.workspace_id
       where l.token = ?`,
     [token],
@@ -38,6 +42,7 @@ export async function loadLink(db: EntityManager, token: string): Promise<Respon
     closed: r.closed_at != null,
     quota: r.quota == null ? null : Number(r.quota),
     acceptsPid: Boolean(r.accepts_pid),
+    pidSecret: (r.pid_secret as string | null) ?? null,
     design: readDesign(r.design, String(r.state)),
     retentionDays: Number(r.retention_days),
   };

@@ -14,9 +14,11 @@ import { respondentUrls } from '@/respondent/shared/urls';
 import { em } from '@/lib/server/db/orm';
 import { AppError } from '@/lib/server/http/errors';
 import { openLink, type RespondentLinkWithStudy } from './link';
-import { lockWorkspaceSeats } from '@/lib/server/billing/seat-ledger';
+import { withSeatLock } from '@/lib/server/billing/seat-ledger';
 import { sql } from '@/lib/server/db/sql';
-import { quotaAvailable, seatAvailableForStart } from './admission';
+import { limit } from '@/lib/server/platform/rate-limit';
+import { admitRespondent } from './admission';
+import { PID_TAKEN, checkedPid, newReferenceCode, pidProofCookieName, requireSignedPid } from './panel-ids';
 import { answeredHistory, newResumeToken, newSeed, planFor } from './trials';
 
 /** A respondent's stored progress through the flow. */
@@ -28,22 +30,25 @@ export interface RespondentProgress {
   plan: TrialPlan;
   answeredCount: number;
   segmentAnswers: Record<string, string>;
+  referenceCode: string | null;
 }
 
 const FULL = () => new AppError(409, 'study_full', 'This study is full. Thank you for your interest.');
+// The respondent's own device (it holds the resume token) may be told it finished.
 const DONE = () => new AppError(409, 'already_taken_part', 'You have already taken part in this study. Thank you!');
 // A panel id is not a secret (panels often number their members): it never hands out another
-// respondent's resume token, plan or answers. The device that started keeps its resume token.
-const PID_IN_USE = () => new AppError(409, 'already_taken_part', 'This panel id has already started this study on another device or browser. Continue there to finish.');
+// respondent's resume token, plan or answers, nor says whether that respondent finished
+// (PID_TAKEN, ./panel-ids.ts). The device that started keeps its resume token.
 
 function toRow(r: Record<string, unknown>): RespondentProgress {
   return {
     id: String(r.id), pid: (r.pid as string | null) ?? null, seed: Number(r.seed), state: String(r.state),
     plan: r.plan as TrialPlan, answeredCount: Number(r.answered_count), segmentAnswers: (r.segment_answers as Record<string, string>) ?? {},
+    referenceCode: (r.reference_code as string | null) ?? null,
   };
 }
 
-const SELECT = 'select id, pid, seed, state, plan, answered_count, segment_answers from respondent';
+const SELECT = 'select id, pid, seed, state, plan, answered_count, segment_answers, reference_code from respondent';
 
 export async function findByResume(db: EntityManager, studyId: string, resumeToken: string | null): Promise<(RespondentProgress & { resumeToken: string }) | null> {
   if (!resumeToken || resumeToken.length > 64) return null;
@@ -78,52 +83,50 @@ export async function stateOf(db: EntityManager, link: RespondentLinkWithStudy, 
     needsQuestions: needsQuestions(link.design, r), completed: r.state === 'completed',
     redirectUrl: r.state === 'completed' ? completionRedirect(link.design, r.pid) : null,
     pictureUrl: link.design.itemPictureId ? respondentUrls(link.token).picture : null,
+    referenceCode: r.referenceCode,
   });
 }
 
+/** What the start route knows about the request besides its body. */
+export interface StartClient {
+  /** The client's address (lib/server/platform/rate-limit.ts clientIp): per-link start limit. */
+  address?: string;
+  /** A cookie of the request by name (the panel-id signature kept by the take-part page). */
+  cookie?: (name: string) => string | null;
+}
+
 /**
- * Resume (by token or panel id) or create a respondent; refuses when no seat or quota is left.
+ * Resume (by token) or create a respondent; refuses when no seat or quota is left. A new start
+ * counts against the link's limit per address (RATE_LIMIT_STARTS_PER_LINK_ADDRESS per 10 min,
+ * the time a start holds a seat without answering — lib/server/billing/seat-holds.ts), so one
+ * address cannot hold a workspace's seats through a link. Panel ids: ./panel-ids.ts.
  * `resumeTokenFor` names the study, so the caller can read the study's resume cookie.
  */
-export async function startRespondent(token: string, input: StartInput, resumeTokenFor: (studyId: string) => string | null): Promise<StartReply & { studyId: string }> {
+export async function startRespondent(token: string, input: StartInput, resumeTokenFor: (studyId: string) => string | null, client: StartClient = {}): Promise<StartReply & { studyId: string }> {
   const db = await em();
   const link = await openLink(db, token);
   const resumeToken = resumeTokenFor(link.studyId);
-  const pid = link.acceptsPid ? (input.pid ?? null) : null;
+  const pid = link.acceptsPid ? checkedPid(input.pid) : null;
   const hasAnswers = Object.keys(input.segmentAnswers).length > 0;
   const answers = hasAnswers ? validSegmentAnswers(link.design, input.segmentAnswers) : {};
 
   const existing = await findByResume(db, link.studyId, resumeToken);
   if (existing) return resume(db, link, existing, answers);
-  if (pid) await refuseKnownPid(db, link.studyId, pid);
+  requireSignedPid(link.pidSecret, pid, client.cookie?.(pidProofCookieName(link.linkId)));
+  if (pid && (await findByPid(db, link.studyId, pid))) throw PID_TAKEN();
+  await limit('respondent-start-link-address', `${link.linkId}|${client.address ?? 'unknown'}`);
 
   const seed = newSeed();
-  const plan = planFor(link.design, seed);
   const fresh = newResumeToken();
-  try {
-    await db.transactional(async (tx) => {
-      await lockWorkspaceSeats(tx, link.workspaceId);
-      if (!(await seatAvailableForStart(tx, link.workspaceId)) || !(await quotaAvailable(tx, link.linkId, link.quota))) throw FULL();
-      await sql(
-        tx,
-        `insert into respondent (id, workspace_id, study_id, link_id, pid, resume_token, seed, state, segment_answers, plan, answered_count, started_at, last_seen_at)
-         values (?, ?, ?, ?, ?, ?, ?, 'started', ?::jsonb, ?::jsonb, 0, now(), now())`,
-        [randomUUID(), link.workspaceId, link.studyId, link.linkId, pid, fresh, seed, JSON.stringify(answers), JSON.stringify(plan)],
-      );
-    });
-  } catch (err) {
-    // Two starts with the same panel id at once: the unique (study, pid) lets one in; the other is refused.
-    if (pid && (err as { code?: string }).code === '23505') await refuseKnownPid(db, link.studyId, pid);
-    throw err;
-  }
+  const admitted = await withSeatLock(db, link.workspaceId, (tx) => admitRespondent(tx, {
+    id: randomUUID(), workspaceId: link.workspaceId, studyId: link.studyId, linkId: link.linkId, quota: link.quota, pid,
+    resumeToken: fresh, referenceCode: newReferenceCode(), seed, segmentAnswers: answers, plan: planFor(link.design, seed),
+  }));
+  // Two starts with the same panel id at once: the unique (study, pid) lets one in; the other gets the one refusal.
+  if (admitted === 'pid_taken') throw PID_TAKEN();
+  if (admitted === 'full') throw FULL();
   const created = (await findByResume(db, link.studyId, fresh))!;
   return { ...(await stateOf(db, link, created)), resumeToken: fresh, studyId: link.studyId };
-}
-
-/** A start naming a panel id that already took part (or is taking part) without its resume token. */
-async function refuseKnownPid(db: EntityManager, studyId: string, pid: string) {
-  const known = await findByPid(db, studyId, pid);
-  if (known) throw known.state === 'completed' ? DONE() : PID_IN_USE();
 }
 
 async function resume(db: EntityManager, link: RespondentLinkWithStudy, r: RespondentProgress & { resumeToken: string }, answers: Record<string, string>) {

@@ -7,6 +7,8 @@ import { openForNewRespondents } from './admission';
 import { consentDocument, resumeDocument, stoppedDocument } from './document';
 import { linkRefusal, loadLink, resumeCookieName } from './link';
 import { findByResume, stateOf } from './respondents';
+import { checkedPid, pidProofCookie, requireSignedPid } from './panel-ids';
+import { AppError } from '@/lib/server/http/errors';
 import type { RespondentBoot } from '@/respondent/shared/boot';
 import { flowStudy } from '@/respondent/shared/screens';
 import { respondentUrls } from '@/respondent/shared/urls';
@@ -18,16 +20,29 @@ export interface TakePartRequest {
   /** ?resume= from the address, else the resume cookie's value for the link's study. */
   resume: (studyId: string) => string | null;
   pid: string | null;
+  /** ?sig=: the panel's signature of the pid, on links that ask for one (./panel-ids.ts). */
+  sig?: string | null;
+  /** Served over https (the signature cookie is then Secure). */
+  secure?: boolean;
 }
 
 /** The whole HTML response for GET /r/[token]/take-part. */
-export async function takePartDocument({ token, resume, pid }: TakePartRequest): Promise<Response> {
+export async function takePartDocument({ token, resume, pid: rawPid, sig, secure = false }: TakePartRequest): Promise<Response> {
   const db = await em();
   const link = await loadLink(db, token);
   const refusal = linkRefusal(link);
   if (refusal || !link) return stoppedDocument(refusal!);
 
   const r = await findByResume(db, link.studyId, resume(link.studyId));
+  // Panel ids are checked here too, so a bad one is refused before the consent screen.
+  let pid: string | null = null;
+  try {
+    pid = link.acceptsPid && !r ? checkedPid(rawPid) : null;
+    if (pid) requireSignedPid(link.pidSecret, pid, sig);
+  } catch (err) {
+    if (err instanceof AppError) return stoppedDocument(err);
+    throw err;
+  }
   if (!r && !(await openForNewRespondents(db, link.workspaceId, link.linkId, link.quota))) {
     return stoppedDocument({ status: 200, code: 'study_full', message: 'Thank you for your interest. No more answers are needed.' });
   }
@@ -36,14 +51,17 @@ export async function takePartDocument({ token, resume, pid }: TakePartRequest):
   const boot: RespondentBoot = {
     token,
     resumeToken: r?.resumeToken ?? null,
-    pid: link.acceptsPid ? pid : null,
+    pid,
     initial: r ? await stateOf(db, link, r) : null,
     study: flowStudy(design, design.itemPictureId ? urls.picture : null),
     consentText: design.consentText,
     retentionDays: link.retentionDays,
     questions: design.segmentQuestions,
   };
-  return r ? resumeDocument({ title: TITLE, boot }) : consentDocument({ title: TITLE, action: urls.start, boot });
+  if (r) return resumeDocument({ title: TITLE, boot });
+  const doc = await consentDocument({ title: TITLE, action: urls.start, boot });
+  if (pid && link.pidSecret && sig) doc.headers.append('set-cookie', pidProofCookie(link.linkId, sig, secure));
+  return doc;
 }
 
 export { resumeCookieName };

@@ -12,6 +12,7 @@ export function flowStudy(design: StudyDesign, pictureUrl: string | null = null)
     locale: design.locale,
     viewMs: design.viewMs,
     tripMinutes: design.tripMinutes,
+    contact: design.contact,
   };
 }
 
@@ -53,6 +54,7 @@ export function flowState(args: {
   completed: boolean;
   redirectUrl: string | null;
   pictureUrl?: string | null;
+  referenceCode?: string | null;
 }): FlowState {
   const { design, plan } = args;
   const upcoming = args.completed ? [] : upcomingTrials(design, args.seed, plan, args.answered, args.answeredCount);
@@ -68,6 +70,7 @@ export function flowState(args: {
     total,
     practice: (plan.mode === 'fixed' ? plan.trials : plan.slots).filter((t) => t.kind === 'practice').length,
     redirectUrl: args.redirectUrl,
+    referenceCode: args.referenceCode ?? null,
   };
 }
 

@@ -81,6 +81,8 @@ export interface FlowStudy {
   locale: string;
   viewMs: number;
   tripMinutes: number;
+  /** Who runs the study and how to reach them (the design's contact line, shown with the consent text). */
+  contact: string;
 }
 
 /** The next screen(s) for a respondent: returned by GET state, start and answer. */
@@ -96,4 +98,6 @@ export interface FlowState {
   /** Practice screens at the start of the plan (counted in total; progress shows the rest). */
   practice: number;
   redirectUrl: string | null;
+  /** The respondent's reference code for a deletion request (shown on the thank-you screen); null in a preview. */
+  referenceCode: string | null;
 }

@@ -68,6 +68,7 @@ export function appEnv(databaseUrl: string, opts: { stripePort: number; smtpPort
     // Hundreds of simulated respondents come from this one machine: limits raised well above
     // the load (each respondent also sends its own X-Forwarded-For, as behind a proxy).
     RATE_LIMIT_RESPONDENT_PER_MIN: '1000000',
+    RATE_LIMIT_STARTS_PER_LINK_ADDRESS: '1000000',
     RATE_LIMIT_ANSWERS_PER_MIN: '10000000',
     RATE_LIMIT_ANSWERS_PER_RESPONDENT_PER_MIN: '100000',
     RUN_WORKER: 'false',

@@ -31,6 +31,7 @@ export const DEMO_DESIGN = studyDesignSchema.parse({
   orderSeed: 20260301,
   adaptive: { enabled: false, rule: '1u2d', trialsPerBase: 24, reversals: 8 },
   consentText: DEFAULT_CONSENT,
+  contact: 'Harbourline Home pricing research (fictional), privacy@harbourline.example — quote your reference code to have your answers deleted.',
   segmentQuestions: [{ id: 'shop_often', text: 'How often do you shop this category?', options: ['Every month', 'A few times a year', 'Rarely'] }],
   attentionCheck: { enabled: true, question: 'To show you are reading carefully, choose “Often”.', options: ['Never', 'Sometimes', 'Often', 'Always'], correct: 'Often' },
   targetCompletes: 120,
@@ -72,7 +73,7 @@ export async function seedDemoStudy(db: EntityManager, workspaceId: string) {
   const id = await db.transactional(async (tx) => {
     const study = tx.create(Study, {
       workspace: workspaceId, name: DEMO_STUDY_NAME, state: 'closed', design: DEMO_DESIGN, exclusionRules: DEFAULT_EXCLUSION_RULES,
-      dataVersion: 1, createdAt: launchedAt, updatedAt: closedAt, launchedAt, closedAt,
+      dataVersion: 1, createdAt: launchedAt, updatedAt: closedAt, launchedAt, closedAt, retentionDays: 365,
     });
     const links = ['Newsletter', 'Store QR'].map((source) => tx.create(RespondentLink, {
       workspace: workspaceId, study, token: randomToken(), source, quota: null, acceptsPid: false, closedAt, createdAt: launchedAt,

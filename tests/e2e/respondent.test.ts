@@ -74,6 +74,8 @@ describe('a respondent completes a study on a phone', () => {
     }
     await page.getByTestId('thanks').waitFor();
     expect(trials).toBe(18); // 2 practice + 12 test + 3 catch + 1 attention
+    // The reference code for a deletion request, as stored for this respondent (not its id).
+    expect(await page.getByTestId('reference-code').innerText()).toMatch(/^[0-9A-HJKMNP-TV-Z]{5}-[0-9A-HJKMNP-TV-Z]{5}$/);
     expect(shot).toBe(true);
     // The flow's own bundle only: no Next.js client runtime on the respondent pages.
     expect(scripts.length).toBe(1);

@@ -72,6 +72,9 @@ describe('an analyst builds, launches and shares a study in Chromium', () => {
     await page.getByLabel('Question 1', { exact: true }).fill('How often do you buy coffee?');
     await page.getByLabel('Answer 1', { exact: true }).fill('Every week');
     await page.getByLabel('Answer 2', { exact: true }).fill('Less often');
+    // Respondents' data: who runs the study (required to launch) and the caution beside the consent text.
+    await page.getByLabel('Who runs this study (contact)').fill('Pricing research, Harbourline Home (fictional) — research@harbourline.example');
+    expect(await page.getByTestId('data-protection-consent').count()).toBe(1);
     await screenshot(page, 'study-builder');
 
     await page.getByRole('button', { name: 'Save as draft' }).click();
@@ -92,6 +95,8 @@ describe('an analyst builds, launches and shares a study in Chromium', () => {
     await poll(() => page.getByTestId('completes').textContent()).toBe('0');
     // The monitor's seats left is the workspace's ledger balance, read here straight from the table.
     expect((await page.getByTestId('seats-left').textContent())?.trim()).toBe(String(await ledgerBalance('harbourline')));
+    // Held vs used seats: nobody has started yet.
+    expect((await page.getByTestId('seats-held').textContent())?.trim()).toBe('0');
     await page.goto(`${studyUrl}/edit`);
     await page.waitForURL(/frozen=1/);
     expect(await page.getByText('its design is frozen').count()).toBe(1);

@@ -15,6 +15,7 @@ export function testDesign(over: Partial<StudyDesignInput> = {}): StudyDesign {
     adaptive: { enabled: false }, consentText: 'A short price survey. No names or e-mail addresses are stored; answers are kept under a random number.',
     segmentQuestions: [{ id: 'household', text: 'How many people live in your household?', options: ['1', '2', '3 or more'] }],
     attentionCheck: { enabled: true }, targetCompletes: 50, redirectUrl: '', priceEnding: 'exact',
+    contact: 'Pricing research, Test Grocers Ltd — research@example.test',
     ...over,
   });
 }

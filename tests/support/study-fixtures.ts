@@ -11,6 +11,7 @@ export function validDesign(over: Partial<StudyDesignInput> = {}): StudyDesignIn
     basePrices: [9.99, 2.49, 49],
     ladder: [0.02, 0.05, 0.1, 0.2],
     repetitions: 3,
+    contact: 'Pricing research, Test Grocers Ltd — research@example.test',
     ...over,
   };
 }

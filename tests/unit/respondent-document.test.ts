@@ -10,7 +10,7 @@ import { respondentUrls } from '@/respondent/shared/urls';
 // The respondent documents rendered on the server from the flow's own components. Whether the
 // vite bundle is built does not matter here: these checks read only the first screen.
 
-const study = { task: 'pick', itemName: 'Oil', pictureUrl: null, currency: 'EUR', locale: 'en-IE', viewMs: 500, tripMinutes: 10 } as const;
+const study = { task: 'pick', itemName: 'Oil', pictureUrl: null, currency: 'EUR', locale: 'en-IE', viewMs: 500, tripMinutes: 10, contact: 'Pricing team, Example Foods Ltd — privacy@example.test' } as const;
 const boot = (over: Partial<RespondentBoot> = {}): RespondentBoot => ({
   token: 'abc_DEF-123', resumeToken: null, pid: null, initial: null, study, retentionDays: 365, questions: [],
   consentText: 'A short survey.\nNo names are stored.', ...over,

@@ -37,7 +37,7 @@ describe("the builder's minutes match a measured respondent", () => {
   });
 });
 
-const study = (task: FlowStudy['task']): FlowStudy => ({ task, itemName: 'Olive oil', pictureUrl: null, currency: 'EUR', locale: 'en-IE', viewMs: 1200, tripMinutes: 15 });
+const study = (task: FlowStudy['task']): FlowStudy => ({ task, itemName: 'Olive oil', pictureUrl: null, currency: 'EUR', locale: 'en-IE', viewMs: 1200, tripMinutes: 15, contact: 'Harbourline pricing team, research@harbourline.example' });
 const practice = (over: Partial<PublicTrial> = {}): PublicTrial => ({ idx: 0, kind: 'practice', label: 'Olive oil', base: 9.99, price: 6.99, ...over });
 
 describe('practice feedback', () => {

@@ -6,7 +6,7 @@ import { respondentUrls } from '@/respondent/shared/urls';
 /**
  * The shared link. Unknown, closed or paused links answer here with the stop screen and a real
  * 404 or 410 status (a page can only say 404); open links continue to the flow, keeping ?pid=
- * and ?resume=.
+ * (with a panel's ?sig=) and ?resume=.
  */
 export const GET = route(
   { auth: 'public', reason: 'the link respondents are sent to; the unguessable token in the path is the only credential' },
@@ -15,7 +15,7 @@ export const GET = route(
     const refusal = await linkEntryRefusal(token);
     if (refusal) return stoppedDocument(refusal);
     const to = new URLSearchParams();
-    for (const key of ['pid', 'resume']) {
+    for (const key of ['pid', 'sig', 'resume']) {
       const v = req.nextUrl.searchParams.get(key);
       if (v) to.set(key, v);
     }

@@ -7,7 +7,7 @@ import type { Cell, CatchCell, Task } from '@/lib/psychometrics/types';
 import type { ExclusionCounts } from '@/lib/exclusions';
 import { poorFitReason } from '@/lib/results-text';
 import type { ExclusionRules } from '@/lib/schemas/exclusions.schema';
-import { hashKey, latestDone, requestComputation, runCached, type CacheRow, type JobData } from './cache';
+import { hashKey, latestDone, readCache, requestComputation, runCached, type CacheRow, type JobData } from './cache';
 import { em } from '@/lib/server/db/orm';
 import { sql } from '@/lib/server/db/sql';
 import { toDetail, type StudyDetail } from '@/lib/server/studies/studies';
@@ -86,7 +86,9 @@ export async function getFitState(ctx: WorkspaceContext, studyId: string, opts: 
   const study = await findStudy(db, ctx.workspace.id, studyId);
   const { cacheKey, optionsKey } = fitCacheKey(study, opts);
   const base = { study, counts: null, cells: null, previous: null, job: null };
-  if (!(await hasAnsweredTests(study.id))) {
+  // After the retention purge (lib/server/studies/retention.ts) no respondent is left, but the fit
+  // computed before it stays cached at the same data version, and is shown.
+  if (!(await hasAnsweredTests(study.id)) && (await readCache(study.id, 'fit', cacheKey))?.status !== 'done') {
     return { ...base, fit: { status: 'empty', message: 'No finished respondent has answered a test trial yet.' } };
   }
   const row = await requestComputation<FitResult>({

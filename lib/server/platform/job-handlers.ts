@@ -8,6 +8,7 @@ import { withRequestContext } from '@/lib/server/db/orm';
 import { runPlannerJob } from '@/lib/server/analysis/planner';
 import { runSegmentsJob } from '@/lib/server/analysis/segments';
 import { runWeberPlanJob } from '@/lib/server/analysis/weber-plan';
+import { purgeExpiredRespondents } from '@/lib/server/studies/retention';
 
 // What the worker runs for each job kind; one place, so tests can call a handler directly.
 
@@ -28,6 +29,7 @@ async function runJob(data: JobData, lastAttempt: boolean): Promise<void> {
 /** Subscribes this process to every queue; one job at a time per queue (the machine is small). */
 export async function startWorkers(log: (m: string) => void = () => {}) {
   const b = await boss('worker');
+  await startMaintenance(b, log);
   for (const queue of ['analysis', 'planner'] as QueueName[]) {
     await b.work<JobData>(queue, { includeMetadata: true, batchSize: 1, pollingIntervalSeconds: 1 }, async (jobs: PgBoss.JobWithMetadata<JobData>[]) => {
       for (const job of jobs) {
@@ -45,4 +47,39 @@ export async function startWorkers(log: (m: string) => void = () => {}) {
     }
   });
   return b;
+}
+
+// Daily maintenance: the purge of respondents whose study closed longer ago than the retention
+// it was launched with (lib/server/studies/retention.ts). Its own queue, so it never waits behind
+// fits. Every worker offers the job at start and then hourly; pg-boss's singletonSeconds lets
+// one job per day through across all workers, so it runs daily even with several workers or
+// after restarts. The purge is idempotent (a study is claimed by setting purged_at).
+export const MAINTENANCE_QUEUE = 'maintenance';
+const DAY_SECONDS = 24 * 60 * 60;
+export type MaintenanceKind = 'purge-respondents';
+
+/** Runs one maintenance job (also called directly by tests). */
+export function handleMaintenance(kind: MaintenanceKind): Promise<unknown> {
+  if (kind === 'purge-respondents') return withRequestContext(() => purgeExpiredRespondents());
+  throw new Error(`unknown maintenance job ${String(kind)}`);
+}
+
+/** Offers today's purge; a no-op when one was already sent within the day. */
+export async function offerDailyPurge(b: PgBoss): Promise<void> {
+  await b.send(MAINTENANCE_QUEUE, { kind: 'purge-respondents' }, { singletonKey: 'purge-respondents', singletonSeconds: DAY_SECONDS, retryLimit: 2, retryDelay: 60 });
+}
+
+async function startMaintenance(b: PgBoss, log: (m: string) => void) {
+  if (!(await b.getQueue(MAINTENANCE_QUEUE))) {
+    try {
+      await b.createQueue(MAINTENANCE_QUEUE, { name: MAINTENANCE_QUEUE, policy: 'standard', retryLimit: 2, expireInSeconds: 60 * 60 });
+    } catch (err) {
+      if (!(await b.getQueue(MAINTENANCE_QUEUE))) throw err;
+    }
+  }
+  await b.work<{ kind: MaintenanceKind }>(MAINTENANCE_QUEUE, { batchSize: 1, pollingIntervalSeconds: 30 }, async (jobs) => {
+    for (const job of jobs) log(`maintenance/${job.data.kind} ${JSON.stringify(await handleMaintenance(job.data.kind))}`);
+  });
+  await offerDailyPurge(b);
+  setInterval(() => void offerDailyPurge(b).catch((err) => console.error('[jobs] daily purge', err)), 60 * 60 * 1000).unref();
 }

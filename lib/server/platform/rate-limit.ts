@@ -36,6 +36,7 @@ export type LimitKind =
   | 'confirm-ip'
   | 'confirm-resend'
   | 'respondent-start-ip'
+  | 'respondent-start-link-address'
   | 'respondent-ip'
   | 'respondent';
 
@@ -61,6 +62,7 @@ function rules(kind: LimitKind): Rule {
     case 'confirm-ip': return { points: 30, seconds: 600 };
     case 'confirm-resend': return { points: 3, seconds: 3600 };
     case 'respondent-start-ip': return { points: e.RATE_LIMIT_RESPONDENT_PER_MIN, seconds: 60 };
+    case 'respondent-start-link-address': return { points: e.RATE_LIMIT_STARTS_PER_LINK_ADDRESS, seconds: 600 };
     case 'respondent-ip': return { points: e.RATE_LIMIT_ANSWERS_PER_MIN, seconds: 60 };
     case 'respondent': return { points: e.RATE_LIMIT_ANSWERS_PER_RESPONDENT_PER_MIN, seconds: 60 };
   }

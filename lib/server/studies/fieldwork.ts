@@ -2,7 +2,8 @@ import 'server-only';
 import { readDesign } from '@/lib/schemas/study.schema';
 import type { StudyStateName } from '@/lib/study-states';
 import { em } from '@/lib/server/db/orm';
-import { sql } from '@/lib/server/db/sql';
+import { sql, sqlOne } from '@/lib/server/db/sql';
+import { ANSWERING_HOLD_MINUTES, HOLDING_SQL, START_HOLD_MINUTES, heldSeats } from '@/lib/server/billing/seat-holds';
 import { loadStudy } from './studies';
 import { seatBalance } from '@/lib/server/billing/seat-ledger';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
@@ -28,6 +29,8 @@ export interface FieldworkDto {
   dropOuts: number;
   targetCompletes: number;
   seatsLeft: number;
+  /** Seats held and used (lib/server/billing/seat-holds.ts): see seatUse below. */
+  seats: SeatUse;
   perLink: { linkId: string; source: string; completes: number; closed: boolean }[];
   basePrices: number[];
   ladder: number[];
@@ -43,6 +46,25 @@ export interface FieldworkDto {
 }
 
 const key = (v: number) => Number(v).toFixed(6);
+
+// Held vs used seats (issue 13, point 4): a seat is *used* when a respondent completes, and
+// *held* while a respondent is still answering (briefly after a start, then while answers keep
+// coming). Shown so an analyst sees a link tying up seats before the balance runs out.
+export interface SeatUse {
+  /** Seats this study's completes used. */
+  usedHere: number;
+  /** Seats held now by this study's respondents still answering. */
+  heldHere: number;
+  /** Seats held now across the workspace (every live study draws on one balance). */
+  heldInWorkspace: number;
+  /** The hold windows, for the monitor's note. */
+  holdMinutes: { start: number; answering: number };
+}
+
+async function seatUse(db: Awaited<ReturnType<typeof em>>, workspaceId: string, studyId: string, completes: number): Promise<SeatUse> {
+  const row = await sqlOne<{ n: string }>(db, `select count(*) as n from respondent r where r.workspace_id = ? and r.study_id = ? and ${HOLDING_SQL}`, [workspaceId, studyId]);
+  return { usedHere: completes, heldHere: Number(row?.n ?? 0), heldInWorkspace: await heldSeats(db, { workspaceId }), holdMinutes: { start: START_HOLD_MINUTES, answering: ANSWERING_HOLD_MINUTES } };
+}
 
 export async function getFieldwork(ctx: WorkspaceContext, studyId: string): Promise<FieldworkDto> {
   const db = await em();
@@ -98,6 +120,7 @@ export async function getFieldwork(ctx: WorkspaceContext, studyId: string): Prom
     dropOuts: Number(status?.drop_outs ?? 0),
     targetCompletes: design.targetCompletes,
     seatsLeft: await seatBalance(db, ctx.workspace.id),
+    seats: await seatUse(db, ctx.workspace.id, study.id, Number(status?.completes ?? 0)),
     perLink: perLink.map((l) => ({ linkId: l.id, source: l.source, completes: Number(l.completes), closed: !!l.closed_at })),
     basePrices: bases,
     ladder,

@@ -2,7 +2,9 @@ import 'server-only';
 import { Study } from '@/entities/study';
 import { StoredDesignError, readDesign } from '@/lib/schemas/study.schema';
 import { STUDY_STATE_LABELS, TRANSITIONS, type StudyAction, type StudyStateName } from '@/lib/study-states';
+import type { EntityManager } from '@mikro-orm/postgresql';
 import { em } from '@/lib/server/db/orm';
+import { sqlOne } from '@/lib/server/db/sql';
 import { AppError } from '@/lib/server/http/errors';
 import { recordAudit } from '@/lib/server/team/audit';
 import { loadStudy, toDetail, type StudyDetail } from './studies';
@@ -15,6 +17,20 @@ import type { WorkspaceContext } from '@/lib/server/team/membership';
 // the live study's limits, so nothing unrunnable goes live. Each move writes its audit event
 // (study.launched, …). Tests: tests/integration/studies-lifecycle.test.ts.
 
+// Respondents' data at launch (issue 13, point 5): the study must say who runs it (the contact
+// line shown with the consent text — a 422 on the field `contact` otherwise), and the
+// workspace's retention is frozen into the study, so what the consent screen promised is what
+// the daily purge keeps to even if the setting changes later (lib/server/studies/retention.ts).
+async function launchDataProtection(db: EntityManager, workspaceId: string, design: { contact?: string }): Promise<{ retentionDays: number }> {
+  if ((design.contact ?? '').trim().length < 5) {
+    throw new AppError(422, 'validation_failed', 'Say who runs this study before launching it.', [
+      { path: 'contact', message: 'Say who runs this study and how respondents can reach you; it is shown with the consent text.' },
+    ]);
+  }
+  const ws = await sqlOne<{ retention_days: number }>(db, 'select retention_days from workspace where id = ?', [workspaceId]);
+  return { retentionDays: Number(ws!.retention_days) };
+}
+
 const AUDIT_ACTIONS: Record<StudyAction, string> = { launch: 'study.launched', pause: 'study.paused', resume: 'study.resumed', close: 'study.closed' };
 
 /** Moves a study along draft → live ⇄ paused → closed; any other move is a 409. */
@@ -26,7 +42,7 @@ export async function changeStudyState(ctx: WorkspaceContext, id: string, action
     throw new AppError(409, 'conflict', `A ${STUDY_STATE_LABELS[study.state as StudyStateName].toLowerCase()} study cannot be ${action === 'launch' ? 'launched' : action === 'close' ? 'closed' : action === 'pause' ? 'paused' : 'resumed'}.`);
   }
   const now = new Date();
-  const changes: Partial<{ state: typeof t.to; launchedAt: Date; closedAt: Date; updatedAt: Date }> = { state: t.to, updatedAt: now };
+  const changes: Partial<{ state: typeof t.to; launchedAt: Date; closedAt: Date; updatedAt: Date; retentionDays: number }> = { state: t.to, updatedAt: now };
   if (action === 'launch') {
     // Read as a live study's design is read: with every limit of the builder (a draft copied
     // from an import may not meet them yet), so nothing unrunnable goes live.
@@ -37,6 +53,7 @@ export async function changeStudyState(ctx: WorkspaceContext, id: string, action
       throw err;
     }
     changes.launchedAt = now;
+    Object.assign(changes, await launchDataProtection(db, ctx.workspace.id, study.design));
   }
   if (action === 'close') changes.closedAt = now;
   // Guarded by the current state so two clicks (or two analysts) cannot apply a move twice.

@@ -10,13 +10,16 @@ import { recordAudit } from '@/lib/server/team/audit';
 import { isUuid } from '@/lib/server/platform/ids';
 import { loadStudy } from './studies';
 import { randomToken } from '@/lib/server/platform/tokens';
+import { hasRole } from '@/lib/roles';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 
 // Respondent links of a study, one per source ("newsletter", "panel B", "store QR"): the token is
 // 32 random bytes, base64url (unguessable, so a link is its own permission), and the URL is
 // APP_URL/r/<token>. A closed or imported study takes no new link (409). Closing a link is
 // one-way and idempotent (the first closing time stays); a closed link turns respondents away
-// with 410 on the respondent side. Tests: tests/integration/studies-links.test.ts.
+// with 410 on the respondent side. A link that passes panel ids may ask the panel to sign them
+// (pidSecret, 32 random bytes; shown to analysts only): respondent/server/panel-ids.ts says why.
+// Tests: tests/integration/studies-links.test.ts, tests/integration/respondent-data-protection.test.ts.
 
 export interface RespondentLinkDto {
   id: string;
@@ -24,6 +27,8 @@ export interface RespondentLinkDto {
   url: string;
   quota: number | null;
   acceptsPid: boolean;
+  /** The key the panel signs ids with (&sig= = hex HMAC-SHA-256(key, pid)); analysts only; null when ids are not signed. */
+  pidSecret: string | null;
   completes: number;
   started: number;
   closedAt: string | null;
@@ -34,13 +39,14 @@ export interface RespondentLinkDto {
 export const newLinkToken = randomToken;
 export const linkUrl = (token: string) => `${env().APP_URL.replace(/\/$/, '')}/r/${token}`;
 
-function toDto(l: { id: string; source: string; token: string; quota?: number | null; acceptsPid: boolean; closedAt?: Date | null; createdAt: Date }, counts?: { completes: number; started: number }): RespondentLinkDto {
+function toDto(l: { id: string; source: string; token: string; quota?: number | null; acceptsPid: boolean; pidSecret?: string | null; closedAt?: Date | null; createdAt: Date }, counts?: { completes: number; started: number }, showSecret = false): RespondentLinkDto {
   return {
     id: l.id,
     source: l.source,
     url: linkUrl(l.token),
     quota: l.quota ?? null,
     acceptsPid: l.acceptsPid,
+    pidSecret: showSecret ? l.pidSecret ?? null : null,
     completes: counts?.completes ?? 0,
     started: counts?.started ?? 0,
     closedAt: l.closedAt?.toISOString() ?? null,
@@ -59,17 +65,18 @@ export async function listLinks(ctx: WorkspaceContext, studyId: string): Promise
     [study.id, ctx.workspace.id],
   );
   const counts = new Map(rows.map((r) => [r.link_id, { completes: Number(r.completes), started: Number(r.started) }]));
-  return links.map((l) => toDto(l, counts.get(l.id)));
+  return links.map((l) => toDto(l, counts.get(l.id), hasRole(ctx.role, 'analyst')));
 }
 
 export async function createLink(ctx: WorkspaceContext, studyId: string, input: z.output<typeof respondentLinkSchema>): Promise<RespondentLinkDto> {
   const db = await em();
   const study = await loadStudy(db, ctx.workspace.id, studyId);
   if (study.state === 'closed' || study.state === 'imported') throw new AppError(409, 'conflict', 'This study is closed; it takes no new links.');
-  const link = db.create(RespondentLink, { workspace: ctx.workspace.id, study: study.id, token: newLinkToken(), source: input.source, quota: input.quota, acceptsPid: input.acceptsPid });
+  const link = db.create(RespondentLink, { workspace: ctx.workspace.id, study: study.id, token: newLinkToken(), source: input.source, quota: input.quota, acceptsPid: input.acceptsPid,
+    pidSecret: input.acceptsPid && input.signsPid ? randomToken() : null });
   await db.flush();
   await recordAudit(db, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'link.created', target: `${study.name} · ${input.source}`, detail: { studyId: study.id, linkId: link.id } });
-  return toDto(link);
+  return toDto(link, undefined, true);
 }
 
 async function loadLink(ctx: WorkspaceContext, studyId: string, linkId: string) {

@@ -25,11 +25,12 @@ export const POST = route(
     await limit('respondent-start-ip', clientIp(req.headers));
     const secure = req.nextUrl.protocol === 'https:';
     const resumeFor = (studyId: string) => resumeTokenFrom(req, studyId);
+    const client = { address: clientIp(req.headers), cookie: (name: string) => req.cookies.get(name)?.value ?? null };
     if ((req.headers.get('content-type') ?? '').includes('application/x-www-form-urlencoded')) {
       const form = await req.formData();
       const pid = String(form.get('pid') ?? '').trim();
       try {
-        const out = await startRespondent(token, { consent: true, segmentAnswers: {}, ...(pid ? { pid } : {}) }, resumeFor);
+        const out = await startRespondent(token, { consent: true, segmentAnswers: {}, ...(pid ? { pid } : {}) }, resumeFor, client);
         // A relative Location: behind `next start -H 127.0.0.1` the request's origin reads as localhost,
         // another origin (without the cookie just set) for a phone that came through 127.0.0.1.
         const flow = `${respondentUrls(token).takePart}?resume=${encodeURIComponent(out.resumeToken)}`;
@@ -39,7 +40,7 @@ export const POST = route(
         return stoppedDocument(err);
       }
     }
-    const { studyId, ...body } = await startRespondent(token, await readJson(req, startSchema), resumeFor);
+    const { studyId, ...body } = await startRespondent(token, await readJson(req, startSchema), resumeFor, client);
     return reply(body, 200, { 'set-cookie': resumeCookie(studyId, body.resumeToken, secure) });
   },
 );

@@ -15,6 +15,8 @@ export const GET = route(
     return takePartDocument({
       token: String(params.token),
       pid: sp.get('pid') || null,
+      sig: sp.get('sig'),
+      secure: req.nextUrl.protocol === 'https:',
       resume: (studyId) => sp.get('resume') || req.cookies.get(resumeCookieName(studyId))?.value || null,
     });
   },

@@ -22,6 +22,8 @@ export const LABELS: Record<string, string> = {
   'study.responses_imported': 'Imported responses',
   'study.updated': 'Edited a study',
   'study.resumed': 'Resumed a study',
+  'study.responses_purged': 'Deleted the respondents of a study at the end of its retention period',
+  'respondent.deleted': 'Deleted one respondent on request (by reference code)',
   'auth.sign_in': 'Signed in',
   'auth.password_reset': 'Reset their password',
   'workspace.created': 'Opened the workspace',

@@ -10,6 +10,7 @@ import { StudyStatePill } from '@/components/studies/study-state-pill';
 import { StudyActions } from './_components/study-actions';
 import { DesignSummary } from './_components/design-summary';
 import { FieldworkMonitor } from './_components/fieldwork-monitor';
+import { DeleteRespondentForm } from './_components/delete-respondent-form';
 
 export const metadata: Metadata = { title: 'Study' };
 
@@ -40,6 +41,8 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
         <FieldworkMonitor slug={ctx.workspace.slug} studyId={study.id} />
         <DesignSummary study={study} />
       </div>
+      {/* A respondent's deletion request by the reference code on their thank-you screen (lib/server/studies/retention.ts). */}
+      {analyst && study.state !== 'draft' ? <div className="mt-6 max-w-xl"><DeleteRespondentForm slug={ctx.workspace.slug} studyId={study.id} /></div> : null}
     </>
   );
 }

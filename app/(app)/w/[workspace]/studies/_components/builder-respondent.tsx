@@ -4,6 +4,7 @@ import { DEFAULT_CONSENT } from '@/lib/schemas/study.schema';
 import { errorAt, Field, fieldId, Section, type BuilderForm } from './form-bits';
 import { SegmentQuestions } from './segment-questions';
 import { StringList } from './string-list';
+import { DataProtectionCaution } from '@/components/studies/data-protection-caution';
 
 export function BuilderRespondent({ form }: { form: BuilderForm }) {
   const { register, formState } = form;
@@ -11,10 +12,15 @@ export function BuilderRespondent({ form }: { form: BuilderForm }) {
   const attention = useWatch({ control: form.control, name: 'attentionCheck' }) as { enabled?: boolean; options?: string[] } | undefined;
   return (
     <Section title="What respondents see besides trials">
-      <Field label="Consent text" name="consentText" error={e('consentText')} hint="Shown first; the respondent must agree before anything is stored. The retention period from Settings is added below it.">
+      <Field label="Consent text" name="consentText" error={e('consentText')} hint="Shown first; the respondent must agree before anything is stored. The retention period from Settings is added below it (and frozen at launch).">
         <textarea id={fieldId('consentText')} rows={6} className="input" {...register('consentText')} />
       </Field>
       <button type="button" className="btn !min-h-0 !py-1" onClick={() => form.setValue('consentText', DEFAULT_CONSENT, { shouldDirty: true })}>Restore the standard text</button>
+      {/* Respondents' data (issue 13, point 5): who runs the study, and the caution beside the consent text. */}
+      <Field label="Who runs this study (contact)" name="contact" error={e('contact')} hint="Shown with the consent text, e.g. “Pricing research, Example Foods Ltd — privacy@example.com”. Required to launch; respondents quote their reference code here to have their answers deleted.">
+        <input id={fieldId('contact')} className="input" {...register('contact')} />
+      </Field>
+      <DataProtectionCaution about="consent" />
       <div className="border-t border-rule pt-3"><SegmentQuestions form={form} /></div>
       <div className="space-y-3 border-t border-rule pt-3">
         <label className="flex items-center gap-2 font-semibold">

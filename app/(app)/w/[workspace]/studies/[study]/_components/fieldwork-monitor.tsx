@@ -36,6 +36,13 @@ export function FieldworkMonitor({ slug, studyId }: { slug: string; studyId: str
         <Figure label="Seats left" value={data.seatsLeft} testId="seats-left" note="Workspace balance" />
         <Figure label="Target reached" value={`${Math.round(share * 100)} %`} />
       </div>
+      {/* Held vs used seats (lib/server/studies/fieldwork.ts seatUse). */}
+      <p className="hint" data-testid="seat-use">
+        Seats used by this study: <span className="num">{data.seats.usedHere}</span> ·
+        held now by respondents still answering: <span className="num" data-testid="seats-held">{data.seats.heldHere}</span> here,{' '}
+        <span className="num">{data.seats.heldInWorkspace}</span> in the workspace.
+        A start holds a seat for {data.seats.holdMinutes.start} min until its first answer, then while answers keep coming ({data.seats.holdMinutes.answering} min).
+      </p>
       <div className="h-2 w-full bg-paper" role="progressbar" aria-label="Completes against target" aria-valuemin={0} aria-valuemax={data.targetCompletes} aria-valuenow={data.completes}>
         <div className="h-2 bg-teal" style={{ width: `${share * 100}%` }} />
       </div>

@@ -45,7 +45,10 @@ export function LinksManager({ slug, studyId, studyState, initial, canManage }: 
                     </td>
                     <td className="n">{l.quota ?? '—'}</td>
                     <td className="n">{l.completes}{l.quota ? ` / ${l.quota}` : ''}</td>
-                    <td>{l.acceptsPid ? 'Passed through (?pid=)' : 'Not used'}</td>
+                    <td>
+                      {l.acceptsPid ? 'Passed through (?pid=)' : 'Not used'}
+                      {l.pidSecret ? <span className="block text-xs">Signed by the panel (&amp;sig=), key: <code className="num break-all" data-testid="pid-secret">{l.pidSecret}</code></span> : null}
+                    </td>
                     <td data-testid="link-state">{(() => { const st = linkStateLabel(Boolean(l.closedAt), studyState); return st.takesRespondents ? <span className="pill text-moss">● {st.text}</span> : <span className="pill text-muted">■ {st.text}</span>; })()}</td>
                     {canManage ? <td>{l.closedAt ? null : <button type="button" className="btn btn-danger !min-h-0 !py-1" onClick={() => close(l)}>Close</button>}</td> : null}
                   </tr>

@@ -6,12 +6,13 @@ import type { z } from 'zod';
 import { respondentLinkSchema, type RespondentLinkInput } from '@/lib/schemas/respondent-link.schema';
 import { ApiRequestError, fetchJson } from '@/lib/fetch-json';
 import { studyApi } from '@/lib/queries/studies';
+import { DataProtectionCaution } from '@/components/studies/data-protection-caution';
 
 export function NewLinkForm({ slug, studyId, onCreated }: { slug: string; studyId: string; onCreated: () => Promise<unknown> }) {
   const [status, setStatus] = useState<string | null>(null);
   const { register, handleSubmit, setError, reset, formState } = useForm<RespondentLinkInput, unknown, z.output<typeof respondentLinkSchema>>({
     resolver: zodResolver(respondentLinkSchema),
-    defaultValues: { source: '', quota: '', acceptsPid: false },
+    defaultValues: { source: '', quota: '', acceptsPid: false, signsPid: false },
   });
   const onSubmit = handleSubmit(async (values) => {
     setStatus(null);
@@ -45,6 +46,12 @@ export function NewLinkForm({ slug, studyId, onCreated }: { slug: string; studyI
         <input type="checkbox" className="mt-1" {...register('acceptsPid')} />
         <span><strong>Pass through a panel respondent id</strong> (<code>?pid=</code>): each id completes at most once, and the redirect URL receives it. Kept only to prevent duplicates.</span>
       </label>
+      {/* Panel ids: signed ids (respondent/server/panel-ids.ts) and the data-protection caution. */}
+      <label className="flex items-start gap-2 text-sm">
+        <input type="checkbox" className="mt-1" {...register('signsPid')} />
+        <span><strong>The panel signs each id</strong> (<code>&amp;sig=</code>, an HMAC-SHA-256 of the id with a key shown here once the link exists): nobody else can use a panelist’s id first. Without it, whoever opens the link with an id first holds that id — turn it on when ids are easy to guess.</span>
+      </label>
+      <DataProtectionCaution about="panel-id" />
       <div className="flex items-center gap-3">
         <button type="submit" className="btn btn-primary" disabled={formState.isSubmitting}>Add link</button>
         {status ? <span role="status" className="text-sm text-muted">{status}</span> : null}
