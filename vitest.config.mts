@@ -42,6 +42,8 @@ export default defineConfig({
           include: ['tests/e2e/**/*.test.ts'],
           environment: 'node',
           globalSetup: ['tests/support/e2e-global-setup.ts'],
+          // Some e2e files seed through server code that reaches next-auth (see integration above).
+          server: { deps: { inline: ['next-auth'] } },
           testTimeout: 120_000,
           hookTimeout: 120_000,
           fileParallelism: false,

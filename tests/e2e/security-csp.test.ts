@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { baseUrl, openBrowser } from '../support/browser';
 import { cspDirectives } from '../support/csp';
+import { signUpAndConfirm } from '../support/e2e-accounts';
 
 // Issue 13 over real HTTP against the built app:
 // - finding 12: the script policy allowed 'unsafe-inline' everywhere and the global header replaced
@@ -33,13 +34,7 @@ describe('script policy and request guards over HTTP', () => {
         (w.__csp ??= []).push(`${e.violatedDirective} ${e.blockedURI}`);
       });
     });
-    await page.goto(`${baseUrl()}/sign-up`);
-    await page.getByLabel('Your name').fill('Policy Check');
-    await page.getByLabel('E-mail').fill(`csp-${Date.now()}@test.example`);
-    await page.getByLabel('Password').fill('policy-check-password-1');
-    await page.getByLabel('Workspace name').fill(`Policy lab ${Date.now()}`);
-    await page.getByRole('button', { name: 'Open workspace' }).click();
-    await page.waitForURL(/\/w\//);
+    await signUpAndConfirm(page, { name: 'Policy Check', email: `csp-${Date.now()}@test.example`, password: 'policy-check-password-1', workspaceName: `Policy lab ${Date.now()}` });
     slug = new URL(page.url()).pathname.split('/')[2];
   }, 120_000);
   afterAll(async () => {

@@ -10,6 +10,7 @@ vi.hoisted(() => {
 import { makeWorkspace } from '../support/factories';
 import { makeLiveStudy, trialRows } from '../support/respondent-fixtures';
 import { answersRes, startOk, type Started } from '../support/respondent-client';
+import { PEER_HEADER, peerStamp } from '@/lib/peer-stamp';
 
 // The answer batch route's limits (respondent/server/answer-limits.ts) count answers, not
 // requests, per respondent and per address; protects against one phone or one address flooding
@@ -27,7 +28,7 @@ describe('answer batch limits (answers per minute, counted by the app instance)'
 
   it('one respondent: 10 answers a minute pass, the 11th is a 429 with Retry-After and is not stored; another respondent is unaffected', async () => {
     const s = await startOk(token);
-    const ip = { 'x-forwarded-for': freshIp() };
+    const ip = { [PEER_HEADER]: peerStamp(freshIp()) };
     expect((await answersRes(token, s.resumeToken, batchOf(s, 0, 4), ip)).status).toBe(200);
     expect((await answersRes(token, s.resumeToken, batchOf(s, 4, 4), ip)).status).toBe(200);
     expect((await answersRes(token, s.resumeToken, batchOf(s, 8, 2), ip)).status).toBe(200);
@@ -37,11 +38,11 @@ describe('answer batch limits (answers per minute, counted by the app instance)'
     expect((await over.json()).error).toMatchObject({ code: 'rate_limited', message: expect.stringMatching(/Try again in \d+ seconds/) });
     expect(await trialRows(s.resumeToken)).toHaveLength(10);
     const other = await startOk(token);
-    expect((await answersRes(token, other.resumeToken, batchOf(other, 0, 4), { 'x-forwarded-for': freshIp() })).status).toBe(200);
+    expect((await answersRes(token, other.resumeToken, batchOf(other, 0, 4), { [PEER_HEADER]: peerStamp(freshIp()) })).status).toBe(200);
   });
 
   it('one address: 30 answers a minute across respondents, then 429; another address still answers', async () => {
-    const ip = { 'x-forwarded-for': freshIp() };
+    const ip = { [PEER_HEADER]: peerStamp(freshIp()) };
     for (let i = 0; i < 3; i++) {
       const s = await startOk(token);
       expect((await answersRes(token, s.resumeToken, batchOf(s, 0, 10), ip)).status).toBe(200);
@@ -49,6 +50,6 @@ describe('answer batch limits (answers per minute, counted by the app instance)'
     const s = await startOk(token);
     expect((await answersRes(token, s.resumeToken, batchOf(s, 0, 1), ip)).status).toBe(429);
     expect(await trialRows(s.resumeToken)).toHaveLength(0);
-    expect((await answersRes(token, s.resumeToken, batchOf(s, 0, 1), { 'x-forwarded-for': freshIp() })).status).toBe(200);
+    expect((await answersRes(token, s.resumeToken, batchOf(s, 0, 1), { [PEER_HEADER]: peerStamp(freshIp()) })).status).toBe(200);
   });
 });
