@@ -11,6 +11,7 @@ const signer = new Stripe('sk_test_signer_only');
 
 export async function pendingPurchase(pool: pg.Pool, workspaceId: string, seats: number) {
   const sessionId = `cs_test_${randomUUID().replace(/-/g, '')}`;
+  // 9000 EUR cents: completedEvent reports the same amount, which the webhook compares before crediting.
   await pool.query(
     `insert into purchase (id, workspace_id, buyer_id, bundle, seats, amount_cents, currency, checkout_session_id, status, created_at) values ($1, $2, null, 'pilot', $3, 9000, 'eur', $4, 'pending', now())`,
     [randomUUID(), workspaceId, seats, sessionId],
@@ -21,7 +22,7 @@ export async function pendingPurchase(pool: pg.Pool, workspaceId: string, seats:
 export function completedEvent(sessionId: string, workspaceId: string, type = 'checkout.session.completed') {
   const payload = JSON.stringify({
     id: `evt_${randomUUID().replace(/-/g, '')}`, object: 'event', type, created: Math.floor(Date.now() / 1000), livemode: false,
-    data: { object: { id: sessionId, object: 'checkout.session', payment_status: 'paid', status: 'complete', customer_email: null, metadata: { workspaceId } } },
+    data: { object: { id: sessionId, object: 'checkout.session', payment_status: 'paid', status: 'complete', amount_total: 9000, currency: 'eur', customer_email: null, metadata: { workspaceId } } },
   });
   return payload;
 }
