@@ -63,7 +63,7 @@ export default async function PrintPage({ params }: { params: Promise<{ workspac
           <section>
             <h2 className="text-xl">Data and rules</h2>
             <p className="text-sm">Respondents {state.counts!.respondents.before} before rules, {state.counts!.respondents.after} after; trials {state.counts!.trials.before} before, {state.counts!.trials.after} after.</p>
-            <ul className="list-disc pl-5 text-sm">{describeRules(s.exclusionRules).map((r) => <li key={r}>{r}</li>)}</ul>
+            <ul className="list-disc pl-5 text-sm">{describeRules(s.exclusionRules, s.task).map((r) => <li key={r}>{r}</li>)}</ul>
             <p className="text-sm">Intervals: {state.fit.report.intervalMethod}.</p>
           </section>
           <BaseCurves report={state.fit.report} cells={state.cells!.cells} locale={s.locale} currency={s.currency} width={330} />
