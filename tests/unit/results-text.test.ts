@@ -120,7 +120,7 @@ describe('exclusions in words', () => {
     c.respondents = { before: 4, after: 0 };
     c.byRule = { attention: 0, falseAlarms: 4, speeders: 0, straightLining: 1 };
     expect(allExcludedMessage(c, DEFAULT_EXCLUSION_RULES)).toBe(
-      'The exclusion rules left out all 4 finished respondents, so there is nothing to fit: “Catch-trial false alarms above the limit” removed 4 of 4; “Same answer on every trial” removed 1 of 4 (a respondent can break several rules).',
+      'The exclusion rules left out all 4 finished respondents, so there is nothing to fit: “Catch-trial false alarms clearly above the limit” removed 4 of 4; “Same answer on every trial” removed 1 of 4 (a respondent can break several rules).',
     );
   });
 });
