@@ -52,10 +52,13 @@ export async function startWorkers(log: (m: string) => void = () => {}) {
 // Daily maintenance: the purge of respondents whose study closed longer ago than the retention
 // it was launched with (lib/server/studies/retention.ts). Its own queue, so it never waits behind
 // fits. Every worker offers the job at start and then hourly; pg-boss's singletonSeconds lets
-// one job per day through across all workers, so it runs daily even with several workers or
-// after restarts. The purge is idempotent (a study is claimed by setting purged_at).
+// one job per 12 hours through across all workers (see PURGE_EVERY_SECONDS), so it runs at least
+// daily even with several workers or after restarts. The purge is idempotent (a study is claimed by setting purged_at).
 export const MAINTENANCE_QUEUE = 'maintenance';
-const DAY_SECONDS = 24 * 60 * 60;
+// pg-boss refuses a throttle longer than its archive interval (12 h by default: "throttling
+// interval cannot exceed archive interval"), so the purge is let through at most once per 12 h —
+// at least daily, as the consent screen promises; a second run in a day only finds what expired since.
+const PURGE_EVERY_SECONDS = 12 * 60 * 60;
 export type MaintenanceKind = 'purge-respondents';
 
 /** Runs one maintenance job (also called directly by tests). */
@@ -66,7 +69,7 @@ export function handleMaintenance(kind: MaintenanceKind): Promise<unknown> {
 
 /** Offers today's purge; a no-op when one was already sent within the day. */
 export async function offerDailyPurge(b: PgBoss): Promise<void> {
-  await b.send(MAINTENANCE_QUEUE, { kind: 'purge-respondents' }, { singletonKey: 'purge-respondents', singletonSeconds: DAY_SECONDS, retryLimit: 2, retryDelay: 60 });
+  await b.send(MAINTENANCE_QUEUE, { kind: 'purge-respondents' }, { singletonKey: 'purge-respondents', singletonSeconds: PURGE_EVERY_SECONDS, retryLimit: 2, retryDelay: 60 });
 }
 
 async function startMaintenance(b: PgBoss, log: (m: string) => void) {
