@@ -73,7 +73,7 @@ describe('a respondent completes a study on a phone', () => {
       trials++;
     }
     await page.getByTestId('thanks').waitFor();
-    expect(trials).toBe(18); // 2 practice + 12 test + 3 catch + 1 attention
+    expect(trials).toBe(15); // 2 practice + 12 test + 1 attention (the pick task draws no catch trials)
     // The reference code for a deletion request, as stored for this respondent (not its id).
     expect(await page.getByTestId('reference-code').innerText()).toMatch(/^[0-9A-HJKMNP-TV-Z]{5}-[0-9A-HJKMNP-TV-Z]{5}$/);
     expect(shot).toBe(true);
