@@ -53,9 +53,9 @@ describe('answers kept on the phone until the server has them', () => {
       const tab = await context.newPage();
       await tab.goto(`${baseUrl()}/r/${token}`);
       await tab.getByTestId('trial').waitFor();
-      // It does not show the five answered trials again (nor the instructions): 2 practice + 3 of 16 …
+      // It does not show the five answered trials again (nor the instructions): 2 practice + 3 of 13 (12 test + 1 attention; a pick study draws no catch trials) …
       expect(await tab.getByTestId('progress').getAttribute('aria-valuenow')).toBe('3');
-      expect(await tab.getByTestId('progress-words').textContent()).toBe('3 of 16 answered');
+      expect(await tab.getByTestId('progress-words').textContent()).toBe('3 of 13 answered');
       // … and sends them before anything else.
       await expect.poll(() => rowsOf(resume), { timeout: 20_000 }).toEqual([0, 1, 2, 3, 4]);
       await page.close();
