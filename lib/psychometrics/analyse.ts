@@ -39,6 +39,8 @@ export interface AnalyseInput {
   catchCells?: CatchCell[];
   /** One row per shopper, base and discount (discount 0: catch trials): the shopper becomes the unit. */
   shopperCells?: ShopperCell[];
+  /** Fit the mixed model for the shopper spread when ids are present (default true); segment comparisons read only the fixed fits. */
+  spread?: boolean;
   task: Task;
   /** Fixes γ for every base (otherwise: pick 0.5, trip 0, spot from catch trials). */
   guess?: number;
@@ -108,7 +110,7 @@ export function analyse(input: AnalyseInput): AnalysisReport {
   const bases = prep.bases.map((_, j) => reportBase(ctx, j));
   const { models, tests, preferredModel } = reportJoint(ctx);
   // --- shopper spread (mixed model, shopper-spread.ts) ---
-  const shopperSpread = sc && unit === 'shopper' ? reportShopperSpread(prep, sc, preferredModel, { target: input.target }) : null;
+  const shopperSpread = sc && unit === 'shopper' && input.spread !== false ? reportShopperSpread(prep, sc, preferredModel, { target: input.target }) : null;
   if (shopperSpread && !shopperSpread.converged) ctx.warnings.push('shopper spread: the mixed model (or the search for its σ interval) did not converge');
   // --- end shopper spread ---
   return {

@@ -54,7 +54,7 @@ export function compareGroups(groups: GroupInput[], opts: CompareOptions) {
   if (groups.length < 2) throw new PsychometricsInputError('segment comparison needs at least two groups');
   const reports: AnalysisReport[] = groups.map((g, i) => {
     try {
-      return analyse({ cells: g.cells, catchCells: g.catchCells, shopperCells: g.shopperCells, task: opts.task, guess: opts.guess, lapse: opts.lapse,
+      return analyse({ cells: g.cells, catchCells: g.catchCells, shopperCells: g.shopperCells, spread: false, task: opts.task, guess: opts.guess, lapse: opts.lapse,
         target: opts.target, bootstrap: opts.bootstrap ?? 200, seed: `${opts.seed ?? 1}:${i}` });
     } catch (e) {
       if (e instanceof PsychometricsInputError) throw new PsychometricsInputError(`group "${g.label}": ${e.message}`);

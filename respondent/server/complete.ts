@@ -1,6 +1,7 @@
 import 'server-only';
 // Completing a respondent uses one seat, exactly once. What may be checked without the seat lock
-// is checked first (the respondent exists, every answer has arrived, the study is not closed);
+// is checked first (the respondent exists, every answer has arrived, the study is live and the
+// link open — stoppedRefusal, the same 410 /state gives);
 // then, under the workspace's seat lock (withSeatLock: one transaction per workspace at a time
 // on this instance, queued in memory, and the row lock across instances), ONE statement reads
 // the balance, adds the ledger entry only if a seat is left, marks the respondent completed
@@ -19,18 +20,14 @@ import { answeredHistory } from './trials';
 export async function completeRespondent(db: EntityManager, linkToken: string, resumeToken: string | null): Promise<{ ok: true; redirectUrl: string | null }> {
   const ctx = await respondentContext(db, linkToken, resumeToken);
   const redirectUrl = completionRedirect(ctx.design, ctx.pid);
-  const stoppedNow = () => sqlOne<{ state: string; study_state: string; link_closed: boolean }>(
-    db,
-    `select r.state, s.state as study_state, l.closed_at is not null as link_closed
-       from respondent r join study s on s.id = r.study_id left join respondent_link l on l.id = r.link_id where r.id = ?`,
-    [ctx.id],
-  );
-  const r = await sqlOne<{ state: string; answered_count: number; study_state: string; link_closed: boolean }>(
+  // Read before the lock, and again when the seat statement found the respondent no longer open.
+  const readState = () => sqlOne<{ state: string; answered_count: number; study_state: string; link_closed: boolean }>(
     db,
     `select r.state, r.answered_count, s.state as study_state, l.closed_at is not null as link_closed
        from respondent r join study s on s.id = r.study_id left join respondent_link l on l.id = r.link_id where r.id = ?`,
     [ctx.id],
   );
+  const r = await readState();
   if (!r) throw new AppError(404, 'not_found', 'We could not find your answers.');
   if (r.state === 'completed') return { ok: true, redirectUrl };
   // The same 410 /state gives: a paused study or a closed link stops a complete in progress too.
@@ -49,7 +46,7 @@ export async function completeRespondent(db: EntityManager, linkToken: string, r
   if (out === 'completed') return { ok: true, redirectUrl };
   if (out === 'no_seat') throw new AppError(409, 'study_full', 'This study is full. Your answers are kept; thank you for taking part.');
   // Not open any more: completed meanwhile (a concurrent try won), stopped meanwhile, or deleted.
-  const now = await stoppedNow();
+  const now = await readState();
   if (now?.state === 'completed') return { ok: true, redirectUrl };
   const stoppedLater = now ? stoppedRefusal(now.study_state, Boolean(now.link_closed)) : null;
   if (stoppedLater) throw stoppedLater;
