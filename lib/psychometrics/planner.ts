@@ -179,19 +179,25 @@ export function respondentsForWidth(
     if (!w) { w = planDesign({ ...input, respondents: r }).bases.map((b) => b.expectedWidth); cache.set(r, w); }
     return w;
   };
-  return input.basePrices.map((basePrice, j) => {
-    const ok = (r: number) => widthAt(r)[j] <= input.targetWidth;
-    let hi = 1, lo = 0;
-    while (hi < max && !ok(hi)) { lo = hi; hi = Math.min(max, hi * 2); }
-    if (!ok(hi)) return { basePrice, respondents: null };
-    if (hi === 1) return { basePrice, respondents: 1 };
-    // lo is the last count that failed
-    while (hi - lo > 1) {
-      const mid = Math.floor((lo + hi) / 2);
-      if (ok(mid)) hi = mid; else lo = mid;
-    }
-    return { basePrice, respondents: hi };
-  });
+  return input.basePrices.map((basePrice, j) => ({ basePrice, respondents: smallestPassing((r) => widthAt(r)[j] <= input.targetWidth, 1, max) }));
+}
+
+/**
+ * The smallest count n ≥ from with ok(n), for an ok that holds from some count on: doubling from
+ * `from` (capped at max), then bisection between the last failing and the first passing count.
+ * Null when even max fails. Callers pass an ok that simulates with a fixed seed, so the
+ * comparisons use common random numbers.
+ */
+export function smallestPassing(ok: (n: number) => boolean, from: number, max: number): number | null {
+  let lo = 0, hi = from;
+  while (hi < max && !ok(hi)) { lo = hi; hi = Math.min(max, hi * 2); }
+  if (!ok(hi)) return null;
+  if (lo === 0) return hi;
+  while (hi - lo > 1) {
+    const mid = Math.floor((lo + hi) / 2);
+    if (ok(mid)) hi = mid; else lo = mid;
+  }
+  return hi;
 }
 
 /**

@@ -1,5 +1,5 @@
 import 'server-only';
-import { assumedObserver, planDesign } from '@/lib/psychometrics/planner';
+import { assumedObserver, planDesign, smallestPassing } from '@/lib/psychometrics/planner';
 import type { AnalysisReport } from '@/lib/psychometrics/report-types';
 import type { Task } from '@/lib/psychometrics/types';
 import { MIN_SHOPPERS_TO_TELL, TELL_WIDTH, verdictUndecided } from '@/lib/results-text';
@@ -39,15 +39,7 @@ export function completesToTellWeber(input: WeberPlanInput, simulations = WEBER_
     }
     return width.get(n)! <= TELL_WIDTH;
   };
-  let lo = 0, hi = MIN_SHOPPERS_TO_TELL;
-  while (hi < WEBER_PLAN_MAX && !ok(hi)) { lo = hi; hi = Math.min(WEBER_PLAN_MAX, hi * 2); }
-  if (!ok(hi)) return null;
-  if (lo === 0) return hi;
-  while (hi - lo > 1) {
-    const mid = Math.floor((lo + hi) / 2);
-    if (ok(mid)) hi = mid; else lo = mid;
-  }
-  return hi;
+  return smallestPassing(ok, MIN_SHOPPERS_TO_TELL, WEBER_PLAN_MAX);
 }
 
 export type WeberPlanState =
