@@ -89,7 +89,7 @@ export async function stateOf(db: EntityManager, link: RespondentLinkWithStudy, 
 
 /** What the start route knows about the request besides its body. */
 export interface StartClient {
-  /** The client's address (lib/server/platform/rate-limit.ts clientIp): per-link start limit. */
+  /** The client's address (clientAddress() in lib/server/platform/client-address.ts): per-link start limit. */
   address?: string;
   /** A cookie of the request by name (the panel-id signature kept by the take-part page). */
   cookie?: (name: string) => string | null;

@@ -134,4 +134,3 @@ export async function clearLimit(kind: LimitKind, key: string): Promise<void> {
   await limiter(kind).delete(hashed(key));
 }
 
-export { clientAddress as clientIp, actionClientAddress as actionClientIp } from './client-address';

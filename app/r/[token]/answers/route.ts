@@ -1,7 +1,7 @@
 import type { NextRequest } from 'next/server';
 import { readJson, reply, route } from '@/lib/server/http/route';
 import { BODY_LIMITS } from '@/lib/server/http/request-guard';
-import { clientIp } from '@/lib/server/platform/rate-limit';
+import { clientAddress } from '@/lib/server/platform/client-address';
 import { answerBatchSchema } from '@/respondent/shared/answer.schema';
 import { limitAnswersFromIp } from '@/respondent/server/answer-limits';
 import { storeAnswerBatch } from '@/respondent/server/link-requests';
@@ -25,7 +25,7 @@ export const POST = route<{ token: string }>(
   },
   async ({ req, params }) => {
     const batch = await readJson(req, answerBatchSchema);
-    await limitAnswersFromIp(clientIp(req.headers), batch.answers.length);
+    await limitAnswersFromIp(clientAddress(req.headers), batch.answers.length);
     const stored = await storeAnswerBatch(params.token, resumeTokens(req, batch.resumeToken), batch.answers);
     return reply(stored, 200, { 'cache-control': 'no-store' });
   },

@@ -1,6 +1,7 @@
 import { route } from '@/lib/server/http/route';
 import { BODY_LIMITS } from '@/lib/server/http/request-guard';
-import { clientIp, limit } from '@/lib/server/platform/rate-limit';
+import { limit } from '@/lib/server/platform/rate-limit';
+import { clientAddress } from '@/lib/server/platform/client-address';
 import { completeByLink } from '@/respondent/server/link-requests';
 import { resumeTokenFrom } from '@/respondent/server/http';
 import type { CompleteReply } from '@/respondent/shared/complete.schema';
@@ -12,7 +13,7 @@ export const POST = route(
     body: { maxBytes: BODY_LIMITS.respondent },
   },
   async ({ req, params }): Promise<CompleteReply> => {
-    await limit('respondent-ip', clientIp(req.headers));
+    await limit('respondent-ip', clientAddress(req.headers));
     return completeByLink(String(params.token), resumeTokenFrom(req));
   },
 );

@@ -1,7 +1,8 @@
 import { route, readJson, reply } from '@/lib/server/http/route';
 import { BODY_LIMITS } from '@/lib/server/http/request-guard';
 import { AppError } from '@/lib/server/http/errors';
-import { clientIp, limit } from '@/lib/server/platform/rate-limit';
+import { limit } from '@/lib/server/platform/rate-limit';
+import { clientAddress } from '@/lib/server/platform/client-address';
 import { resumeCookie, resumeTokenFrom } from '@/respondent/server/http';
 import { startRespondent } from '@/respondent/server/respondents';
 import { stoppedDocument } from '@/respondent/server/document';
@@ -22,10 +23,10 @@ export const POST = route(
   },
   async ({ req, params }) => {
     const token = String(params.token);
-    await limit('respondent-start-ip', clientIp(req.headers));
+    await limit('respondent-start-ip', clientAddress(req.headers));
     const secure = req.nextUrl.protocol === 'https:';
     const resumeFor = (studyId: string) => resumeTokenFrom(req, studyId);
-    const client = { address: clientIp(req.headers), cookie: (name: string) => req.cookies.get(name)?.value ?? null };
+    const client = { address: clientAddress(req.headers), cookie: (name: string) => req.cookies.get(name)?.value ?? null };
     if ((req.headers.get('content-type') ?? '').includes('application/x-www-form-urlencoded')) {
       const form = await req.formData();
       const pid = String(form.get('pid') ?? '').trim();

@@ -1,5 +1,6 @@
 import { route } from '@/lib/server/http/route';
-import { clientIp, limit } from '@/lib/server/platform/rate-limit';
+import { limit } from '@/lib/server/platform/rate-limit';
+import { clientAddress } from '@/lib/server/platform/client-address';
 import { resumeTokenFrom } from '@/respondent/server/http';
 import { respondentState } from '@/respondent/server/link-requests';
 import type { FlowState } from '@/respondent/shared/types';
@@ -8,7 +9,7 @@ import type { FlowState } from '@/respondent/shared/types';
 export const GET = route(
   { auth: 'public', reason: 'respondents have no account: the link token in the path and their resume token identify them' },
   async ({ req, params }): Promise<FlowState> => {
-    await limit('respondent-ip', clientIp(req.headers));
+    await limit('respondent-ip', clientAddress(req.headers));
     return respondentState(String(params.token), (studyId) => resumeTokenFrom(req, studyId));
   },
 );
