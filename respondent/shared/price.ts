@@ -9,9 +9,18 @@ import { applyPriceEnding, type PriceEnding } from '@/lib/psychometrics/promo-fl
 // recorded with every answer and is what the fit uses.
 // Tests: tests/unit/respondent-plan.test.ts, tests/unit/promo/ladder-check.test.ts.
 
+// Building an Intl.NumberFormat costs far more than using one (a start plans every trial's
+// price; a profile of the answer bench showed it as the server's hottest function), so each
+// locale/currency pair is built once per process or page.
+const formats = new Map<string, Intl.NumberFormat>();
+const digitsByCurrency = new Map<string, number>();
+
 /** Formats a price the way the study's locale writes its currency (shared by server and client). */
 export function formatPrice(value: number, currency: string, locale: string): string {
-  return new Intl.NumberFormat(locale, { style: 'currency', currency }).format(value);
+  const key = `${locale}|${currency}`;
+  let f = formats.get(key);
+  if (!f) formats.set(key, (f = new Intl.NumberFormat(locale, { style: 'currency', currency })));
+  return f.format(value);
 }
 
 /** A price ending may move a rung's shown discount by at most this share of its depth. */
@@ -25,11 +34,16 @@ const toCents = (v: number) => Math.round(v * 100);
  */
 export function minorDigits(currency: string | undefined): number {
   if (!currency) return 2;
-  try {
-    return new Intl.NumberFormat('en', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2;
-  } catch {
-    return 2;
+  let d = digitsByCurrency.get(currency);
+  if (d === undefined) {
+    try {
+      d = new Intl.NumberFormat('en', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2;
+    } catch {
+      d = 2;
+    }
+    digitsByCurrency.set(currency, d);
   }
+  return d;
 }
 
 /** The nearest cent (or whole unit, for currencies without cents) to base × (1 − depth), before any ending; equals `base` when the rung is under half of that. */
