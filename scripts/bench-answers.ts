@@ -233,7 +233,12 @@ async function main() {
     const f = await storedFacts(pool, study);
     const stored = f.trials - warmFacts.trials;
     log(`run total: ${stats.answersGiven} answers given, ${stats.answersAcked} acknowledged, ${stored} stored, ${f.duplicates} duplicates, ${f.countMismatches} counters off, ${stats.conflicts} conflicts; ${stats.completes} completes, seats used ${f.seatsUsed} = completes ${f.completes}; ${failures.length} respondents given up${failures.length ? ` (${failures.slice(0, 3).map((e) => e.message).join('; ')})` : ''}`);
-    if (stored !== stats.answersAcked || stats.answersGiven !== stats.answersAcked || f.duplicates || f.countMismatches || f.seatsUsed !== f.completes) throw new Error('stored data does not match the answers given and acknowledged');
+    // A respondent given up (its phone stopped retrying past an overloaded step) may leave answers the
+    // server stored but never acknowledged: counted and shown, not an error. What must never happen is
+    // an acknowledged answer missing, a trial stored twice, a counter off or a seat without a complete.
+    if (stored > stats.answersAcked) log(`  ${stored - stats.answersAcked} answers stored whose reply never reached a phone that had given up (stored once, not lost)`);
+    const unsent = failures.length ? 0 : stats.answersGiven - stats.answersAcked;
+    if (stored < stats.answersAcked || unsent !== 0 || f.duplicates || f.countMismatches || f.seatsUsed !== f.completes) throw new Error('stored data does not match the answers given and acknowledged');
 
     const ok = results.filter((r) => r.p99 <= P99_LIMIT_MS && r.lost === 0 && r.duplicated === 0 && r.failures === 0);
     const best = ok.at(-1);
