@@ -1,6 +1,7 @@
 'use client';
 import { useMemo, useState } from 'react';
 import type { StudyDesign } from '@/lib/schemas/study.schema';
+import { CATALOGUES } from '@/respondent/messages/all';
 import { flowStudy } from '@/respondent/shared/screens';
 import { localDriver } from './local-driver';
 import { RespondentFlow } from './respondent-flow';
@@ -11,13 +12,16 @@ import { RespondentFlow } from './respondent-flow';
  */
 export function RespondentPreview({ design, workspaceRetentionDays, pictureUrl = null }: { design: StudyDesign; workspaceRetentionDays: number; pictureUrl?: string | null }) {
   const [run, setRun] = useState(1);
-  const driver = useMemo(() => localDriver(design, run * 7919), [design, run]);
+  // The analyst app may hold every catalogue; only the respondent bundle must not.
+  const messages = CATALOGUES[design.language];
+  const driver = useMemo(() => localDriver(design, run * 7919, messages), [design, run, messages]);
   return (
     <div className="flex flex-col gap-3">
       <div className="mx-auto w-full max-w-[420px] rounded-md border border-rule bg-paper px-4 py-6" data-testid="respondent-preview">
         <RespondentFlow
           key={run}
           driver={driver}
+          messages={messages}
           study={flowStudy(design, pictureUrl)}
           consentText={design.consentText}
           retentionDays={workspaceRetentionDays}
