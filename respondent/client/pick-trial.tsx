@@ -13,8 +13,12 @@ const now = () => performance.now();
  * never left side by side in full view, so the choice rests on a glance, not arithmetic. The
  * answer buttons take the tags' places, so the thumb goes where the eye was.
  */
-export function PickTrial({ m, study, trial, onAnswer }: { m: Messages; study: FlowStudy; trial: PublicTrial; onAnswer: (answer: number, ms: number) => void }) {
-  const [phase, setPhase] = useState<'ready' | 'view' | 'choose'>('ready');
+export function PickTrial({ m, study, trial, onAnswer, initialPhase = 'ready' }: {
+  m: Messages; study: FlowStudy; trial: PublicTrial; onAnswer: (answer: number, ms: number) => void;
+  /** Where the screen starts: always 'ready' in the flow; the language test renders each phase (tests/unit/respondent-messages.test.ts). */
+  initialPhase?: 'ready' | 'view' | 'choose';
+}) {
+  const [phase, setPhase] = useState<'ready' | 'view' | 'choose'>(initialPhase);
   const hiddenAt = useRef(0);
   const answered = useRef(false);
   useEffect(() => {

@@ -1,19 +1,17 @@
 'use client';
 import { useMemo, useState } from 'react';
 import type { StudyDesign } from '@/lib/schemas/study.schema';
-import { CATALOGUES } from '@/respondent/messages/all';
+import type { Messages } from '@/respondent/messages/format';
 import { flowStudy } from '@/respondent/shared/screens';
 import { localDriver } from './local-driver';
 import { RespondentFlow } from './respondent-flow';
 
 /**
  * The respondent's screens exactly as shown through a link, driven by a plan generated here
- * from the design. Records nothing and makes no network calls. "Start again" draws a new seed.
+ * from the design, in the study's language (the page hands over its catalogue). Records nothing and makes no network calls. "Start again" draws a new seed.
  */
-export function RespondentPreview({ design, workspaceRetentionDays, pictureUrl = null }: { design: StudyDesign; workspaceRetentionDays: number; pictureUrl?: string | null }) {
+export function RespondentPreview({ design, messages, workspaceRetentionDays, pictureUrl = null }: { design: StudyDesign; messages: Messages; workspaceRetentionDays: number; pictureUrl?: string | null }) {
   const [run, setRun] = useState(1);
-  // The analyst app may hold every catalogue; only the respondent bundle must not.
-  const messages = CATALOGUES[design.language];
   const driver = useMemo(() => localDriver(design, run * 7919, messages), [design, run, messages]);
   return (
     <div className="flex flex-col gap-3">
