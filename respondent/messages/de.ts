@@ -117,6 +117,10 @@ const de: Messages = {
   },
   waiting: 'Einen Moment…',
   needsScript: 'Für die Fragen wird JavaScript benötigt. Bitte schalten Sie es im Browser ein und laden Sie die Seite neu.',
+  shelfItems: {
+    variants: ['Mini', 'klein', 'normal', 'mittel', 'groß', 'extra groß', 'Doppelpack', 'Familienpackung', 'Mehrfachpack', 'Vorteilsbox', 'Großpackung', 'Kiste'],
+    fillers: ['Haferkekse', 'Spülbürste', 'Geschirrtücher', 'Basmatireis', 'Teelichter', 'Olivenöl', 'Vorratsgläser', 'Pfefferminztee', 'Topfhandschuhe', 'Roggenknäcke', 'Wäscheklammern', 'Honig'],
+  },
   stop: {
     titles: {
       not_found: 'Unter dieser Adresse gibt es keine Studie',

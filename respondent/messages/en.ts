@@ -118,6 +118,11 @@ const en = {
   },
   waiting: 'One moment…',
   needsScript: 'The questions need JavaScript. Please turn it on in your browser and reload this page.',
+  /** The remembered shelf of spot the saving (respondent/shared/shelf.ts): a size word per base price, after the item's name, and invented filler items; same order in every language. */
+  shelfItems: {
+    variants: ['mini', 'small', 'regular', 'medium', 'large', 'extra large', 'twin pack', 'family pack', 'multipack', 'value box', 'bulk box', 'crate'],
+    fillers: ['Oat biscuits', 'Dish brush', 'Tea towels', 'Basmati rice', 'Tealight candles', 'Olive oil', 'Storage jars', 'Peppermint tea', 'Oven gloves', 'Rye crackers', 'Laundry pegs', 'Honey'],
+  },
   stop: {
     titles: {
       not_found: 'No study at this address',

@@ -117,6 +117,10 @@ const es: Messages = {
   },
   waiting: 'Un momento…',
   needsScript: 'Las preguntas necesitan JavaScript. Actívelo en su navegador y vuelva a cargar esta página.',
+  shelfItems: {
+    variants: ['mini', 'pequeño', 'normal', 'mediano', 'grande', 'extragrande', 'pack de 2', 'tamaño familiar', 'pack múltiple', 'caja ahorro', 'caja grande', 'cajón'],
+    fillers: ['Galletas de avena', 'Cepillo de fregar', 'Paños de cocina', 'Arroz basmati', 'Velas de té', 'Aceite de oliva', 'Tarros de cocina', 'Poleo menta', 'Manoplas de horno', 'Tostadas de centeno', 'Pinzas de ropa', 'Miel'],
+  },
   stop: {
     titles: {
       not_found: 'No hay ningún estudio en esta dirección',

@@ -117,6 +117,10 @@ const fr: Messages = {
   },
   waiting: 'Un instant…',
   needsScript: 'Les questions ont besoin de JavaScript. Activez-le dans votre navigateur, puis rechargez cette page.',
+  shelfItems: {
+    variants: ['mini', 'petit', 'normal', 'moyen', 'grand', 'très grand', 'lot de 2', 'format familial', 'lot', 'boîte économique', 'grand carton', 'caisse'],
+    fillers: ['Biscuits à l’avoine', 'Brosse à vaisselle', 'Torchons', 'Riz basmati', 'Bougies chauffe-plat', 'Huile d’olive', 'Bocaux', 'Infusion menthe poivrée', 'Gants de cuisine', 'Craquants de seigle', 'Pinces à linge', 'Miel'],
+  },
   stop: {
     titles: {
       not_found: 'Aucune étude à cette adresse',

@@ -117,6 +117,10 @@ const nl: Messages = {
   },
   waiting: 'Een ogenblik…',
   needsScript: 'Voor de vragen is JavaScript nodig. Zet het aan in uw browser en laad deze pagina opnieuw.',
+  shelfItems: {
+    variants: ['mini', 'klein', 'normaal', 'middel', 'groot', 'extra groot', 'duopak', 'familieverpakking', 'multipak', 'voordeelbox', 'grootverpakking', 'krat'],
+    fillers: ['Haverkoekjes', 'Afwasborstel', 'Theedoeken', 'Basmatirijst', 'Waxinelichtjes', 'Olijfolie', 'Voorraadpotten', 'Pepermuntthee', 'Ovenwanten', 'Roggecrackers', 'Wasknijpers', 'Honing'],
+  },
   stop: {
     titles: {
       not_found: 'Op dit adres staat geen onderzoek',

@@ -16,6 +16,7 @@ import { ShelfScreen } from '@/respondent/client/shelf-screen';
 import { NeedsScript, Progress, Reconnecting, Stopped, Thanks, Waiting } from '@/respondent/client/status-screens';
 import { TrialScreen } from '@/respondent/client/trial-screen';
 import { formatPrice } from '@/respondent/shared/price';
+import { generatePlan } from '@/respondent/shared/plan';
 import type { FlowStudy, PublicTrial } from '@/respondent/shared/types';
 import { validDesign } from '../support/study-fixtures';
 
@@ -36,7 +37,9 @@ const placeholders = (s: string) => [...s.matchAll(/\{(\w+)\}/g)].map((m) => m[1
 
 /** Strings that may equal the English one: nothing but placeholders, numbers or signs; and words that are the same in that language. */
 const SAME_AS_ENGLISH: Partial<Record<Language, string[]>> = {
-  fr: ['picture.minutes'], // "{n} min" is how French writes minutes too
+  fr: ['picture.minutes', 'shelfItems.variants.0'], // "{n} min" and "mini" are French too
+  es: ['shelfItems.variants.0'],
+  nl: ['shelfItems.variants.0'],
 };
 
 // The study's own content, in tokens the checks can take out again.
@@ -138,8 +141,9 @@ describe('every screen says only what its catalogue says', () => {
       // What may remain: numbers, signs, arrows and the key names shown on keyboard hints.
       expect(rest.replace(/[\d\s.,:;!?…·%€\-–—←→()"'“”]/g, ''), `${name} shows words that are not in the catalogue`).toBe('');
     }
-    // document.title is the server document's <title> (tests/unit/respondent-document.test.ts).
-    const missing = leaves(en).map((l) => l.path).filter((p) => !seen.has(p) && p !== 'document.title');
+    // document.title is the server document's <title> (tests/unit/respondent-document.test.ts);
+    // shelfItems are the shelf's labels in the plan (below).
+    const missing = leaves(en).map((l) => l.path).filter((p) => !seen.has(p) && p !== 'document.title' && !p.startsWith('shelfItems.'));
     expect(missing, 'catalogue keys no screen shows').toEqual([]);
   });
 });
@@ -163,6 +167,18 @@ describe('every screen in every other language', () => {
     expect(formatPrice(12.9, 'EUR', 'en-GB')).toBe('€12.90');
     const html = renderToStaticMarkup(createElement(ShelfScreen, { m: messagesFor('de'), study: study('spot', 'de'), shelf: [{ label: 'Olivenöl', price: 12.9 }], again: false, onDone: none }));
     expect(html.replace(nbsp, ' ')).toContain('12,90 €');
+  });
+});
+
+describe('the remembered shelf in the study\'s language', () => {
+  it('a German spot study names its shelf items in German; the same seed draws the same shelf in every language', () => {
+    const design = (language: Language) => readDesign({ ...validDesign({ task: 'spot', shelfSize: 6, basePrices: [2.99, 9.99, 49] }), language });
+    const en6 = generatePlan(design('en'), 42).shelf;
+    const de6 = generatePlan(design('de'), 42).shelf;
+    expect(de6.map((s) => s.price)).toEqual(en6.map((s) => s.price));
+    const germanWords = [...messagesFor('de').shelfItems.fillers, ...messagesFor('de').shelfItems.variants];
+    for (const item of de6) expect(germanWords.some((w) => item.label.includes(w)), item.label).toBe(true);
+    for (const item of de6) expect([...en.shelfItems.fillers, ...en.shelfItems.variants.slice(1)].some((w) => item.label.endsWith(w)), item.label).toBe(false);
   });
 });
 
