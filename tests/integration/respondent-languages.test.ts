@@ -37,7 +37,7 @@ describe('a German study on the server', () => {
     expect(html).not.toContain(messagesFor('en').consent.agree);
   });
 
-  it('JSON refusals the phone shows are German: paused (410), full (409), panel id too long (422) and taken (409)', async () => {
+  it('refusals the phone shows are German: paused (410), full (409), panel id taken (409); the page for a too-long panel id (422)', async () => {
     const ws = await makeWorkspace();
     const paused = await makeLiveStudy(ws.slug, { design: german() });
     const s = await startOk(paused.token, { consent: true, segmentAnswers: {} });
@@ -49,9 +49,12 @@ describe('a German study on the server', () => {
     expect((await errorOf(completing)).message).toBe(de.stop.paused);
 
     const pids = await makeLiveStudy(ws.slug, { design: german(), acceptsPid: true });
-    const long = await startRes(pids.token, { consent: true, segmentAnswers: {}, pid: 'x'.repeat(121) });
+    // A too-long panel id is refused by the page before the consent screen (the JSON start's schema refuses it too, for the API).
+    const long = await callRoute(takePart, { params: { token: pids.token }, url: `http://127.0.0.1/r/${pids.token}/take-part?pid=${'x'.repeat(121)}` });
     expect(long.status).toBe(422);
-    expect((await errorOf(long)).message).toBe(fill(de.stop.pidTooLong, { n: 120 }));
+    const longPage = await long.text();
+    expect(longPage).toContain('<html lang="de">');
+    expect(longPage).toContain(fill(de.stop.pidTooLong, { n: 120 }));
     await startOk(pids.token, { consent: true, segmentAnswers: {}, pid: 'panel-7' });
     const taken = await startRes(pids.token, { consent: true, segmentAnswers: {}, pid: 'panel-7' });
     expect(taken.status).toBe(409);
