@@ -15,7 +15,7 @@ export function RespondentPreview({ design, messages, workspaceRetentionDays, pi
   const driver = useMemo(() => localDriver(design, run * 7919, messages), [design, run, messages]);
   return (
     <div className="flex flex-col gap-3">
-      <div className="mx-auto w-full max-w-[420px] rounded-md border border-rule bg-paper px-4 py-6" data-testid="respondent-preview">
+      <div lang={design.language} className="mx-auto w-full max-w-[420px] rounded-md border border-rule bg-paper px-4 py-6" data-testid="respondent-preview">
         <RespondentFlow
           key={run}
           driver={driver}

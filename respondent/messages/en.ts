@@ -1,4 +1,4 @@
-// The English catalogue of every fixed string a respondent sees (respondent/messages/README in
+// The English catalogue of every fixed string a respondent sees (how a catalogue reaches a phone:
 // format.ts's header). Its shape is the type every other language must satisfy (`Messages`).
 // Placeholders are {name}; a sentence that changes with a count has one key per form.
 
