@@ -25,6 +25,13 @@ export const PRICE_ENDING_LABELS: Record<(typeof PRICE_ENDINGS)[number], string>
 export const CURRENCIES = ['EUR', 'USD', 'GBP', 'CHF', 'SEK', 'NOK', 'DKK', 'PLN', 'CZK', 'CAD', 'AUD', 'NZD', 'JPY'] as const;
 export const LOCALES = ['en-GB', 'en-US', 'en-IE', 'de-DE', 'fr-FR', 'nl-NL', 'es-ES', 'it-IT', 'sv-SE', 'da-DK', 'nb-NO', 'pl-PL', 'cs-CZ', 'ja-JP'] as const;
 
+/** The respondents' language: every fixed respondent string comes from its catalogue (respondent/messages). */
+export const LANGUAGES = ['en', 'de', 'fr', 'es', 'nl'] as const;
+export type Language = (typeof LANGUAGES)[number];
+export const LANGUAGE_LABELS: Record<Language, string> = { en: 'English', de: 'German (Deutsch)', fr: 'French (français)', es: 'Spanish (español)', nl: 'Dutch (Nederlands)' };
+/** The price format the builder suggests with a language (the analyst may pick another locale). */
+export const LANGUAGE_LOCALES: Record<Language, (typeof LOCALES)[number]> = { en: 'en-GB', de: 'de-DE', fr: 'fr-FR', es: 'es-ES', nl: 'nl-NL' };
+
 export const STAIRCASE_RULES = ['1u2d', '1u3d'] as const;
 export const STAIRCASE_RULE_LABELS: Record<(typeof STAIRCASE_RULES)[number], string> = {
   '1u2d': '1 up / 2 down (converges on 70.7 % noticed)',
@@ -46,6 +53,7 @@ export const DEFAULT_CONSENT =
 export const DESIGN_DEFAULTS = {
   itemPictureId: null,
   locale: 'en-GB',
+  language: 'en',
   shelfSize: 6,
   viewMs: 1200,
   tripMinutes: 20,
@@ -96,6 +104,8 @@ const designFields = z.object({
   category: z.string().trim().min(2, 'Give the item category.').max(80, 'At most 80 characters.'),
   currency: z.enum(CURRENCIES),
   locale: z.enum(LOCALES).default(DESIGN_DEFAULTS.locale),
+  /** The respondents' language; designs saved before it existed read as English. */
+  language: z.enum(LANGUAGES).default(DESIGN_DEFAULTS.language),
   task: z.enum(TASKS),
   /** Spot the saving: items on the remembered shelf. */
   shelfSize: z.coerce.number().int().min(3, 'At least 3 items.').max(12, 'At most 12 items.').default(DESIGN_DEFAULTS.shelfSize),

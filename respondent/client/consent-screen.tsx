@@ -1,3 +1,4 @@
+import { fill, type Messages } from '@/respondent/messages/format';
 import { primaryButton } from './price-tag';
 
 /**
@@ -6,7 +7,8 @@ import { primaryButton } from './price-tag';
  * none) can still begin; the script then hydrates the same markup and starts without a reload.
  * No hooks, so the server can render it.
  */
-export function ConsentScreen({ consentText, contact, retentionDays, action, pid, onAgree }: {
+export function ConsentScreen({ m, consentText, contact, retentionDays, action, pid, onAgree }: {
+  m: Messages;
   consentText: string;
   /** Who runs the study and how to reach them (required at launch). */
   contact?: string;
@@ -26,17 +28,17 @@ export function ConsentScreen({ consentText, contact, retentionDays, action, pid
         onAgree();
       }}
     >
-      <h1 className="text-2xl">Before you start</h1>
+      <h1 className="text-2xl">{m.consent.title}</h1>
       <p className="whitespace-pre-line text-lg leading-relaxed">{consentText}</p>
       <ul className="flex flex-col gap-2 border-l-2 border-rule pl-4 text-base text-muted">
-        <li>No names or e-mail addresses are stored.</li>
-        <li>Your answers are kept for {retentionDays} days after the study closes, then deleted.</li>
-        {contact ? <li data-testid="consent-contact">Who runs this study: {contact}</li> : null}
-        <li>At the end you get a reference code: quote it to ask for your answers to be deleted.</li>
+        <li>{m.consent.noNames}</li>
+        <li>{fill(m.consent.retention, { days: retentionDays })}</li>
+        {contact ? <li data-testid="consent-contact">{fill(m.consent.contact, { contact })}</li> : null}
+        <li>{m.consent.reference}</li>
       </ul>
       {pid ? <input type="hidden" name="pid" value={pid} /> : null}
       <input type="hidden" name="consent" value="true" />
-      <button type="submit" className={primaryButton}>I agree, start</button>
+      <button type="submit" className={primaryButton}>{m.consent.agree}</button>
     </form>
   );
 }

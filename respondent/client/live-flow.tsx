@@ -7,6 +7,6 @@ import { liveDriver } from './live-driver';
 
 /** The flow against the real link: the driver (plain fetch) is made in the browser. */
 export function LiveFlow({ token, resumeToken, pid, ...rest }: Omit<FlowProps, 'driver' | 'formAction'> & { token: string; resumeToken: string | null; pid: string | null }) {
-  const [driver] = useState(() => liveDriver(token, resumeToken, pid));
+  const [driver] = useState(() => liveDriver(token, resumeToken, pid, rest.messages.stop));
   return <RespondentFlow {...rest} pid={pid} driver={driver} formAction={respondentUrls(token).start} />;
 }

@@ -15,7 +15,7 @@ if (root && data) {
   const boot = JSON.parse(data) as RespondentBoot;
   const flow = (
     <LiveFlow token={boot.token} resumeToken={boot.resumeToken} pid={boot.pid} initial={boot.initial} study={boot.study}
-      consentText={boot.consentText} retentionDays={boot.retentionDays} questions={boot.questions} />
+      consentText={boot.consentText} retentionDays={boot.retentionDays} questions={boot.questions} messages={boot.messages} />
   );
   if (boot.initial) createRoot(root).render(flow);
   else hydrateRoot(root, flow);

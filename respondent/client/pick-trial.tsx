@@ -1,20 +1,24 @@
 'use client';
 import { useEffect, useRef, useState } from 'react';
+import type { Messages } from '@/respondent/messages/format';
 import type { FlowStudy, PublicTrial, Side } from '@/respondent/shared/types';
 import { KeyHint, KeysNote, PriceTag, bigButton } from './price-tag';
 import { useAnswerKeys } from './screen-hooks';
 
 const READY_MS = 700;
 const now = () => performance.now();
-const NAME: Record<Side, string> = { left: 'Left', right: 'Right' };
 
 /**
  * Pick the lower price: two tags for a brief view, then hidden, then the choice. Prices are
  * never left side by side in full view, so the choice rests on a glance, not arithmetic. The
  * answer buttons take the tags' places, so the thumb goes where the eye was.
  */
-export function PickTrial({ study, trial, onAnswer }: { study: FlowStudy; trial: PublicTrial; onAnswer: (answer: number, ms: number) => void }) {
-  const [phase, setPhase] = useState<'ready' | 'view' | 'choose'>('ready');
+export function PickTrial({ m, study, trial, onAnswer, initialPhase = 'ready' }: {
+  m: Messages; study: FlowStudy; trial: PublicTrial; onAnswer: (answer: number, ms: number) => void;
+  /** Where the screen starts: always 'ready' in the flow; the language test renders each phase (tests/unit/respondent-messages.test.ts). */
+  initialPhase?: 'ready' | 'view' | 'choose';
+}) {
+  const [phase, setPhase] = useState<'ready' | 'view' | 'choose'>(initialPhase);
   const hiddenAt = useRef(0);
   const answered = useRef(false);
   useEffect(() => {
@@ -36,22 +40,22 @@ export function PickTrial({ study, trial, onAnswer }: { study: FlowStudy; trial:
     <div className="flex flex-col gap-5">
       <h1 className="text-center text-2xl">{trial.label}</h1>
       <p className="text-center text-lg" aria-live="polite">
-        {phase === 'choose' ? 'Which tag showed the lower price?' : phase === 'ready' ? 'Two price tags will appear for a moment…' : 'Look closely'}
+        {phase === 'choose' ? m.trial.pickChoose : phase === 'ready' ? m.trial.pickReady : m.trial.pickLook}
       </p>
       <div className="grid grid-cols-2 gap-3" data-phase={phase}>
         {(['left', 'right'] as const).map((s) =>
           phase === 'choose' ? (
             <button key={s} type="button" onClick={() => choose(s)} aria-keyshortcuts={s === 'left' ? 'ArrowLeft' : 'ArrowRight'}
               className={`${bigButton} min-h-24 flex-col gap-1`}>
-              <span className="text-xl">{NAME[s]}</span>
+              <span className="text-xl">{m.trial[s]}</span>
               <KeyHint k={s === 'left' ? '←' : '→'} />
             </button>
           ) : (
-            <PriceTag key={s} study={study} price={priceOn(s)} hidden={phase === 'ready'} size="md" caption={NAME[s]} />
+            <PriceTag key={s} study={study} price={priceOn(s)} hidden={phase === 'ready'} size="md" caption={m.trial[s]} />
           ),
         )}
       </div>
-      {phase === 'choose' ? <KeysNote>On a keyboard: ← for the left tag, → for the right.</KeysNote> : null}
+      {phase === 'choose' ? <KeysNote>{m.trial.pickKeys}</KeysNote> : null}
     </div>
   );
 }

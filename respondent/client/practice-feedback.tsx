@@ -1,4 +1,5 @@
 'use client';
+import { fill, type Messages } from '@/respondent/messages/format';
 import { formatPrice } from '@/respondent/shared/price';
 import type { FlowStudy, PublicTrial } from '@/respondent/shared/types';
 import { primaryButton } from './price-tag';
@@ -15,41 +16,29 @@ export function practiceVerdict(study: FlowStudy, trial: PublicTrial, answer: nu
   return (trial.price < trial.base) === (answer === 1);
 }
 
-function feedbackWords(study: FlowStudy, trial: PublicTrial, answer: number): { title: string; text: string } {
+function feedbackWords(m: Messages, study: FlowStudy, trial: PublicTrial, answer: number): { title: string; text: string } {
   const f = (v: number) => formatPrice(v, study.currency, study.locale);
-  const now = f(trial.price), usual = f(trial.base);
+  const vars = { now: f(trial.price), usual: f(trial.base), minutes: study.tripMinutes };
+  const w = m.feedback;
   const verdict = practiceVerdict(study, trial, answer);
-  if (study.task === 'trip') {
-    return {
-      title: 'Thanks, noted',
-      text: `There is no right or wrong answer here. You chose to ${answer === 1 ? 'go to the other store' : 'buy it here'}: ${now} there, ${usual} here, ${study.tripMinutes} minutes away. Answer the way you would on a real shopping trip.`,
-    };
-  }
+  if (study.task === 'trip') return { title: w.tripTitle, text: fill(answer === 1 ? w.tripGo : w.tripStay, vars) };
   if (study.task === 'pick') {
-    const side = trial.side === 'right' ? 'right' : 'left';
+    const right = trial.side === 'right';
     return verdict
-      ? { title: 'Well spotted', text: `The ${side} tag was lower: ${now} against ${usual}.` }
-      : { title: 'Not this time, and that is fine', text: `The lower price, ${now}, was on the ${side} tag; the other showed ${usual}. The tags are shown only briefly. Go with your first impression.` };
+      ? { title: w.wellSpotted, text: fill(right ? w.pickRightRight : w.pickRightLeft, vars) }
+      : { title: w.notThisTime, text: fill(right ? w.pickWrongRight : w.pickWrongLeft, vars) };
   }
   if (trial.price < trial.base) {
     return verdict
-      ? { title: 'Well spotted', text: `This was lower than usual: ${now} instead of ${usual}.` }
-      : { title: 'Not this time, and that is fine', text: `This one was lower than usual: ${now} instead of the ${usual} on the shelf. Compare with the price you remember.` };
+      ? { title: w.wellSpotted, text: fill(w.spotLowerRight, vars) }
+      : { title: w.notThisTime, text: fill(w.spotLowerWrong, vars) };
   }
-  return verdict
-    ? { title: 'Right', text: `This was the usual price, ${usual}.` }
-    : { title: 'Not this time, and that is fine', text: `This was the usual price, ${usual}.` };
+  return { title: verdict ? w.right : w.notThisTime, text: fill(w.spotSame, vars) };
 }
 
-const LAST_WORDS: Record<FlowStudy['task'], string> = {
-  spot: 'Some differences will be small, and some prices will be the usual one: give your best guess.',
-  pick: 'Some differences will be small: go with your first impression.',
-  trip: 'There are no right answers: choose as you would when shopping.',
-};
-
 /** After a practice answer: said kindly, never as a score; the last one leads into the real questions. */
-export function PracticeFeedback({ study, trial, answer, last, onNext }: { study: FlowStudy; trial: PublicTrial; answer: number; last: boolean; onNext: () => void }) {
-  const w = feedbackWords(study, trial, answer);
+export function PracticeFeedback({ m, study, trial, answer, last, onNext }: { m: Messages; study: FlowStudy; trial: PublicTrial; answer: number; last: boolean; onNext: () => void }) {
+  const w = feedbackWords(m, study, trial, answer);
   const verdict = practiceVerdict(study, trial, answer);
   return (
     <div className="flex flex-col gap-5" data-testid="practice-feedback" data-verdict={verdict === null ? 'choice' : verdict ? 'right' : 'wrong'}>
@@ -59,11 +48,10 @@ export function PracticeFeedback({ study, trial, answer, last, onNext }: { study
       </div>
       {last ? (
         <p className="text-lg">
-          That was the last practice round. Now the real questions begin; from here on there is no feedback.
-          {' '}{LAST_WORDS[study.task]}
+          {m.feedback.last}{' '}{m.feedback.lastWords[study.task]}
         </p>
       ) : null}
-      <button type="button" className={primaryButton} onClick={onNext}>{last ? 'Start the real questions' : 'Next practice round'}</button>
+      <button type="button" className={primaryButton} onClick={onNext}>{last ? m.feedback.startReal : m.feedback.nextPractice}</button>
     </div>
   );
 }

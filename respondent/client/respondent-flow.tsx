@@ -1,6 +1,7 @@
 'use client';
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { SegmentQuestion } from '@/lib/schemas/study.schema';
+import type { Messages } from '@/respondent/messages/format';
 import type { FlowState, FlowStudy, PublicTrial } from '@/respondent/shared/types';
 import { ConsentScreen } from './consent-screen';
 import { newClientId, type FlowDriver } from './driver';
@@ -20,6 +21,8 @@ type Step =
 
 export interface FlowProps {
   driver: FlowDriver;
+  /** The study language's catalogue (respondent/messages): every fixed string on the screens. */
+  messages: Messages;
   study: FlowStudy;
   consentText: string;
   retentionDays: number;
@@ -82,7 +85,9 @@ export function RespondentFlow(p: FlowProps) {
     if (column.current && column.current.getBoundingClientRect().top < 0) column.current.scrollIntoView({ block: 'start' });
   }, [step]);
 
-  const stop = useCallback((code: string, message: string) => setStep({ s: 'stopped', code, message }), []);
+  const m = p.messages;
+  // A respondent the server cannot find has no study (and no language) behind it: the flow words that one itself.
+  const stop = useCallback((code: string, message: string) => setStep({ s: 'stopped', code, message: code === 'not_found' ? m.stop.lost : message }), [m]);
 
   const q = useAnswerQueue(p.driver);
 
@@ -173,36 +178,36 @@ export function RespondentFlow(p: FlowProps) {
   const current = upcoming[0];
   let body: React.ReactNode;
   if (step.s === 'consent') {
-    body = <ConsentScreen consentText={p.consentText} contact={p.study.contact} retentionDays={p.retentionDays} action={p.formAction} pid={p.pid}
+    body = <ConsentScreen m={m} consentText={p.consentText} contact={p.study.contact} retentionDays={p.retentionDays} action={p.formAction} pid={p.pid}
       onAgree={() => (p.questions.length ? setStep({ s: 'question', i: 0 }) : void begin({}))} />;
   } else if (step.s === 'question') {
-    body = <QuestionScreen key={step.i} question={p.questions[step.i]} n={step.i + 1} of={p.questions.length} onAnswer={(o) => answerQuestion(o, step.i)} />;
+    body = <QuestionScreen m={m} key={step.i} question={p.questions[step.i]} n={step.i + 1} of={p.questions.length} onAnswer={(o) => answerQuestion(o, step.i)} />;
   } else if (step.s === 'intro' && flow) {
-    body = <InstructionsScreen study={study} practice={Math.max(0, flow.practice - answered)} questions={Math.max(0, flow.total - flow.practice)}
+    body = <InstructionsScreen m={m} study={study} practice={Math.max(0, flow.practice - answered)} questions={Math.max(0, flow.total - flow.practice)}
       onStart={() => setStep(afterIntro({ ...flow, answered }))} />;
   } else if (step.s === 'feedback' && flow) {
-    body = <PracticeFeedback study={study} trial={step.trial} answer={step.answer} last={answered >= flow.practice} onNext={() => continueFrom(upcoming)} />;
+    body = <PracticeFeedback m={m} study={study} trial={step.trial} answer={step.answer} last={answered >= flow.practice} onNext={() => continueFrom(upcoming)} />;
   } else if (step.s === 'shelf' && flow) {
-    body = <ShelfScreen study={study} shelf={flow.shelf} again={step.again} onDone={() => setStep(upcoming.length ? { s: 'trial' } : { s: 'wait' })} />;
+    body = <ShelfScreen m={m} study={study} shelf={flow.shelf} again={step.again} onDone={() => setStep(upcoming.length ? { s: 'trial' } : { s: 'wait' })} />;
   } else if (step.s === 'trial' && current) {
-    body = <TrialScreen key={current.idx} study={study} trial={current} onAnswer={(a, ms) => answerTrial(current, a, ms)} />;
+    body = <TrialScreen m={m} key={current.idx} study={study} trial={current} onAnswer={(a, ms) => answerTrial(current, a, ms)} />;
   } else if (step.s === 'thanks') {
-    body = p.preview ? <PreviewEnd /> : <Thanks referenceCode={flow?.referenceCode} />;
+    body = p.preview ? <PreviewEnd m={m} /> : <Thanks m={m} referenceCode={flow?.referenceCode} />;
   } else if (step.s === 'stopped') {
-    body = <Stopped code={step.code} message={step.message} />;
+    body = <Stopped m={m} code={step.code} message={step.message} />;
   } else {
-    body = <Waiting />;
+    body = <Waiting m={m} />;
   }
   const showProgress = flow && (step.s === 'trial' || step.s === 'shelf' || step.s === 'wait' || step.s === 'feedback');
   let progress: React.ReactNode = null;
   if (showProgress) {
     const practice = step.s === 'feedback' ? { n: answered, of: flow.practice } : answered < flow.practice ? { n: answered + 1, of: flow.practice } : undefined;
-    progress = <Progress done={Math.max(0, answered - flow.practice)} total={Math.max(flow.total, answered) - flow.practice} practice={practice} />;
+    progress = <Progress m={m} done={Math.max(0, answered - flow.practice)} total={Math.max(flow.total, answered) - flow.practice} practice={practice} />;
   }
   return (
     <FlowColumn ref={column}>
       {progress}
-      {q.reconnecting ? <Reconnecting /> : null}
+      {q.reconnecting ? <Reconnecting m={m} /> : null}
       {body}
     </FlowColumn>
   );

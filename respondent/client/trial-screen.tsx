@@ -1,5 +1,6 @@
 'use client';
 import { useEffect, useRef } from 'react';
+import { fill, fillParts, type Messages } from '@/respondent/messages/format';
 import { formatPrice } from '@/respondent/shared/price';
 import type { FlowStudy, PublicTrial } from '@/respondent/shared/types';
 import { PickTrial } from './pick-trial';
@@ -21,7 +22,7 @@ function useAnswer(onAnswer: OnAnswer) {
 }
 
 /** Two answers, yes first: buttons with their keys (1, 2) for desktop respondents. */
-function TwoAnswers({ yes, no, answer }: { yes: string; no: string; answer: (a: number) => void }) {
+function TwoAnswers({ m, yes, no, answer }: { m: Messages; yes: string; no: string; answer: (a: number) => void }) {
   useAnswerKeys({ 1: () => answer(1), 2: () => answer(0) });
   return (
     <>
@@ -29,40 +30,40 @@ function TwoAnswers({ yes, no, answer }: { yes: string; no: string; answer: (a: 
         <button type="button" className={bigButton} aria-keyshortcuts="1" onClick={() => answer(1)}><KeyHint k="1" />{yes}</button>
         <button type="button" className={bigButton} aria-keyshortcuts="2" onClick={() => answer(0)}><KeyHint k="2" />{no}</button>
       </div>
-      <KeysNote>On a keyboard: press 1 or 2.</KeysNote>
+      <KeysNote>{m.trial.keysTwo}</KeysNote>
     </>
   );
 }
 
-function SpotTrial({ study, trial, onAnswer }: { study: FlowStudy; trial: PublicTrial; onAnswer: OnAnswer }) {
+function SpotTrial({ m, study, trial, onAnswer }: { m: Messages; study: FlowStudy; trial: PublicTrial; onAnswer: OnAnswer }) {
   const answer = useAnswer(onAnswer);
   return (
     <div className="flex flex-col items-center gap-5">
       <h1 className="text-center text-2xl">{trial.label}</h1>
       <PriceTag study={study} price={trial.price} />
-      <p className="text-center text-lg">Compared with the usual price you saw on the shelf, is this price lower, or the same?</p>
-      <TwoAnswers yes="Lower than usual" no="The same" answer={answer} />
+      <p className="text-center text-lg">{m.trial.spotQuestion}</p>
+      <TwoAnswers m={m} yes={m.trial.spotYes} no={m.trial.spotNo} answer={answer} />
     </div>
   );
 }
 
-function TripTrial({ study, trial, onAnswer }: { study: FlowStudy; trial: PublicTrial; onAnswer: OnAnswer }) {
+function TripTrial({ m, study, trial, onAnswer }: { m: Messages; study: FlowStudy; trial: PublicTrial; onAnswer: OnAnswer }) {
   const answer = useAnswer(onAnswer);
   const there = formatPrice(trial.price, study.currency, study.locale);
   return (
     <div className="flex flex-col items-center gap-4">
       <h1 className="text-center text-2xl">{trial.label}</h1>
-      <PriceTag study={study} price={trial.base} caption="here, in this store" />
+      <PriceTag study={study} price={trial.base} caption={m.trial.tripHere} />
       <p className="text-center text-lg">
-        Another store {study.tripMinutes} minutes away sells the same item for <span className="num font-semibold">{there}</span>.
-        Would you go there for it, or buy it here?
+        {fillParts(m.trial.tripOffer, { minutes: study.tripMinutes, price: <span key="price" className="num font-semibold">{there}</span> })}
+        {' '}{m.trial.tripQuestion}
       </p>
-      <TwoAnswers yes="Go to the other store" no="Buy it here" answer={answer} />
+      <TwoAnswers m={m} yes={m.trial.tripYes} no={m.trial.tripNo} answer={answer} />
     </div>
   );
 }
 
-function AttentionTrial({ trial, onAnswer }: { trial: PublicTrial; onAnswer: OnAnswer }) {
+function AttentionTrial({ m, trial, onAnswer }: { m: Messages; trial: PublicTrial; onAnswer: OnAnswer }) {
   const answer = useAnswer(onAnswer);
   const a = trial.attention!;
   useAnswerKeys(Object.fromEntries(a.options.map((_, i) => [String(i + 1), () => answer(i)])));
@@ -74,21 +75,21 @@ function AttentionTrial({ trial, onAnswer }: { trial: PublicTrial; onAnswer: OnA
           <button key={o} type="button" className={bigButton} aria-keyshortcuts={String(i + 1)} onClick={() => answer(i)}><KeyHint k={String(i + 1)} />{o}</button>
         ))}
       </div>
-      <KeysNote>On a keyboard: press 1 to {a.options.length}.</KeysNote>
+      <KeysNote>{fill(m.trial.keysRange, { n: a.options.length })}</KeysNote>
     </div>
   );
 }
 
 /** One trial; keyed by idx in the flow so every trial starts with fresh timers. */
-export function TrialScreen({ study, trial, onAnswer }: { study: FlowStudy; trial: PublicTrial; onAnswer: OnAnswer }) {
+export function TrialScreen({ m, study, trial, onAnswer }: { m: Messages; study: FlowStudy; trial: PublicTrial; onAnswer: OnAnswer }) {
   const body =
-    trial.kind === 'attention' ? <AttentionTrial trial={trial} onAnswer={onAnswer} />
-      : study.task === 'pick' ? <PickTrial study={study} trial={trial} onAnswer={onAnswer} />
-        : study.task === 'trip' ? <TripTrial study={study} trial={trial} onAnswer={onAnswer} />
-          : <SpotTrial study={study} trial={trial} onAnswer={onAnswer} />;
+    trial.kind === 'attention' ? <AttentionTrial m={m} trial={trial} onAnswer={onAnswer} />
+      : study.task === 'pick' ? <PickTrial m={m} study={study} trial={trial} onAnswer={onAnswer} />
+        : study.task === 'trip' ? <TripTrial m={m} study={study} trial={trial} onAnswer={onAnswer} />
+          : <SpotTrial m={m} study={study} trial={trial} onAnswer={onAnswer} />;
   return (
     <div className="flex flex-col gap-3" data-testid="trial" data-kind={trial.kind}>
-      {trial.kind === 'practice' ? <p className="pill self-start text-base text-muted">Practice round: you will see how you did</p> : null}
+      {trial.kind === 'practice' ? <p className="pill self-start text-base text-muted">{m.trial.practiceBadge}</p> : null}
       {study.pictureUrl && trial.kind !== 'attention' ? (
         // eslint-disable-next-line @next/next/no-img-element -- a small stored picture; next/image would add script
         <img src={study.pictureUrl} alt="" className="mx-auto max-h-20 w-auto" />

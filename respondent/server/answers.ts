@@ -31,10 +31,10 @@ import { AppError } from '@/lib/server/http/errors';
 import { sql, sqlOne } from '@/lib/server/db/sql';
 import { respondentContext, type RespondentContext } from './context';
 import { stoppedRefusal } from './link';
+import { refusal } from './words';
 import { answeredHistory } from './trials';
 
 const invalid = (path: string, message: string) => new AppError(422, 'validation_failed', message, [{ path, message }]);
-const COMPLETED = () => new AppError(409, 'conflict', 'Your answers are already complete.');
 
 /** One answer of the batch with its row in the request (for error paths) once sorted by idx. */
 interface Entry {
@@ -229,7 +229,8 @@ async function explain(db: EntityManager, ctx: RespondentContext, unresolved: En
            coalesce((select json_agg(json_build_object('idx', t.idx, 'clientId', t.client_id)) from trial t
                       where t.respondent_id = r.id and (t.idx between ? and ? or t.client_id::text in (select jsonb_array_elements_text(?::jsonb)))), '[]') as stored
       from respondent r join study s on s.id = r.study_id left join respondent_link l on l.id = r.link_id where r.id = ?`, [first, last, ids, ctx.id]);
-  if (!st) throw new AppError(404, 'not_found', 'We could not find your answers. Open the study link again.');
+  const language = ctx.design.language;
+  if (!st) throw refusal(language, 404, 'not_found', 'lost');
   const stored = (typeof st.stored === 'string' ? JSON.parse(st.stored) : st.stored) as { idx: number; clientId: string }[];
   classify(stored);
   const usedElsewhere = new Map(stored.map((s) => [s.clientId, Number(s.idx)]));
@@ -239,10 +240,10 @@ async function explain(db: EntityManager, ctx: RespondentContext, unresolved: En
   }
   const left = unresolved.filter(({ a }) => !stored.some((s) => Number(s.idx) === a.idx));
   if (left.length) {
-    const stopped = stoppedRefusal(st.study_state, Boolean(st.link_closed));
+    const stopped = stoppedRefusal(st.study_state, Boolean(st.link_closed), language);
     if (stopped) throw stopped;
-    if (st.state !== 'started') throw COMPLETED();
-    throw invalid(`answers.${left[0].row}.idx`, 'Answer the trials in order.');
+    if (st.state !== 'started') throw refusal(language, 409, 'conflict', 'alreadyDone');
+    throw refusal(language, 422, 'validation_failed', 'inOrder', {}, [{ path: `answers.${left[0].row}.idx`, message: 'Answer the trials in order.' }]);
   }
   return Number(st.answered_count);
 }

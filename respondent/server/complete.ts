@@ -9,9 +9,9 @@ import 'server-only';
 // (retried or concurrent) complete finds the respondent completed and changes nothing.
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { expectedTrial, completionRedirect } from '@/respondent/shared/screens';
-import { AppError } from '@/lib/server/http/errors';
 import { respondentContext } from './context';
 import { stoppedRefusal } from './link';
+import { refusal } from './words';
 import { sqlOne } from '@/lib/server/db/sql';
 import { completeWithSeat, withSeatLock } from '@/lib/server/billing/seat-ledger';
 import { answeredHistory } from './trials';
@@ -27,28 +27,31 @@ export async function completeRespondent(db: EntityManager, linkToken: string, r
        from respondent r join study s on s.id = r.study_id left join respondent_link l on l.id = r.link_id where r.id = ?`,
     [ctx.id],
   );
+  const language = ctx.design.language;
   const r = await readState();
-  if (!r) throw new AppError(404, 'not_found', 'We could not find your answers.');
+  if (!r) throw refusal(language, 404, 'not_found', 'lost');
   if (r.state === 'completed') return { ok: true, redirectUrl };
   // The same 410 /state gives: a paused study or a closed link stops a complete in progress too.
-  const stopped = stoppedRefusal(r.study_state, Boolean(r.link_closed));
+  const stopped = stoppedRefusal(r.study_state, Boolean(r.link_closed), language);
   if (stopped) throw stopped;
   const count = Number(r.answered_count);
   const finished = ctx.plan.mode === 'fixed'
     ? count >= ctx.plan.trials.length
     : expectedTrial(ctx.design, ctx.seed, ctx.plan, await answeredHistory(db, ctx.id), count) === null;
   // The phone completes once its stored answers are acknowledged; until then some are still on their way.
-  if (!finished) throw new AppError(409, 'conflict', ctx.plan.mode === 'fixed'
-    ? `${ctx.plan.trials.length - count} of ${ctx.plan.trials.length} answers have not reached us yet. Send them before completing.`
-    : 'Some answers have not reached us yet. Send them before completing.');
+  if (!finished) {
+    throw ctx.plan.mode === 'fixed'
+      ? refusal(language, 409, 'conflict', 'notArrivedCount', { missing: ctx.plan.trials.length - count, total: ctx.plan.trials.length })
+      : refusal(language, 409, 'conflict', 'notArrived');
+  }
 
   const out = await withSeatLock(db, ctx.workspaceId, (tx) => completeWithSeat(tx, { workspaceId: ctx.workspaceId, studyId: ctx.studyId, respondentId: ctx.id }));
   if (out === 'completed') return { ok: true, redirectUrl };
-  if (out === 'no_seat') throw new AppError(409, 'study_full', 'This study is full. Your answers are kept; thank you for taking part.');
+  if (out === 'no_seat') throw refusal(language, 409, 'study_full', 'fullAtEnd');
   // Not open any more: completed meanwhile (a concurrent try won), stopped meanwhile, or deleted.
   const now = await readState();
   if (now?.state === 'completed') return { ok: true, redirectUrl };
-  const stoppedLater = now ? stoppedRefusal(now.study_state, Boolean(now.link_closed)) : null;
+  const stoppedLater = now ? stoppedRefusal(now.study_state, Boolean(now.link_closed), language) : null;
   if (stoppedLater) throw stoppedLater;
-  throw new AppError(404, 'not_found', 'We could not find your answers.');
+  throw refusal(language, 404, 'not_found', 'lost');
 }

@@ -12,10 +12,12 @@ import type { AnswerBatchReply, AnswerInput } from '@/respondent/shared/answer.s
 import { linkRefusal, loadLink, openLink } from './link';
 import { findByResume, stateOf } from './respondents';
 import type { FlowState } from '@/respondent/shared/types';
+import type { Language } from '@/lib/schemas/study.schema';
+import { refusal } from './words';
 
-/** Why the link cannot be used (unknown 404, closed or paused 410), or null when it is open. */
-export async function linkEntryRefusal(token: string) {
-  return linkRefusal(await loadLink(await em(), token));
+/** Why the link cannot be used (unknown 404, closed or paused 410), or null when it is open; unknown links in `unknownLanguage`. */
+export async function linkEntryRefusal(token: string, unknownLanguage: Language = 'en') {
+  return linkRefusal(await loadLink(await em(), token), unknownLanguage);
 }
 
 /** The study's item picture, only through a known link of the study's workspace. */
@@ -33,7 +35,7 @@ export async function respondentState(token: string, resume: (studyId: string) =
   const db = await em();
   const link = await openLink(db, token);
   const r = await findByResume(db, link.studyId, resume(link.studyId));
-  if (!r) throw new AppError(404, 'not_found', 'We could not find your answers. Start from the study link.');
+  if (!r) throw refusal(link.design.language, 404, 'not_found', 'lost');
   return stateOf(db, link, r);
 }
 

@@ -1,8 +1,8 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { readDesign, type StudyDesign } from '@/lib/schemas/study.schema';
+import { readDesign, type Language, type StudyDesign } from '@/lib/schemas/study.schema';
 import { sqlOne } from '@/lib/server/db/sql';
-import { AppError } from '@/lib/server/http/errors';
+import { refusal, type RespondentError } from './words';
 
 /** A respondent link as the respondent side sees it: the link with its study's state, design and retention. */
 export interface RespondentLinkWithStudy {
@@ -48,10 +48,13 @@ export async function loadLink(db: EntityManager, token: string): Promise<Respon
   };
 }
 
-/** Why a link cannot take respondents: 404 unknown, 410 closed or not (or no longer) live. */
-export function linkRefusal(link: RespondentLinkWithStudy | null): AppError | null {
-  if (!link || link.studyState === 'imported') return new AppError(404, 'not_found', 'This link does not lead to a study. Check the address you were given.');
-  return stoppedRefusal(link.studyState, link.closed);
+/**
+ * Why a link cannot take respondents: 404 unknown, 410 closed or not (or no longer) live; in
+ * the study's language, or `unknownLanguage` (the browser's) when no study stands behind it.
+ */
+export function linkRefusal(link: RespondentLinkWithStudy | null, unknownLanguage: Language = 'en'): RespondentError | null {
+  if (!link || link.studyState === 'imported') return refusal(unknownLanguage, 404, 'not_found', 'unknownLink');
+  return stoppedRefusal(link.studyState, link.closed, link.design.language);
 }
 
 /**
@@ -60,18 +63,18 @@ export function linkRefusal(link: RespondentLinkWithStudy | null): AppError | nu
  * the link's entry does (a paused study or a closed link stops the answers in progress too; the
  * phone keeps what it has not sent, and a resume after the study is resumed sends it).
  */
-export function stoppedRefusal(studyState: string, linkClosed: boolean): AppError | null {
-  if (studyState === 'closed') return new AppError(410, 'gone', 'This study is closed. Thank you for your interest.');
-  if (linkClosed) return new AppError(410, 'gone', 'This link is closed. Thank you for your interest.');
-  if (studyState === 'paused') return new AppError(410, 'gone', 'This study is paused at the moment. Please try again later.');
-  if (studyState !== 'live') return new AppError(410, 'gone', 'This study is not open. Thank you for your interest.');
+export function stoppedRefusal(studyState: string, linkClosed: boolean, language: Language): RespondentError | null {
+  if (studyState === 'closed') return refusal(language, 410, 'gone', 'closed');
+  if (linkClosed) return refusal(language, 410, 'gone', 'linkClosed');
+  if (studyState === 'paused') return refusal(language, 410, 'gone', 'paused');
+  if (studyState !== 'live') return refusal(language, 410, 'gone', 'notOpen');
   return null;
 }
 
-export async function openLink(db: EntityManager, token: string): Promise<RespondentLinkWithStudy> {
+export async function openLink(db: EntityManager, token: string, unknownLanguage: Language = 'en'): Promise<RespondentLinkWithStudy> {
   const link = await loadLink(db, token);
-  const refusal = linkRefusal(link);
-  if (refusal) throw refusal;
+  const refused = linkRefusal(link, unknownLanguage);
+  if (refused) throw refused;
   return link!;
 }
 

@@ -22,24 +22,23 @@ import 'server-only';
 //    the first-device binding, and the links page says so (a panel that numbers its members
 //    1, 2, 3… should turn signing on).
 import { createHmac, randomInt, timingSafeEqual } from 'node:crypto';
-import { AppError } from '@/lib/server/http/errors';
+import type { Language } from '@/lib/schemas/study.schema';
+import { refusal } from './words';
 
 export const MAX_PID_LENGTH = 120;
 
-export const PID_TAKEN = () =>
-  new AppError(409, 'already_taken_part', 'This panel id has already been used for this study. If you started on another device or browser, please continue there. Thank you!');
+export const PID_TAKEN = (language: Language) => refusal(language, 409, 'already_taken_part', 'pidTaken');
 
-const TOO_LONG = () =>
-  new AppError(422, 'validation_failed', `A panel id has at most ${MAX_PID_LENGTH} characters.`, [{ path: 'pid', message: `At most ${MAX_PID_LENGTH} characters.` }]);
+const TOO_LONG = (language: Language) =>
+  refusal(language, 422, 'validation_failed', 'pidTooLong', { n: MAX_PID_LENGTH }, [{ path: 'pid', message: `At most ${MAX_PID_LENGTH} characters.` }]);
 
-const UNSIGNED = () =>
-  new AppError(403, 'forbidden', 'This link must be opened from your panel’s invitation. Please use the address the panel gave you.');
+const UNSIGNED = (language: Language) => refusal(language, 403, 'forbidden', 'pidUnsigned');
 
 /** The panel id as given, trimmed; null when empty; a 422 when too long. */
-export function checkedPid(raw: string | null | undefined): string | null {
+export function checkedPid(raw: string | null | undefined, language: Language = 'en'): string | null {
   const pid = (raw ?? '').trim();
   if (!pid) return null;
-  if (pid.length > MAX_PID_LENGTH) throw TOO_LONG();
+  if (pid.length > MAX_PID_LENGTH) throw TOO_LONG(language);
   return pid;
 }
 
@@ -61,9 +60,9 @@ export function pidProofCookie(linkId: string, sig: string, secure: boolean): st
 }
 
 /** Refuses a panel id on a signing link unless the signature (from the address or the cookie) matches. */
-export function requireSignedPid(secret: string | null, pid: string | null, sig: string | null | undefined): void {
+export function requireSignedPid(secret: string | null, pid: string | null, sig: string | null | undefined, language: Language = 'en'): void {
   if (!secret || !pid) return;
-  if (!sameSignature(secret, pid, sig)) throw UNSIGNED();
+  if (!sameSignature(secret, pid, sig)) throw UNSIGNED(language);
 }
 
 // Crockford's base32 without I, L, O, U: read aloud or typed without mix-ups.

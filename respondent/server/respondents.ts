@@ -6,13 +6,13 @@ import 'server-only';
 // This module: who a respondent is, how one starts or resumes, and which screens come next.
 import { randomUUID } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import type { StudyDesign } from '@/lib/schemas/study.schema';
+import type { Language, StudyDesign } from '@/lib/schemas/study.schema';
 import { completionRedirect, flowState } from '@/respondent/shared/screens';
 import type { FlowState, TrialPlan } from '@/respondent/shared/types';
 import type { StartInput, StartReply } from '@/respondent/shared/start.schema';
 import { respondentUrls } from '@/respondent/shared/urls';
 import { em } from '@/lib/server/db/orm';
-import { AppError } from '@/lib/server/http/errors';
+import { refusal } from './words';
 import { openLink, type RespondentLinkWithStudy } from './link';
 import { withSeatLock } from '@/lib/server/billing/seat-ledger';
 import { sql } from '@/lib/server/db/sql';
@@ -33,9 +33,9 @@ export interface RespondentProgress {
   referenceCode: string | null;
 }
 
-const FULL = () => new AppError(409, 'study_full', 'This study is full. Thank you for your interest.');
+const FULL = (language: Language) => refusal(language, 409, 'study_full', 'fullAtStart');
 // The respondent's own device (it holds the resume token) may be told it finished.
-const DONE = () => new AppError(409, 'already_taken_part', 'You have already taken part in this study. Thank you!');
+const DONE = (language: Language) => refusal(language, 409, 'already_taken_part', 'alreadyDone');
 // A panel id is not a secret (panels often number their members): it never hands out another
 // respondent's resume token, plan or answers, nor says whether that respondent finished
 // (PID_TAKEN, ./panel-ids.ts). The device that started keeps its resume token.
@@ -68,7 +68,7 @@ export function validSegmentAnswers(design: StudyDesign, answers: Record<string,
     .map((q) => ({ path: `segmentAnswers.${q.id}`, message: 'Choose one of the answers.' }));
   const extra = Object.keys(answers).filter((k) => !design.segmentQuestions.some((q) => q.id === k));
   if (issues.length || extra.length) {
-    throw new AppError(422, 'validation_failed', 'Some answers are not valid.', [...issues, ...extra.map((k) => ({ path: `segmentAnswers.${k}`, message: 'Not a question of this study.' }))]);
+    throw refusal(design.language, 422, 'validation_failed', 'invalidAnswers', {}, [...issues, ...extra.map((k) => ({ path: `segmentAnswers.${k}`, message: 'Not a question of this study.' }))]);
   }
   return answers;
 }
@@ -93,6 +93,8 @@ export interface StartClient {
   address?: string;
   /** A cookie of the request by name (the panel-id signature kept by the take-part page). */
   cookie?: (name: string) => string | null;
+  /** The language of a refusal no study stands behind (an unknown link): from the request's Accept-Language. */
+  language?: Language;
 }
 
 /**
@@ -104,16 +106,17 @@ export interface StartClient {
  */
 export async function startRespondent(token: string, input: StartInput, resumeTokenFor: (studyId: string) => string | null, client: StartClient = {}): Promise<StartReply & { studyId: string }> {
   const db = await em();
-  const link = await openLink(db, token);
+  const link = await openLink(db, token, client.language);
+  const language = link.design.language;
   const resumeToken = resumeTokenFor(link.studyId);
-  const pid = link.acceptsPid ? checkedPid(input.pid) : null;
+  const pid = link.acceptsPid ? checkedPid(input.pid, language) : null;
   const hasAnswers = Object.keys(input.segmentAnswers).length > 0;
   const answers = hasAnswers ? validSegmentAnswers(link.design, input.segmentAnswers) : {};
 
   const existing = await findByResume(db, link.studyId, resumeToken);
   if (existing) return resume(db, link, existing, answers);
-  requireSignedPid(link.pidSecret, pid, client.cookie?.(pidProofCookieName(link.linkId)));
-  if (pid && (await findByPid(db, link.studyId, pid))) throw PID_TAKEN();
+  requireSignedPid(link.pidSecret, pid, client.cookie?.(pidProofCookieName(link.linkId)), language);
+  if (pid && (await findByPid(db, link.studyId, pid))) throw PID_TAKEN(language);
   await limit('respondent-start-link-address', `${link.linkId}|${client.address ?? 'unknown'}`);
 
   const seed = newSeed();
@@ -123,14 +126,14 @@ export async function startRespondent(token: string, input: StartInput, resumeTo
     resumeToken: fresh, referenceCode: newReferenceCode(), seed, segmentAnswers: answers, plan: planFor(link.design, seed),
   }));
   // Two starts with the same panel id at once: the unique (study, pid) lets one in; the other gets the one refusal.
-  if (admitted === 'pid_taken') throw PID_TAKEN();
-  if (admitted === 'full') throw FULL();
+  if (admitted === 'pid_taken') throw PID_TAKEN(language);
+  if (admitted === 'full') throw FULL(language);
   const created = (await findByResume(db, link.studyId, fresh))!;
   return { ...(await stateOf(db, link, created)), resumeToken: fresh, studyId: link.studyId };
 }
 
 async function resume(db: EntityManager, link: RespondentLinkWithStudy, r: RespondentProgress & { resumeToken: string }, answers: Record<string, string>) {
-  if (r.state === 'completed' && r.pid) throw DONE();
+  if (r.state === 'completed' && r.pid) throw DONE(link.design.language);
   if (Object.keys(answers).length && needsQuestions(link.design, r) && r.answeredCount === 0) {
     await sql(db, 'update respondent set segment_answers = ?::jsonb, last_seen_at = now() where id = ?', [JSON.stringify(answers), r.id]);
     r = { ...r, segmentAnswers: answers };

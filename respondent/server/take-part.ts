@@ -12,8 +12,7 @@ import { AppError } from '@/lib/server/http/errors';
 import type { RespondentBoot } from '@/respondent/shared/boot';
 import { flowStudy } from '@/respondent/shared/screens';
 import { respondentUrls } from '@/respondent/shared/urls';
-
-const TITLE = 'Price survey';
+import { languageFromAcceptLanguage, messagesFor } from '@/respondent/messages/all';
 
 export interface TakePartRequest {
   token: string;
@@ -24,27 +23,31 @@ export interface TakePartRequest {
   sig?: string | null;
   /** Served over https (the signature cookie is then Secure). */
   secure?: boolean;
+  /** The request's Accept-Language: the stop screen's language for a link no study stands behind. */
+  acceptLanguage?: string | null;
 }
 
 /** The whole HTML response for GET /r/[token]/take-part. */
-export async function takePartDocument({ token, resume, pid: rawPid, sig, secure = false }: TakePartRequest): Promise<Response> {
+export async function takePartDocument({ token, resume, pid: rawPid, sig, secure = false, acceptLanguage = null }: TakePartRequest): Promise<Response> {
   const db = await em();
   const link = await loadLink(db, token);
-  const refusal = linkRefusal(link);
-  if (refusal || !link) return stoppedDocument(refusal!);
+  const refused = linkRefusal(link, languageFromAcceptLanguage(acceptLanguage));
+  if (refused || !link) return stoppedDocument(refused!);
+  const language = link.design.language;
+  const messages = messagesFor(language);
 
   const r = await findByResume(db, link.studyId, resume(link.studyId));
   // Panel ids are checked here too, so a bad one is refused before the consent screen.
   let pid: string | null = null;
   try {
-    pid = link.acceptsPid && !r ? checkedPid(rawPid) : null;
-    if (pid) requireSignedPid(link.pidSecret, pid, sig);
+    pid = link.acceptsPid && !r ? checkedPid(rawPid, language) : null;
+    if (pid) requireSignedPid(link.pidSecret, pid, sig, language);
   } catch (err) {
     if (err instanceof AppError) return stoppedDocument(err);
     throw err;
   }
   if (!r && !(await openForNewRespondents(db, link.workspaceId, link.linkId, link.quota))) {
-    return stoppedDocument({ status: 200, code: 'study_full', message: 'Thank you for your interest. No more answers are needed.' });
+    return stoppedDocument({ status: 200, code: 'study_full', message: messages.stop.full }, language);
   }
   const urls = respondentUrls(token);
   const design = link.design;
@@ -57,9 +60,11 @@ export async function takePartDocument({ token, resume, pid: rawPid, sig, secure
     consentText: design.consentText,
     retentionDays: link.retentionDays,
     questions: design.segmentQuestions,
+    language,
+    messages,
   };
-  if (r) return resumeDocument({ title: TITLE, boot });
-  const doc = await consentDocument({ title: TITLE, action: urls.start, boot });
+  if (r) return resumeDocument({ boot });
+  const doc = await consentDocument({ action: urls.start, boot });
   if (pid && link.pidSecret && sig) doc.headers.append('set-cookie', pidProofCookie(link.linkId, sig, secure));
   return doc;
 }

@@ -1,4 +1,5 @@
-import type { SegmentQuestion } from '@/lib/schemas/study.schema';
+import type { Language, SegmentQuestion } from '@/lib/schemas/study.schema';
+import type { Messages } from '@/respondent/messages/format';
 import type { FlowState, FlowStudy } from './types';
 
 /** The element ids shared by the server-rendered document and the standalone client bundle. */
@@ -18,6 +19,9 @@ export interface RespondentBoot {
   consentText: string;
   retentionDays: number;
   questions: SegmentQuestion[];
+  /** The study's language and its catalogue: the only one this page loads (respondent/messages/format.ts). */
+  language: Language;
+  messages: Messages;
 }
 
 /** JSON safe inside a script element: `<` escaped so no `</script>` can end it early. */

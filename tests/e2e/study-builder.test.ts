@@ -72,6 +72,18 @@ describe('an analyst builds, launches and shares a study in Chromium', () => {
     await page.getByLabel('Question 1', { exact: true }).fill('How often do you buy coffee?');
     await page.getByLabel('Answer 1', { exact: true }).fill('Every week');
     await page.getByLabel('Answer 2', { exact: true }).fill('Less often');
+    // Respondents' language (issue 15): French moves the price format and the standard consent text and
+    // attention check to French; back to English moves them back (a text the analyst wrote would stay).
+    const language = page.getByLabel('Respondents’ language');
+    await language.selectOption('fr');
+    await poll(() => page.getByLabel('Price format (locale)').inputValue()).toBe('fr-FR');
+    expect(await page.getByLabel('Consent text').inputValue()).toMatch(/^Cette courte enquête/);
+    expect(await page.getByLabel('Attention question').inputValue()).toMatch(/Souvent/);
+    await screenshot(page, 'study-builder-language-fr');
+    await language.selectOption('en');
+    await poll(() => page.getByLabel('Price format (locale)').inputValue()).toBe('en-GB');
+    expect(await page.getByLabel('Consent text').inputValue()).toMatch(/^This short survey/);
+    expect(await page.getByLabel('Attention question').inputValue()).toMatch(/“Often”/);
     // Respondents' data: who runs the study (required to launch) and the caution beside the consent text.
     await page.getByLabel('Who runs this study (contact)').fill('Pricing research, Harbourline Home (fictional) — research@harbourline.example');
     expect(await page.getByTestId('data-protection-consent').count()).toBe(1);

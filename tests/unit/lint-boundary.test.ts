@@ -47,6 +47,17 @@ describe('no-restricted-imports keeps the database behind lib/server', () => {
     expect(await restricted('respondent/client/probe.ts', `import { MikroORM } from '@mikro-orm/postgresql';${useIt('MikroORM')}`)).toHaveLength(1);
   });
 
+  it('the respondent client imports no message catalogue (a phone gets only its study\'s, in the boot data), but may use the format helpers', async () => {
+    const all = await restricted('respondent/client/probe.ts', `import { CATALOGUES } from '@/respondent/messages/all';${useIt('CATALOGUES')}`);
+    expect(all).toHaveLength(1);
+    expect(all[0]).toMatch(/holds no catalogue/);
+    expect(await restricted('respondent/client/probe.ts', `import de from '@/respondent/messages/de';${useIt('de')}`)).toHaveLength(1);
+    expect(await restricted('respondent/client/probe.ts', `import en from '../messages/en';${useIt('en')}`)).toHaveLength(1);
+    expect(await restricted('respondent/client/probe.ts', `import { fill } from '@/respondent/messages/format';${useIt('fill')}`)).toEqual([]);
+    // The data-layer rule still holds there too.
+    expect(await restricted('respondent/client/probe.ts', `import { em } from '@/lib/server/db/orm';${useIt('em')}`)).toHaveLength(1);
+  });
+
   it('data-access modules may use the database, and app code may call them (the rule is not a blanket ban)', async () => {
     expect(await restricted('lib/server/studies/probe.ts', `import { em } from '@/lib/server/db/orm';${useIt('em')}`)).toEqual([]);
     expect(await restricted('app/(app)/w/[workspace]/probe/page.tsx', `import { getStudy } from '@/lib/server/studies/studies';${useIt('getStudy')}`)).toEqual([]);

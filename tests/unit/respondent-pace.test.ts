@@ -5,6 +5,7 @@ import { PracticeFeedback, practiceVerdict } from '@/respondent/client/practice-
 import { InstructionsScreen } from '@/respondent/client/instructions-screen';
 import { Progress } from '@/respondent/client/status-screens';
 import type { FlowStudy, PublicTrial } from '@/respondent/shared/types';
+import en from '@/respondent/messages/en';
 import { validDesign } from '../support/study-fixtures';
 
 // The builder's minutes against a measured respondent, and the words of the phone flow's
@@ -51,7 +52,7 @@ describe('practice feedback', () => {
   });
 
   it('says a wrong answer kindly, with the prices, never as a score', () => {
-    const html = renderToStaticMarkup(PracticeFeedback({ study: study('pick'), trial: practice({ side: 'right' }), answer: 0, last: false, onNext: () => {} }));
+    const html = renderToStaticMarkup(PracticeFeedback({ m: en, study: study('pick'), trial: practice({ side: 'right' }), answer: 0, last: false, onNext: () => {} }));
     expect(html).toContain('Not this time, and that is fine');
     expect(html).toContain('€6.99');
     expect(html).toContain('right tag');
@@ -60,7 +61,7 @@ describe('practice feedback', () => {
   });
 
   it('the last practice round leads into the real questions', () => {
-    const html = renderToStaticMarkup(PracticeFeedback({ study: study('trip'), trial: practice(), answer: 1, last: true, onNext: () => {} }));
+    const html = renderToStaticMarkup(PracticeFeedback({ m: en, study: study('trip'), trial: practice(), answer: 1, last: true, onNext: () => {} }));
     expect(html).toContain('no right or wrong');
     expect(html).toContain('That was the last practice round');
     expect(html).toContain('Start the real questions');
@@ -70,18 +71,18 @@ describe('practice feedback', () => {
 describe('instructions and progress', () => {
   it('one instruction screen per task, with its drawing, the practice and the question count', () => {
     for (const task of ['spot', 'pick', 'trip'] as const) {
-      const html = renderToStaticMarkup(InstructionsScreen({ study: study(task), practice: 2, questions: 36, onStart: () => {} }));
+      const html = renderToStaticMarkup(InstructionsScreen({ m: en, study: study(task), practice: 2, questions: 36, onStart: () => {} }));
       expect(html).toContain(`data-task="${task}"`);
       expect(html).toContain('<svg');
       expect(html).toContain('First 2 practice rounds');
       expect(html).toContain('Then 36 questions');
     }
-    expect(renderToStaticMarkup(InstructionsScreen({ study: study('pick'), practice: 0, questions: 5, onStart: () => {} }))).not.toContain('practice');
+    expect(renderToStaticMarkup(InstructionsScreen({ m: en, study: study('pick'), practice: 0, questions: 5, onStart: () => {} }))).not.toContain('practice');
   });
 
   it('progress in words: "12 of 36 answered", practice counted on its own', () => {
-    expect(renderToStaticMarkup(Progress({ done: 12, total: 36 }))).toContain('12 of 36 answered');
-    const p = renderToStaticMarkup(Progress({ done: 0, total: 36, practice: { n: 1, of: 2 } }));
+    expect(renderToStaticMarkup(Progress({ m: en, done: 12, total: 36 }))).toContain('12 of 36 answered');
+    const p = renderToStaticMarkup(Progress({ m: en, done: 0, total: 36, practice: { n: 1, of: 2 } }));
     expect(p).toContain('Practice 1 of 2');
     expect(p).toContain('aria-valuetext="Practice 1 of 2"');
   });

@@ -8,6 +8,7 @@ import { startRespondent } from '@/respondent/server/respondents';
 import { stoppedDocument } from '@/respondent/server/document';
 import { startSchema } from '@/respondent/shared/start.schema';
 import { respondentUrls } from '@/respondent/shared/urls';
+import { languageFromAcceptLanguage } from '@/respondent/messages/all';
 
 /**
  * POST: agree and start (or resume, by header, ?resume= or the cookie). JSON from the page's
@@ -26,7 +27,10 @@ export const POST = route(
     await limit('respondent-start-ip', clientAddress(req.headers));
     const secure = req.nextUrl.protocol === 'https:';
     const resumeFor = (studyId: string) => resumeTokenFrom(req, studyId);
-    const client = { address: clientAddress(req.headers), cookie: (name: string) => req.cookies.get(name)?.value ?? null };
+    const client = {
+      address: clientAddress(req.headers), cookie: (name: string) => req.cookies.get(name)?.value ?? null,
+      language: languageFromAcceptLanguage(req.headers.get('accept-language')),
+    };
     if ((req.headers.get('content-type') ?? '').includes('application/x-www-form-urlencoded')) {
       const form = await req.formData();
       const pid = String(form.get('pid') ?? '').trim();

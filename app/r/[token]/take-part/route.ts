@@ -17,6 +17,7 @@ export const GET = route(
       pid: sp.get('pid') || null,
       sig: sp.get('sig'),
       secure: req.nextUrl.protocol === 'https:',
+      acceptLanguage: req.headers.get('accept-language'),
       resume: (studyId) => sp.get('resume') || req.cookies.get(resumeCookieName(studyId))?.value || null,
     });
   },

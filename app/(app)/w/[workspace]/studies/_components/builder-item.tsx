@@ -2,6 +2,7 @@
 import { CURRENCIES, LOCALES } from '@/lib/schemas/study.schema';
 import { errorAt, Field, fieldId, Section, type BuilderForm } from './form-bits';
 import { PictureUpload } from './picture-upload';
+import { LanguageField } from './builder-language';
 
 export function BuilderItem({ form, slug }: { form: BuilderForm; slug: string }) {
   const { register, formState } = form;
@@ -17,7 +18,8 @@ export function BuilderItem({ form, slug }: { form: BuilderForm; slug: string })
         <Field label="Item category" name="category" error={e('category')}>{input('category')}</Field>
       </div>
       <PictureUpload form={form} slug={slug} />
-      <div className="grid gap-4 sm:grid-cols-2">
+      <div className="grid gap-4 sm:grid-cols-3">
+        <LanguageField form={form} />
         <Field label="Currency" name="currency" error={e('currency')}>
           <select id={fieldId('currency')} className="input" {...register('currency')}>
             {CURRENCIES.map((c) => <option key={c}>{c}</option>)}

@@ -1,6 +1,7 @@
 'use client';
 import { Controller, useWatch } from 'react-hook-form';
-import { DEFAULT_CONSENT } from '@/lib/schemas/study.schema';
+import type { Language } from '@/lib/schemas/study.schema';
+import { DEFAULT_CONSENTS } from '@/lib/schemas/language-defaults';
 import { errorAt, Field, fieldId, Section, type BuilderForm } from './form-bits';
 import { SegmentQuestions } from './segment-questions';
 import { StringList } from './string-list';
@@ -15,7 +16,7 @@ export function BuilderRespondent({ form }: { form: BuilderForm }) {
       <Field label="Consent text" name="consentText" error={e('consentText')} hint="Shown first; the respondent must agree before anything is stored. The retention period from Settings is added below it (and frozen at launch).">
         <textarea id={fieldId('consentText')} rows={6} className="input" {...register('consentText')} />
       </Field>
-      <button type="button" className="btn !min-h-0 !py-1" onClick={() => form.setValue('consentText', DEFAULT_CONSENT, { shouldDirty: true })}>Restore the standard text</button>
+      <button type="button" className="btn !min-h-0 !py-1" onClick={() => form.setValue('consentText', DEFAULT_CONSENTS[(form.getValues('language') ?? 'en') as Language], { shouldDirty: true })}>Restore the standard text</button>
       {/* Respondents' data (issue 13, point 5): who runs the study, and the caution beside the consent text. */}
       <Field label="Who runs this study (contact)" name="contact" error={e('contact')} hint="Shown with the consent text, e.g. “Pricing research, Example Foods Ltd — privacy@example.com”. Required to launch; respondents quote their reference code here to have their answers deleted.">
         <input id={fieldId('contact')} className="input" {...register('contact')} />

@@ -1,5 +1,5 @@
 import type { StudyDetail } from '@/lib/server/studies/studies';
-import { estimatedMinutes, PRICE_ENDING_LABELS, STAIRCASE_RULE_LABELS, TASK_LABELS, trialsPerRespondent } from '@/lib/schemas/study.schema';
+import { estimatedMinutes, LANGUAGE_LABELS, PRICE_ENDING_LABELS, STAIRCASE_RULE_LABELS, TASK_LABELS, trialsPerRespondent } from '@/lib/schemas/study.schema';
 
 const dt = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
 
@@ -16,6 +16,7 @@ export function DesignSummary({ study }: { study: StudyDetail }) {
     ['Placement', d.adaptive.enabled ? `Adaptive: ${STAIRCASE_RULE_LABELS[d.adaptive.rule]}` : `${d.repetitions} repetitions per cell`],
     ['Per respondent', <span key="t" className="num">{t.total} trials · about {estimatedMinutes(d)} min</span>],
     ['Catch trials', <span key="c" className="num">{Math.round(d.catchShare * 100)} %</span>],
+    ['Respondents see', `${LANGUAGE_LABELS[d.language]}, prices as ${d.locale}`],
     ['Segment questions', d.segmentQuestions.length ? d.segmentQuestions.map((q) => q.text).join('; ') : 'None'],
     ['Attention check', d.attentionCheck.enabled ? 'Yes' : 'No'],
     ['Price ending', PRICE_ENDING_LABELS[d.priceEnding]],

@@ -6,6 +6,7 @@ import { getStudy } from '@/lib/server/studies/studies';
 import { getWorkspaceSettings } from '@/lib/server/team/workspaces';
 import { PageTitle } from '@/components/ui/page-title';
 import { RespondentPreview } from '@/respondent/client/respondent-preview';
+import { messagesFor } from '@/respondent/messages/all';
 
 export const metadata: Metadata = { title: 'Preview' };
 
@@ -22,7 +23,7 @@ export default async function PreviewPage({ params }: { params: Promise<{ worksp
         <Link href={`/w/${ctx.workspace.slug}/studies/${study.id}`}>← Back to the study</Link>
         <span className="ml-3 text-muted">Exactly what a respondent sees, on a phone-sized screen. Answers here are not recorded.</span>
       </p>
-      <RespondentPreview design={study.design} workspaceRetentionDays={settings.retentionDays} pictureUrl={study.design.itemPictureId ? `/api/assets/${study.design.itemPictureId}` : null} />
+      <RespondentPreview design={study.design} messages={messagesFor(study.design.language)} workspaceRetentionDays={settings.retentionDays} pictureUrl={study.design.itemPictureId ? `/api/assets/${study.design.itemPictureId}` : null} />
     </>
   );
 }
