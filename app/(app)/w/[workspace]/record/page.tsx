@@ -12,6 +12,7 @@ import { RecordFilters } from './_components/record-filters';
 import { RecordTable } from './_components/record-table';
 import { StudyComparison } from './_components/study-comparison';
 import { UncoveredList } from './_components/uncovered-list';
+import { RefreshWhilePending } from './_components/refresh-while-pending';
 
 export const metadata: Metadata = { title: 'Threshold record' };
 
@@ -65,6 +66,7 @@ export default async function RecordPage({ params, searchParams }: { params: Pro
       <p className="mb-4 max-w-prose text-sm text-muted">
         What the workspace has learned: the notice thresholds of every closed or imported study, each from its own fit and its own shoppers. Thresholds are the mid-point of each study&apos;s notice curve, in money; intervals are 95 %.
       </p>
+      <RefreshWhilePending pending={all.filter((e) => e.status === 'pending').length} />
       <RecordFilters query={q} categories={categoriesOf(inCurrency)} currencies={currencies} currency={currency} price={price} />
       {currencies.length > 1 ? <p className="hint mb-3">Showing studies priced in {currency}; {all.length - inCurrency.length} more in {currencies.filter((c) => c !== currency).join(', ')} (pick the currency above — money thresholds are never mixed across currencies).</p> : null}
       {shown.length === 0 ? <EmptyState title="No study matches these filters">Widen the dates or choose another category.</EmptyState> : (
