@@ -2,7 +2,8 @@
 // on simulated shoppers whose own thresholds spread (own simulation, no published source): with
 // the same truth in both studies it rejects at p < 0.05 about 5 % of the time (at most 9 % with
 // 120 pairs: 5 % plus two binomial SEs), and with a true 60 % difference in the threshold it
-// rejects most of the time (30 shoppers per study; a 35 % difference is found about 4 times in 10). Each study is fitted by the engine itself (analyse, shopper bootstrap).
+// rejects most of the time (30 shoppers per study; a 35 % difference is found about 4 times in 10).
+// The same fits check that the record's 95 % interval of a threshold at a price covers the truth. Each study is fitted by the engine itself (analyse, shopper bootstrap).
 import { describe, expect, it } from 'vitest';
 import { analyse } from '@/lib/psychometrics/analyse';
 import { createRng } from '@/lib/psychometrics/random';
@@ -27,16 +28,23 @@ function fitLine(o: Observer, seed: string, prefix: string) {
 }
 
 function rejectionRate(a: Observer, b: Observer, pairs: number, tag: string) {
-  let threshold = 0, slope = 0, n = 0;
+  let threshold = 0, slope = 0, n = 0, covered = 0, lines = 0;
+  const truth = (o: Observer) => Math.exp(o.alpha(PRICE)) * PRICE;
   for (let i = 0; i < pairs; i++) {
-    const d = compareStudies(fitLine(a, `${tag}-a-${i}`, 'a'), fitLine(b, `${tag}-b-${i}`, 'b'), PRICE);
+    const la = fitLine(a, `${tag}-a-${i}`, 'a'), lb = fitLine(b, `${tag}-b-${i}`, 'b');
+    for (const [line, o] of [[la, a], [lb, b]] as const) {
+      const ci = thresholdAtPrice(line, PRICE).amountCi;
+      lines++;
+      if (ci && ci[0] <= truth(o) && truth(o) <= ci[1]) covered++;
+    }
+    const d = compareStudies(la, lb, PRICE);
     if (d.thresholdP === null || d.slopeP === null) continue;
     n++;
     if (d.thresholdP < 0.05) threshold++;
     if (d.slopeP < 0.05) slope++;
   }
-  console.log(`[study difference] ${tag}: threshold test rejects ${(threshold / n).toFixed(3)}, slope test ${(slope / n).toFixed(3)} (${n} pairs; own simulation, no published source)`);
-  return { threshold: threshold / n, slope: slope / n, n };
+  console.log(`[study difference] ${tag}: threshold test rejects ${(threshold / n).toFixed(3)}, slope test ${(slope / n).toFixed(3)} (${n} pairs); 95 % interval of the threshold at ${PRICE} covers the truth in ${(covered / lines).toFixed(3)} of ${lines} fits (own simulation, no published source)`);
+  return { threshold: threshold / n, slope: slope / n, n, coverage: covered / lines };
 }
 
 describe('difference test between two studies (shopper level)', () => {
@@ -46,6 +54,8 @@ describe('difference test between two studies (shopper level)', () => {
     expect(r.n).toBeGreaterThanOrEqual(115);
     expect(r.threshold).toBeLessThanOrEqual(0.09);
     expect(r.slope).toBeLessThanOrEqual(0.09);
+    // the threshold-at-a-price interval the record shows covers the truth (pooled mid-point = e^α, see tests/calibration/shoppers-differ.test.ts)
+    expect(r.coverage).toBeGreaterThanOrEqual(0.92);
     // not a test that never rejects: the level is used
     expect(r.threshold + r.slope).toBeGreaterThan(0);
   });
