@@ -20,7 +20,7 @@ async function copyKitchenStudy(db: pg.Client): Promise<string> {
   await db.query('begin');
   const id = (await db.query(
     `insert into study (id, workspace_id, name, state, design, exclusion_rules, data_version, created_at, updated_at, launched_at, closed_at, retention_days)
-     select gen_random_uuid(), workspace_id, $2, 'closed', jsonb_set(design, '{name}', to_jsonb($2::text)), exclusion_rules, 1,
+     select gen_random_uuid(), workspace_id, $2::text, 'closed', jsonb_set(design, '{name}', to_jsonb($2::text)), exclusion_rules, 1,
             '2025-06-02', '2025-06-20', '2025-06-02', '2025-06-20', retention_days from study where id = $1 returning id`, [src, COPY])).rows[0].id;
   await db.query('create temp table m on commit drop as select id as old_id, gen_random_uuid() as new_id from respondent where study_id = $1 and state in (\'completed\', \'imported\')', [src]);
   await db.query(
@@ -45,6 +45,11 @@ async function waitUntilFitted(page: Page) {
     await page.waitForTimeout(4000);
     await page.reload();
   }
+}
+
+/** Both charts measured and drawn (ParentSize renders them after the first layout). */
+async function chartsDrawn(page: Page) {
+  for (const id of ['record-chart', 'record-trend-chart']) await page.getByTestId(id).locator('svg[role="img"] .visx-axis-bottom').waitFor({ state: 'visible' });
 }
 
 describe('threshold record in Chromium', () => {
@@ -84,6 +89,8 @@ describe('threshold record in Chromium', () => {
     // the kitchen category was measured twice: its line over time
     expect(await page.getByTestId('record-trend-chart').locator('polyline').count()).toBe(1);
     expect(await page.getByTestId('uncovered-categories').textContent()).toContain('Kitchen — tools');
+    expect(await page.getByTestId('uncovered-categories').textContent()).not.toContain('Household');
+    await chartsDrawn(page);
     await screenshot(page, 'record-desktop');
     await expectAccessible(page, 'record');
   });
@@ -103,14 +110,16 @@ describe('threshold record in Chromium', () => {
     expect(await page.getByTestId('record-table').locator('tbody tr').count()).toBe(2);
     expect(await page.getByTestId('record-table').locator('thead').textContent()).toMatch(/Threshold at €25\.00/);
     const compare = page.getByRole('form', { name: 'Compare two studies' });
-    await compare.getByLabel('Study').selectOption({ label: `${DEMO_STUDY_NAME} (2026-03-20)` });
-    await compare.getByLabel('against').selectOption({ label: `${COPY} (2025-06-20)` });
+    await compare.getByLabel('Study', { exact: true }).selectOption({ label: `${DEMO_STUDY_NAME} (2026-03-20)` });
+    await compare.getByLabel('against', { exact: true }).selectOption({ label: `${COPY} (2025-06-20)` });
     await compare.getByRole('button', { name: 'Compare' }).click();
     const result = page.getByTestId('comparison-result');
     await result.waitFor();
     // the copy holds the same answers: no difference, ratio 1 within its interval
+    expect(await result.textContent()).toMatch(/needs about the same discount as/);
     expect(await result.textContent()).toMatch(/do not show a difference at the 5 % level/);
     expect(await result.textContent()).toMatch(/Method: Welch t-test with each study’s respondent-level bootstrap SE/);
+    await chartsDrawn(page);
     await screenshot(page, 'record-compare');
     await expectAccessible(page, 'record-compare');
     const csv = await page.evaluate(async () => { const r = await fetch('/api/w/harbourline/record?format=csv'); return { status: r.status, text: await r.text() }; });
@@ -129,6 +138,7 @@ describe('threshold record in Chromium', () => {
     expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
     const box = await page.getByTestId('record-chart').locator('svg[role="img"]').boundingBox();
     expect(box!.x + box!.width).toBeLessThanOrEqual(390);
+    await chartsDrawn(page);
     await screenshot(page, 'record-phone');
     await expectAccessible(page, 'record-phone');
   });

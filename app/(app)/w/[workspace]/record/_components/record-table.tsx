@@ -14,7 +14,7 @@ export function RecordTable({ entries, price, slug, styles }: { entries: RecordE
         <thead>
           <tr>
             <th>Category</th><th>Study</th><th>Closed</th><th className="n">Base prices</th><th className="n">Respondents</th>
-            <th className="n">Weber slope (95 % interval)</th><th className="n">Threshold at {formatMoney(price, entries[0]?.currency ?? 'EUR', entries[0]?.locale)} (95 % interval)</th>
+            <th className="n">Weber slope</th><th className="n">Threshold at {formatMoney(price, entries[0]?.currency ?? 'EUR', entries[0]?.locale)}</th>
           </tr>
         </thead>
         <tbody>
@@ -28,7 +28,7 @@ export function RecordTable({ entries, price, slug, styles }: { entries: RecordE
                   {st ? <svg width={12} height={12} aria-hidden="true" className="mr-1.5 inline-block align-[-1px]"><CategoryMark shape={st.shape} colour={st.colour} x={6} y={6} size={5} /></svg> : null}
                   {e.category}
                 </td>
-                <td>
+                <td className="min-w-[12rem]">
                   <Link href={`/w/${slug}/studies/${e.studyId}/results`}>{e.name}</Link>
                   {e.state === 'imported' ? <span className="hint"> · imported</span> : null}
                   {e.poorFit ? <span className="pill ml-2 text-brick">⚠ poor fit</span> : null}
@@ -38,9 +38,9 @@ export function RecordTable({ entries, price, slug, styles }: { entries: RecordE
                 <td className="n">{e.respondents ?? '—'}{e.unit === 'trial' ? <span className="hint"> (no shopper ids)</span> : null}</td>
                 {e.status !== 'ready' ? <td colSpan={2} className="hint">{e.message}</td> : (
                   <>
-                    <td className="n whitespace-nowrap">{e.weberSlope === null ? <span className="hint">one base price: no slope</span> : <>{num(e.weberSlope)}{e.weberSlopeCi ? <span className="hint"> ({num(e.weberSlopeCi[0])} to {num(e.weberSlopeCi[1])})</span> : null}</>}</td>
+                    <td className="n whitespace-nowrap">{e.weberSlope === null ? <span className="hint">one base price: no slope</span> : <>{num(e.weberSlope)}{e.weberSlopeCi ? <span className="hint block">{num(e.weberSlopeCi[0])} to {num(e.weberSlopeCi[1])}</span> : null}</>}</td>
                     <td className="n whitespace-nowrap">
-                      {at ? <>{m(at.amount)}{at.amountCi ? <span className="hint"> ({m(at.amountCi[0])} to {m(at.amountCi[1])})</span> : null}{at.extrapolated ? <span className="pill ml-2" title="Outside the base prices this study tested: read off its Weber line">extrapolated</span> : null}</> : <span className="hint">no Weber line with intervals</span>}
+                      {at ? <>{at.extrapolated ? <span className="pill mr-2" title="Outside the base prices this study tested: read off its Weber line">extrapolated</span> : null}{m(at.amount)}{at.amountCi ? <span className="hint block">{m(at.amountCi[0])} to {m(at.amountCi[1])}</span> : null}</> : <span className="hint">no Weber line with intervals</span>}
                     </td>
                   </>
                 )}
@@ -49,6 +49,7 @@ export function RecordTable({ entries, price, slug, styles }: { entries: RecordE
           })}
         </tbody>
       </table>
+      <p className="hint px-3 py-2">Under each number: its 95 % interval. The threshold at the picked price is read off each study&apos;s Weber line (power model).</p>
     </div>
   );
 }

@@ -11,9 +11,9 @@ export function StudyComparison({ entries, categories, query, price, priceText, 
   const groups = categories.map((c) => ({ category: c, studies: entries.filter((e) => sameCategory(e.category, c)) })).filter((g) => g.studies.length >= 2);
   const hidden = { category: query.category, currency: query.currency, from: query.from, to: query.to, price: String(price) };
   const select = (name: 'a' | 'b', label: string) => (
-    <label className="field min-w-[12rem] flex-1">
-      <span className="text-sm font-semibold">{label}</span>
-      <select name={name} className="input" defaultValue={query[name] ?? ''} required>
+    <div className="field min-w-[12rem] flex-1">
+      <label htmlFor={`compare-${name}`} className="text-sm font-semibold">{label}</label>
+      <select id={`compare-${name}`} name={name} className="input" defaultValue={query[name] ?? ''} required>
         <option value="" disabled>Choose a study</option>
         {groups.map((g) => (
           <optgroup key={g.category} label={g.category}>
@@ -21,7 +21,7 @@ export function StudyComparison({ entries, categories, query, price, priceText, 
           </optgroup>
         ))}
       </select>
-    </label>
+    </div>
   );
   return (
     <section aria-labelledby="compare-h">
@@ -52,14 +52,14 @@ function ComparisonResult({ outcome, priceText }: { outcome: ComparisonOutcome; 
       {r.ratio === null || r.thresholdP === null ? <p>{r.method}.</p> : (
         <>
           <p className="text-base">
-            At {priceText}, “{a.name}” needs a discount <strong>{pct(r.ratio)}</strong> {r.ratio >= 1 ? 'deeper' : 'shallower'} than “{b.name}” before shoppers notice
-            {' '}<span className="num">(95 % interval {pct(r.ratioCi![0])} to {pct(r.ratioCi![1])}; {pText(r.thresholdP)})</span>.
+            At {priceText}, “{a.name}” needs {Math.abs(r.ratio - 1) < 0.005 ? <strong>about the same discount as</strong> : <>a discount <strong>{Math.abs((r.ratio - 1) * 100).toFixed(0)} % {r.ratio >= 1 ? 'deeper' : 'shallower'}</strong> than</>} “{b.name}” before shoppers notice
+            {' '}(95 % interval {pct(r.ratioCi![0])} to {pct(r.ratioCi![1])}; {pText(r.thresholdP)}).
           </p>
           <p>{differs ? 'The difference is larger than the two studies’ shoppers would give by chance (at the 5 % level).' : 'The two studies’ shoppers do not show a difference at the 5 % level — which is not proof that there is none; the interval says how large it could be.'}</p>
         </>
       )}
       {r.slopeDifference !== null && r.slopeP !== null ? (
-        <p>Weber slope: {r.slopeDifference >= 0 ? '+' : '−'}{Math.abs(r.slopeDifference).toFixed(2)} <span className="num">(95 % interval {r.slopeDifferenceCi![0].toFixed(2)} to {r.slopeDifferenceCi![1].toFixed(2)}; {pText(r.slopeP)})</span>.</p>
+        <p>Difference in Weber slope: {r.slopeDifference >= 0 ? '+' : '−'}{Math.abs(r.slopeDifference).toFixed(2)} (95 % interval {r.slopeDifferenceCi![0].toFixed(2)} to {r.slopeDifferenceCi![1].toFixed(2)}; {pText(r.slopeP)}).</p>
       ) : null}
       {r.extrapolated ? <p className="text-brick">⚠ {priceText} lies outside the base prices at least one of the studies tested: the comparison reads an extrapolated Weber line there.</p> : null}
       <p className="hint">Method: {r.method}.</p>
