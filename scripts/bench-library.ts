@@ -46,13 +46,14 @@ async function timePage(url: string, cookie: string): Promise<{ ms: number; byte
 async function main() {
   ensureBuild(log);
   const url = await freshDatabase({ root: path.join(DATA, 'test'), port: PG_PORT, database: 'nw_bench_library' });
+  const env = appEnv(url, { stripePort: STRIPE_PORT, smtpPort: Number(process.env.TEST_SMTP_PORT ?? 3913) });
   for (const script of [['scripts/seed.ts'], ['scripts/seed/bench-record-studies.ts', String(STUDIES)]]) {
-    const r = run(bin('tsx'), ['--conditions=react-server', ...script], { cwd: ROOT, env: { ...process.env, DATABASE_URL: url } });
+    const r = run(bin('tsx'), ['--conditions=react-server', ...script], { cwd: ROOT, env: { ...process.env, ...env } });
     process.stdout.write(r.stdout);
     if (r.code !== 0) throw new Error(`${script[0]} failed:\n${r.stderr}`);
   }
   const stripe = startFakeStripe({ port: STRIPE_PORT, webhookUrl: `http://127.0.0.1:${PORT}/api/stripe/webhook`, webhookSecret: WEBHOOK_SECRET, quiet: true });
-  const app = await startApp(appEnv(url, { stripePort: STRIPE_PORT, smtpPort: Number(process.env.TEST_SMTP_PORT ?? 3913) }), PORT);
+  const app = await startApp(env, PORT);
   try {
     const base = `http://127.0.0.1:${PORT}`;
     const cookie = await signIn(base);
