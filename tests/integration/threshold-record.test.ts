@@ -55,6 +55,14 @@ describe('threshold record', () => {
     expect(rows[0].n).toBe(0);
   });
 
+  it('stores one small summary per fit on the first read and reads the same entries from it afterwards', async () => {
+    const first = await listRecord(await ctx());
+    const summaries = await (await em()).execute(`select study_id, pg_column_size(result) as size from analysis_result where kind = 'record-entry' and study_id = any(?::uuid[])`, [`{${ids.k1},${ids.k2},${ids.d}}`]);
+    expect(summaries).toHaveLength(3);
+    const again = await listRecord(await ctx());
+    expect(again).toEqual(first);
+  });
+
   it('compares two studies of one category at shopper level, and refuses two categories', async () => {
     const entries = await listRecord(await ctx());
     const ok = compareEntries(entries, ids.k2, ids.k1, 39);
