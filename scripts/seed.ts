@@ -3,6 +3,7 @@ import { orm } from '@/lib/server/db/orm';
 import { seedAccounts } from './seed/accounts';
 import { seedDemoPriceList } from './seed/demo-price-list';
 import { seedDemoStudy } from './seed/demo-study';
+import { seedDemoRecordStudies } from './seed/demo-record-studies';
 
 async function main() {
   const o = await orm();
@@ -11,6 +12,7 @@ async function main() {
     const workspace = await seedAccounts(db);
     await seedDemoPriceList(db, workspace.id);
     await seedDemoStudy(db, workspace.id);
+    await seedDemoRecordStudies(db, workspace.id);
     process.stdout.write(`[notchwise] demo data ready (workspace "${workspace.name}")\n`);
   } finally {
     await o.close(true);

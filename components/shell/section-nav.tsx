@@ -6,6 +6,7 @@ import type { Role } from '@/lib/roles';
 
 const SECTIONS = [
   { href: '', label: 'Studies' },
+  { href: '/record', label: 'Threshold record' },
   { href: '/promotions', label: 'Promotions' },
   { href: '/team', label: 'Team' },
   { href: '/billing', label: 'Billing' },

@@ -1,6 +1,8 @@
 // The cautions shown next to every promotion plan and carried in every plan export
 // (DESIGN.md → Cautions the product shows). Other exports may reuse this wording.
 
+import { fitSourceCautions, type FitSource } from './fit-source';
+
 export const CAUTIONS_TITLE = 'Before a price claim goes out';
 
 export const PRICE_CLAIM_CAUTIONS: readonly string[] = [
@@ -16,7 +18,7 @@ export const STATISTICS_CAUTION =
 export const POOR_FIT_WARNING =
   'The fit behind this plan was flagged as poor (the model does not describe the study’s answers well at one or more base prices, or the data are overdispersed). Treat these promo floors as rough guidance and check the study’s results before using them.';
 
-/** All caution lines of one plan, in the order exports print them. */
-export function planCautions(poorFit: boolean): string[] {
-  return [...(poorFit ? [POOR_FIT_WARNING] : []), ...PRICE_CLAIM_CAUTIONS, STATISTICS_CAUTION];
+/** All caution lines of one plan, in the order exports print them (a borrowed or pooled fit's lines after the poor-fit warning). */
+export function planCautions(poorFit: boolean, source?: FitSource | null): string[] {
+  return [...(poorFit ? [POOR_FIT_WARNING] : []), ...fitSourceCautions(source), ...PRICE_CLAIM_CAUTIONS, STATISTICS_CAUTION];
 }

@@ -3,6 +3,7 @@ import { POOR_FIT_WARNING, planCautions } from './cautions';
 import type { FloorRow } from './floor-table';
 import type { PlanSummary } from './summary';
 import type { FloorBasis } from './floor-basis';
+import { describeFitSource, fitBasisFor, type FitSource } from './fit-source';
 
 // Plan exports, pure so the route handler and the benchmark build exactly the same bytes.
 
@@ -25,6 +26,8 @@ export interface PlanExportHeader {
   share: number | null;
   /** How far (fraction) the ending may deepen a discount beyond the floor; null = no limit (older plans). */
   tolerance: number | null;
+  /** Where the fit comes from, and what it is borrowed for (lib/promo/fit-source.ts); absent in older plans. */
+  fitSource?: FitSource | null;
 }
 
 /** The floor basis in words, for the plan page and every export. */
@@ -50,11 +53,14 @@ export function planCsvHeader(currency: string): string[] {
     `Promo price (${currency})`, 'Discount at promo price (% off)',
     `Margin before (${currency}/unit)`, `Margin after (${currency}/unit)`,
     'Outside tested range', 'Deeper than margin', 'No promo price', 'Exact price kept (ending too deep)', 'No threshold (bound only)',
+    'Fit basis',
   ];
 }
 
-export function planCsv(currency: string, rows: readonly FloorRow[]): string {
+/** The plan table; the last column says per item whether its floor was measured or borrowed (empty for plans made before sources were kept). */
+export function planCsv(currency: string, rows: readonly FloorRow[], source?: FitSource | null): string {
   const body: CsvValue[][] = new Array(rows.length);
+  const basisOf = new Map<string | null, string>();
   for (let i = 0; i < rows.length; i++) {
     const r = rows[i];
     body[i] = [
@@ -63,9 +69,16 @@ export function planCsv(currency: string, rows: readonly FloorRow[]): string {
       r.marginBefore, r.marginAfter,
       yesNo(r.outsideRange), yesNo(r.deeperThanMargin), yesNo(r.noPromoPrice), yesNo(r.endingSkipped),
       r.bound ? `${r.bound.kind === 'above' ? 'above the deepest rung' : 'below the shallowest rung'} (${round(r.bound.fraction * 100, 2)} %)` : 'no',
+      cachedBasis(basisOf, source, r.category),
     ];
   }
   return toCsv(planCsvHeader(currency), body);
+}
+
+function cachedBasis(cache: Map<string | null, string>, source: FitSource | null | undefined, category: string | null): string {
+  let v = cache.get(category);
+  if (v === undefined) { v = fitBasisFor(source, category); cache.set(category, v); }
+  return v;
 }
 
 /** The side file that travels with the plan CSV (so the table opens cleanly): what it was built from, and the cautions. */
@@ -73,6 +86,7 @@ export function planAboutCsv(h: PlanExportHeader, generatedAt: string): string {
   const rows: CsvValue[][] = [
     ['Plan', h.plan.name],
     ['Study', h.study.name],
+    ['Fit basis', h.fitSource ? describeFitSource(h.fitSource) : 'the study’s own fit'],
     ['Segment', h.segment ? `${h.segment.questionId} = ${h.segment.answer}` : 'All respondents'],
     ['Fit version (study data version)', h.fitVersion],
     ['Exclusion rules', JSON.stringify(h.exclusionRules ?? {})],
@@ -85,7 +99,7 @@ export function planAboutCsv(h: PlanExportHeader, generatedAt: string): string {
     ['Tested base prices', h.testedBasePrices.join(' / ')],
     ['Generated at', generatedAt],
     ['Fit flagged as poor', h.poorFit ? 'yes' : 'no'],
-    ...planCautions(h.poorFit).map((c): CsvValue[] => [c === POOR_FIT_WARNING ? 'Warning' : 'Caution', c]),
+    ...planCautions(h.poorFit, h.fitSource).map((c): CsvValue[] => [c === POOR_FIT_WARNING ? 'Warning' : 'Caution', c]),
   ];
   // Field,Value rows, as the thresholds export's side file (lib/server/exports.ts) has them.
   return toCsv(['Field', 'Value'], rows);
@@ -98,10 +112,16 @@ export function planJson(h: PlanExportHeader, summary: PlanSummary, rows: readon
       targetMeaning: h.basis === 'share' ? 'not used' : h.target === null ? 'mid-point' : 'notice rate',
       basisMeaning: describeBasis(h.basis, h.share),
       generatedAt,
-      cautions: planCautions(false),
+      fitBasis: h.fitSource ? describeFitSource(h.fitSource) : 'the study’s own fit',
+      cautions: planCautions(false, h.fitSource),
       poorFitWarning: h.poorFit ? planCautions(true)[0] : null,
     },
     summary,
-    items: rows,
+    items: h.fitSource ? withBasis(rows, h.fitSource) : rows,
   };
+}
+
+function withBasis(rows: readonly FloorRow[], source: FitSource) {
+  const cache = new Map<string | null, string>();
+  return rows.map((r) => ({ ...r, fitBasis: cachedBasis(cache, source, r.category) }));
 }

@@ -224,11 +224,40 @@ export function reportJoint(ctx: AnalysisContext): Pick<AnalysisReport, 'models'
       free: r.free,
       weber: { ...r.weber, weberFraction, weberFractionCi },
       constantAmount: { ...r.constantAmount, amount },
-      power: { ...r.power, a: pFit.params[0] - (b - 1) * jf.centre, weberSlope: identifiable ? b : null, weberSlopeCi },
+      power: { ...r.power, a: pFit.params[0] - (b - 1) * jf.centre, weberSlope: identifiable ? b : null, weberSlopeCi, draws: identifiable ? powerDraws(ctx) : null },
     },
     tests,
     preferredModel,
   };
+}
+
+/** Bootstrap draws kept in the report for comparisons across studies (study-difference.ts). */
+export const POWER_DRAWS = 400;
+
+/**
+ * The power line of each bootstrap sample as [a, b] (ln amount = a + b·ln B), read from the
+ * sample's power-model thresholds at the lowest and highest base (exact at the mid-point
+ * target, where the power thresholds lie on the line). The first POWER_DRAWS finite samples,
+ * rounded to 6 decimals, so a cached fit stays small; null without a bootstrap.
+ */
+function powerDraws(ctx: AnalysisContext): [number, number][] | null {
+  if (!ctx.boot) return null;
+  const L = ctx.layout, J = ctx.prep.bases.length;
+  const pi = MODELS.indexOf('power');
+  const B0 = ctx.prep.bases[0], B1 = ctx.prep.bases[J - 1];
+  const out: [number, number][] = [];
+  const rows = ctx.boot.length / L.length;
+  const r6 = (v: number) => Math.round(v * 1e6) / 1e6;
+  for (let s = 0; s < rows && out.length < POWER_DRAWS; s++) {
+    const f0 = ctx.boot[s * L.length + L.model + pi * J];
+    const f1 = ctx.boot[s * L.length + L.model + pi * J + J - 1];
+    if (!(f0 > 0 && f1 > 0)) continue;
+    const l0 = Math.log(f0 * B0), l1 = Math.log(f1 * B1);
+    const b = (l1 - l0) / (Math.log(B1) - Math.log(B0));
+    const a = l0 - b * Math.log(B0);
+    if (Number.isFinite(a) && Number.isFinite(b)) out.push([r6(a), r6(b)]);
+  }
+  return out.length >= 10 ? out : null;
 }
 
 /** Parametric-bootstrap p-value of the LR statistic of `big` over nested `small` (see the header). */

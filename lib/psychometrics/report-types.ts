@@ -92,7 +92,12 @@ export interface AnalysisReport {
     free: ModelReport;
     weber: ModelReport & { weberFraction: number; weberFractionCi: Interval | null; weberFractionBound?: ThresholdBound | null };
     constantAmount: ModelReport & { amount: number };
-    power: ModelReport & { a: number; weberSlope: number | null; weberSlopeCi: Interval | null };
+    /**
+     * `draws`: the bootstrap samples' power lines [a, b] (ln amount = a + b·ln B), for intervals of
+     * the threshold at any price and for comparing studies (study-difference.ts); absent in fits cached
+     * before it was added, null without a bootstrap or with one base price.
+     */
+    power: ModelReport & { a: number; weberSlope: number | null; weberSlopeCi: Interval | null; draws?: [number, number][] | null };
   };
   tests: {
     weberVsPower: ModelTest;

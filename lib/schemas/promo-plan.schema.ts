@@ -31,6 +31,8 @@ export const promoPlanCreateSchema = z.object({
   name: z.string().trim().min(2, 'Name the plan (at least 2 characters).').max(160, 'At most 160 characters.'),
   priceListId: z.uuid('Choose a price list.'),
   studyId: z.uuid('Choose a fitted study.'),
+  /** Further studies to fit together with studyId (a pooled fit; lib/server/analysis/pooled-fit.ts); empty = the study's own fit. */
+  pooledStudyIds: z.array(z.uuid('Choose studies from the list.')).max(5, 'Pool at most 6 studies.').default([]),
   segment: z
     .object({ questionId: z.string().min(1).max(32), answer: z.string().min(1).max(80) })
     .nullable()

@@ -75,9 +75,12 @@ describe('promotion planning in Chromium (demo analyst)', () => {
       'SKU', 'Name', 'Category', 'Regular price (EUR)', 'Unit cost (EUR)', 'Promo floor (% off)', 'Promo floor (EUR off)',
       'Promo price (EUR)', 'Discount at promo price (% off)', 'Margin before (EUR/unit)', 'Margin after (EUR/unit)',
       'Outside tested range', 'Deeper than margin', 'No promo price', 'Exact price kept (ending too deep)', 'No threshold (bound only)',
+      'Fit basis',
     ]);
     expect(rows).toHaveLength(201);
     const kettle = rows.find((r) => r[1] === 'Electric kettle, 1.7 l')!;
+    // the demo study measured "Kitchen & home"; the list's categories are others: every floor is borrowed, and says so
+    expect(kettle[16]).toBe(`borrowed from “${DEMO_STUDY}” (Kitchen & home)`);
     expect(kettle[3]).toBe('29.99');
     expect(Number(kettle[5])).toBeGreaterThan(0);
     // .99 where it deepens the discount by at most 2 points (the plan's default tolerance), else the exact floor price.

@@ -237,6 +237,14 @@ describe('the read-only export API (/api/v1): bearer tokens are scoped to their 
     // A's own token reads it: the 404 above is isolation, not a bad fixture.
     expect((await get('/api/v1/studies/[study]/[file]', file, fx.tokenA.token)).status).toBeLessThan(300);
   });
+
+  it("the threshold record: no token 401; B's token gets B's record, without A's study", async () => {
+    expect((await get('/api/v1/record', {})).status).toBe(401);
+    const recordB = await (await get('/api/v1/record', {}, fx.tokenB.token)).text();
+    expect(recordB).not.toContain(fx.studyId);
+    const recordA = await (await get('/api/v1/record', {}, fx.tokenA.token)).text();
+    expect(recordA).toContain(fx.studyId);
+  });
 });
 
 describe('server actions refuse an outsider', () => {

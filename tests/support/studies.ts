@@ -4,16 +4,17 @@ import { RespondentLink } from '@/entities/respondent-link';
 import { Study } from '@/entities/study';
 import { Workspace } from '@/entities/workspace';
 import type { StudyStateName } from '@/lib/study-states';
+import type { StudyDesign } from '@/lib/schemas/study.schema';
 import { em } from '@/lib/server/db/orm';
 import { DEMO_DESIGN, DEMO_SIM } from '@/scripts/seed/demo-study';
 import { insertRespondents, simulateRespondents, type SimParams } from '@/scripts/seed/simulate-responses';
 
-export async function makeSimulatedStudy(workspaceSlug: string, opts: { state?: StudyStateName; sim?: Partial<SimParams>; name?: string; withLinks?: boolean } = {}) {
+export async function makeSimulatedStudy(workspaceSlug: string, opts: { state?: StudyStateName; sim?: Partial<SimParams>; name?: string; withLinks?: boolean; design?: Partial<StudyDesign>; closedAt?: Date } = {}) {
   const db = await em();
   const ws = await db.findOneOrFail(Workspace, { slug: workspaceSlug });
   const name = opts.name ?? 'Simulated study';
   return db.transactional(async (tx) => {
-    const study = tx.create(Study, { workspace: ws.id, name, state: opts.state ?? 'closed', design: { ...DEMO_DESIGN, name }, exclusionRules: null, dataVersion: 1 });
+    const study = tx.create(Study, { workspace: ws.id, name, state: opts.state ?? 'closed', design: { ...DEMO_DESIGN, ...opts.design, name }, exclusionRules: null, dataVersion: 1, closedAt: opts.closedAt ?? null });
     const link = opts.withLinks === false ? null : tx.create(RespondentLink, { workspace: ws.id, study, token: randomUUID().replace(/-/g, ''), source: 'Panel B', acceptsPid: false });
     await tx.flush();
     const sim: SimParams = { ...DEMO_SIM, respondents: 40, seed: `test-${study.id}`, ...opts.sim };

@@ -30,7 +30,8 @@ export interface CacheRow<T> {
 
 /** Bump when the engine or the job's inputs change meaning, so old cached numbers are not reused. */
 // 2: the shopper became the unit (issue 12): per-shopper cells, new report fields.
-export const CACHE_FORMAT = 2;
+// 3: the power model keeps its bootstrap lines (report.models.power.draws) for the threshold record (issue 15).
+export const CACHE_FORMAT = 3;
 
 export function hashKey(parts: unknown): string {
   return createHash('sha256').update(JSON.stringify({ f: CACHE_FORMAT, parts })).digest('hex');

@@ -168,6 +168,6 @@ export async function listFittableStudies(ctx: WorkspaceContext) {
   const studies = await db.find(Study, { id: { $in: rows.map((r) => r.id) }, workspace: ctx.workspace.id }, { orderBy: { name: 'asc' } });
   return studies.map((s) => {
     const { id, name, state, design } = toDetail(s);
-    return { id, name, state, task: design.task, currency: design.currency, basePrices: design.basePrices, segmentQuestions: design.segmentQuestions };
+    return { id, name, state, task: design.task, category: design.category, currency: design.currency, basePrices: design.basePrices, segmentQuestions: design.segmentQuestions };
   });
 }

@@ -8,6 +8,7 @@ import { withRequestContext } from '@/lib/server/db/orm';
 import { runPlannerJob } from '@/lib/server/analysis/planner';
 import { runSegmentsJob } from '@/lib/server/analysis/segments';
 import { runWeberPlanJob } from '@/lib/server/analysis/weber-plan';
+import { runPooledFitJob } from '@/lib/server/analysis/pooled-fit';
 import { purgeExpiredRespondents } from '@/lib/server/studies/retention';
 
 // What the worker runs for each job kind; one place, so tests can call a handler directly.
@@ -22,6 +23,7 @@ async function runJob(data: JobData, lastAttempt: boolean): Promise<void> {
   if (data.kind === 'segments') return runSegmentsJob(data as Parameters<typeof runSegmentsJob>[0], lastAttempt);
   if (data.kind === 'account-mail') return runAccountMailJob(data as unknown as AccountMailJob);
   if (data.kind === 'planner') return runPlannerJob(data as Parameters<typeof runPlannerJob>[0], lastAttempt);
+  if (data.kind === 'pooled-fit') return runPooledFitJob(data as Parameters<typeof runPooledFitJob>[0], lastAttempt);
   if (data.kind === 'weber-plan') return runWeberPlanJob(data as Parameters<typeof runWeberPlanJob>[0], lastAttempt);
   throw new Error(`unknown job kind ${String(data.kind)}`);
 }

@@ -35,9 +35,10 @@ export async function exportPlan(ctx: WorkspaceContext, planId: string, format: 
     basis: plan.settings.basis ?? 'point',
     share: plan.settings.share ?? null,
     tolerance: plan.settings.tolerance ?? null,
+    fitSource: plan.fit.source ?? null,
   };
   const stem = fileStem(plan.name);
-  if (format === 'csv') return csvFile(`${stem}.csv`, planCsv(plan.priceList.currency, rows));
+  if (format === 'csv') return csvFile(`${stem}.csv`, planCsv(plan.priceList.currency, rows, plan.fit.source));
   if (format === 'about-csv') return csvFile(`${stem}-about.csv`, planAboutCsv(header, generatedAt));
   return jsonFile(`${stem}.json`, planJson(header, summary, rows, generatedAt));
 }

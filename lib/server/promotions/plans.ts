@@ -9,6 +9,10 @@ import { defaultFloorModel } from '@/lib/promo/model-choice';
 import { unreachableTarget } from '@/lib/promo/floor-table';
 import { basisData, type BasisData } from '@/lib/promo/floor-basis';
 import { getStudyFit } from '@/lib/server/analysis/study-fit';
+import { getPooledFit } from '@/lib/server/analysis/pooled-fit';
+import { fitSourceOf, type FitSource } from '@/lib/promo/fit-source';
+import { Study } from '@/entities/study';
+import { sql } from '@/lib/server/db/sql';
 import { recordAudit } from '@/lib/server/team/audit';
 import { em } from '@/lib/server/db/orm';
 import { lockKey } from '@/lib/server/db/sql';
@@ -24,6 +28,9 @@ import type { WorkspaceContext } from '@/lib/server/team/membership';
 // The floor basis (point estimate, cautious end of the interval, share of shoppers) and the
 // ending tolerance are settings; what the bases need from the report is stored as `basis`
 // (lib/promo/floor-basis.ts), so older plans without it read as point floors with no limit.
+// A pooled fit (pooledStudyIds, lib/server/analysis/pooled-fit.ts) stands in for a study's fit; the
+// plan's `study` is then the first one chosen. Either way the plan stores its FitSource
+// (lib/promo/fit-source.ts): which studies, and the list categories the fit is borrowed for.
 // Refusals (422): a list in another currency than the study, a target notice rate the model
 // never reaches, power with one tested base price, a share of shoppers the study does not
 // report (no shopper ids, or no mixed model); 409 for a name already used.
@@ -41,6 +48,8 @@ export interface StoredFit {
   warnings: string[];
   /** What the cautious and share bases need, and the bounds; absent in older plans. */
   basis?: BasisData;
+  /** Which studies the fit comes from and the list categories it is borrowed for (lib/promo/fit-source.ts); absent in older plans. */
+  source?: FitSource;
 }
 
 export interface PromoPlanDto {
@@ -82,7 +91,9 @@ export async function createPromoPlan(ctx: WorkspaceContext, input: PromoPlanCre
   requireUuid(input.priceListId, 'That price list');
   const list = await db.findOne(PriceList, { id: input.priceListId, workspace: ctx.workspace.id });
   if (!list) throw notFoundError('That price list');
-  const fit = await getStudyFit(ctx, input.studyId, { segment: input.segment });
+  const pooledIds = [...new Set([input.studyId, ...input.pooledStudyIds])];
+  if (pooledIds.length > 1 && input.segment) throw invalid('segment', 'A pooled fit uses all respondents of each study; choose no segment.');
+  const fit = pooledIds.length > 1 ? await getPooledFit(ctx, pooledIds) : await getStudyFit(ctx, input.studyId, { segment: input.segment });
   if (fit.status === 'pending') return { status: 'pending', message: `The study’s fit is still being computed (${fit.message.replace(/…$/, '')}). Nothing was saved yet; try again in a few seconds.` };
   if (fit.status === 'empty') throw invalid('studyId', fit.message);
   if (fit.currency !== list.currency) {
@@ -116,6 +127,7 @@ export async function createPromoPlan(ctx: WorkspaceContext, input: PromoPlanCre
   const stored: StoredFit = {
     params, testedBasePrices: fit.basePrices, task: fit.task, currency: fit.currency, locale: fit.locale,
     preferredModel: fit.report.preferredModel, intervalMethod: fit.report.intervalMethod, warnings: fit.report.warnings, basis,
+    source: await sourceOf(db, ctx, pooledIds, list.id),
   };
   const id = await db.transactional(async (tx) => {
     // Serialises plan creation per workspace so a double-submitted form stores one plan.
@@ -130,10 +142,18 @@ export async function createPromoPlan(ctx: WorkspaceContext, input: PromoPlanCre
       poorFit: fit.poorFit, createdBy: ctx.user.id,
     });
     await tx.flush();
-    await recordAudit(tx, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'promo_plan.created', target: input.name, detail: { planId: plan.id, studyId: input.studyId, priceListId: list.id, fitVersion: fit.dataVersion } });
+    await recordAudit(tx, { workspace: ctx.workspace.id, actor: ctx.user.id, action: 'promo_plan.created', target: input.name, detail: { planId: plan.id, studyId: input.studyId, pooledStudyIds: pooledIds.length > 1 ? pooledIds : undefined, priceListId: list.id, fitVersion: fit.dataVersion } });
     return plan.id;
   });
   return { status: 'created', plan: await getPromoPlan(ctx, id) };
+}
+
+/** The studies behind the fit and the price list's categories they did not measure. */
+async function sourceOf(db: EntityManager, ctx: WorkspaceContext, studyIds: string[], listId: string): Promise<FitSource> {
+  const studies = await db.find(Study, { id: { $in: studyIds }, workspace: ctx.workspace.id }, { fields: ['id', 'name', 'design'] });
+  const cats = await sql<{ category: string }>(db, 'select distinct category from price_list_item where price_list_id = ? and category is not null', [listId]);
+  const ordered = studyIds.map((id) => studies.find((s) => s.id === id)!).filter(Boolean);
+  return fitSourceOf(ordered.map((s) => ({ id: s.id, name: s.name, category: String((s.design as { category?: string }).category ?? '') })), cats.map((c) => c.category));
 }
 
 async function findPlan(db: EntityManager, ctx: WorkspaceContext, id: string) {

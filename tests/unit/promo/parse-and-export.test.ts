@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { parsePriceList } from '@/lib/promo/parse-price-list';
 import { queryRows, rowQuerySchema } from '@/lib/promo/query-rows';
 import { planAboutCsv, planCsv, planCsvHeader, type PlanExportHeader } from '@/lib/promo/plan-export';
+import { fitSourceOf } from '@/lib/promo/fit-source';
 import { summarisePlan } from '@/lib/promo/summary';
 import type { FloorRow } from '@/lib/promo/floor-table';
 import { PRICE_CLAIM_CAUTIONS, POOR_FIT_WARNING } from '@/lib/promo/cautions';
@@ -88,8 +89,17 @@ describe('plan exports', () => {
     const parsed = Papa.parse<string[]>(csv.trim(), { header: false });
     expect(parsed.data[0]).toEqual(planCsvHeader('EUR'));
     expect(parsed.data[0]).toEqual(expect.arrayContaining(['Regular price (EUR)', 'Promo floor (% off)', 'Promo floor (EUR off)', 'Promo price (EUR)', 'Margin before (EUR/unit)', 'Margin after (EUR/unit)', 'Outside tested range', 'Deeper than margin']));
-    expect(parsed.data[1]).toEqual(['HL-1', 'Item HL-1', 'Kitchen, tools', '12.99', '6', '9.88', '1.28', '11.69', '10', '6.99', '5.69', 'no', 'no', 'no', 'no', 'no']);
+    expect(parsed.data[1]).toEqual(['HL-1', 'Item HL-1', 'Kitchen, tools', '12.99', '6', '9.88', '1.28', '11.69', '10', '6.99', '5.69', 'no', 'no', 'no', 'no', 'no', '']);
     expect(csv.endsWith('\r\n')).toBe(true);
+  });
+
+  it('CSV: the Fit basis column says per item whether its floor is measured or borrowed', () => {
+    const source = fitSourceOf([{ id: 's', name: 'Kitchen', category: 'Kitchen, tools' }], ['Kitchen, tools', 'Garden']);
+    const csv = planCsv('EUR', [row('HL-1', 12.99, { category: 'Kitchen, tools' }), row('G-1', 19.99, { category: 'Garden' })], source);
+    const parsed = Papa.parse<string[]>(csv.trim(), { header: false }).data;
+    expect(parsed[0].at(-1)).toBe('Fit basis');
+    expect(parsed[1].at(-1)).toBe('measured: “Kitchen” (Kitchen, tools)');
+    expect(parsed[2].at(-1)).toBe('borrowed from “Kitchen” (Kitchen, tools)');
   });
 
   it('the about side file carries the settings, the cautions and the poor-fit warning', () => {

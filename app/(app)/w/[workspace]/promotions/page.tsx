@@ -6,6 +6,7 @@ import { listPriceLists } from '@/lib/server/promotions/price-lists';
 import { listPromoPlans } from '@/lib/server/promotions/plans';
 import { FLOOR_MODEL_SHORT } from '@/lib/promo/model-choice';
 import { formatTarget } from '@/lib/promo/format';
+import { describeFitSource, isBorrowed } from '@/lib/promo/fit-source';
 import { PRICE_ENDING_LABELS } from '@/lib/schemas/study.schema';
 import { PageTitle } from '@/components/ui/page-title';
 import { EmptyState } from '@/components/ui/empty-state';
@@ -42,7 +43,7 @@ export default async function PromotionsPage({ params }: { params: Promise<{ wor
                 <tbody>
                   {plans.map((p) => (
                     <tr key={p.id}>
-                      <td><Link href={`${base}/plans/${p.id}`}>{p.name}</Link>{p.poorFit ? <span className="pill ml-2 text-brick">⚠ poor fit</span> : null}</td>
+                      <td><Link href={`${base}/plans/${p.id}`}>{p.name}</Link>{p.poorFit ? <span className="pill ml-2 text-brick">⚠ poor fit</span> : null}{isBorrowed(p.fit.source) ? <span className="pill ml-2" title={describeFitSource(p.fit.source!)}>{p.fit.source!.borrowedFor.length ? 'borrowed fit' : 'pooled fit'}</span> : null}</td>
                       <td>{p.study.name}{p.settings.segment ? <span className="hint"> · {p.settings.segment.answer}</span> : null}</td>
                       <td>{p.priceList.name}</td>
                       <td>{FLOOR_MODEL_SHORT[p.settings.model]}</td>

@@ -6,7 +6,8 @@ import { planTable } from '@/lib/server/promotions/plan-table';
 import { hasRole } from '@/lib/roles';
 import { PageTitle } from '@/components/ui/page-title';
 import { PromoFloorChart } from '@/components/charts/promo-floor-chart';
-import { CautionsPanel, PoorFitBanner } from '../../_components/cautions-panel';
+import { BorrowedFitBanner, CautionsPanel, PoorFitBanner } from '../../_components/cautions-panel';
+import { fitSourceCautions, isBorrowed } from '@/lib/promo/fit-source';
 import { DeleteButton } from '../../_components/delete-button';
 import { PlanFacts } from './_components/plan-facts';
 import { PlanSummaryCard } from './_components/plan-summary';
@@ -33,6 +34,7 @@ export default async function PlanPage({ params }: { params: Promise<{ workspace
       </PageTitle>
       <p className="-mt-3 mb-5 text-sm"><Link href={`/w/${ctx.workspace.slug}/promotions`}>← All promotion plans</Link></p>
       {plan.poorFit ? <PoorFitBanner /> : null}
+      {plan.fit.source && isBorrowed(plan.fit.source) ? <BorrowedFitBanner source={plan.fit.source} /> : null}
       <div className="grid gap-6 lg:grid-cols-[1fr_19rem]">
         <div className="min-w-0 space-y-6">
           <PlanSummaryCard summary={summary} currency={currency} locale={plan.fit.locale} />
@@ -45,7 +47,7 @@ export default async function PlanPage({ params }: { params: Promise<{ workspace
           </figure>
           <PlanFacts plan={plan} />
         </div>
-        <CautionsPanel />
+        <CautionsPanel extra={fitSourceCautions(plan.fit.source)} />
       </div>
       <div className="mt-8">
         <PlanTable slug={ctx.workspace.slug} planId={plan.id} currency={currency} locale={plan.fit.locale} total={summary.items} />

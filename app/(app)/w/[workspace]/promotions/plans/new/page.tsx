@@ -31,7 +31,7 @@ export default async function NewPlanPage({ params, searchParams }: { params: Pr
       ) : (
         <PlanForm
           slug={ctx.workspace.slug}
-          studies={studies.map((s) => ({ id: s.id, name: s.name, currency: s.currency, basePrices: s.basePrices, segmentQuestions: s.segmentQuestions, basis: options[s.id] ?? { shares: [], shareUnavailable: 'The study’s fit is not computed yet.' } }))}
+          studies={studies.map((s) => ({ id: s.id, name: s.name, category: s.category, task: s.task, currency: s.currency, basePrices: s.basePrices, segmentQuestions: s.segmentQuestions, basis: options[s.id] ?? { shares: [], shareUnavailable: 'The study’s fit is not computed yet.' } }))}
           lists={lists.map((l) => ({ id: l.id, name: l.name, currency: l.currency, itemCount: l.itemCount }))}
         />
       )}

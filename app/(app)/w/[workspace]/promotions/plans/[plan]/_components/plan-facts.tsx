@@ -4,6 +4,7 @@ import { formatTarget } from '@/lib/promo/format';
 import { PRICE_ENDING_LABELS } from '@/lib/schemas/study.schema';
 import { EXCLUSION_RULE_LABELS, type ExclusionRuleId } from '@/lib/schemas/exclusions.schema';
 import { describeBasis, describeTolerance } from '@/lib/promo/plan-export';
+import { describeFitSource } from '@/lib/promo/fit-source';
 
 /** What the plan was built from: enough to reproduce it. */
 export function PlanFacts({ plan }: { plan: PromoPlanDto }) {
@@ -12,6 +13,7 @@ export function PlanFacts({ plan }: { plan: PromoPlanDto }) {
   const basis = plan.settings.basis ?? 'point';
   const rows: [string, string][] = [
     ['Study', plan.study.name],
+    ['Fit basis', plan.fit.source ? describeFitSource(plan.fit.source) : 'The study’s own fit'],
     ['Respondents', plan.settings.segment ? `${plan.settings.segment.questionId}: ${plan.settings.segment.answer}` : 'All respondents'],
     ['Fit version', `data version ${plan.fitVersion}`],
     ['Exclusion rules', on.length ? on.join('; ') : 'none'],

@@ -9,7 +9,7 @@ import { FLOOR_MODELS, FLOOR_MODEL_LABELS } from '@/lib/promo/model-choice';
 import { TextField } from '@/components/ui/text-field';
 import { FLOOR_BASES, FLOOR_BASIS_LABELS, type BasisOption } from '@/lib/promo/floor-basis';
 
-interface StudyOption { id: string; name: string; currency: string; basePrices: number[]; segmentQuestions: { id: string; text: string; options: string[] }[]; basis: BasisOption }
+interface StudyOption { id: string; name: string; category: string; task: string; currency: string; basePrices: number[]; segmentQuestions: { id: string; text: string; options: string[] }[]; basis: BasisOption }
 interface ListOption { id: string; name: string; currency: string; itemCount: number }
 
 const SEP = '\u241F';
@@ -30,13 +30,21 @@ export function PlanForm({ slug, studies, lists }: { slug: string; studies: Stud
   const first = studies[0];
   const { register, handleSubmit, setError, setValue, control, formState } = useForm<PromoPlanCreateInput, unknown, PromoPlanCreate>({
     resolver: zodResolver(promoPlanCreateSchema),
-    defaultValues: { name: '', studyId: first.id, priceListId: (lists.find((l) => l.currency === first.currency) ?? lists[0]).id, segment: null, model: 'preferred', target: 'mid-point', ending: 'ends-99', basis: 'point', share: null, tolerancePoints: 2 },
+    defaultValues: { name: '', studyId: first.id, pooledStudyIds: [], priceListId: (lists.find((l) => l.currency === first.currency) ?? lists[0]).id, segment: null, model: 'preferred', target: 'mid-point', ending: 'ends-99', basis: 'point', share: null, tolerancePoints: 2 },
   });
   const studyId = useWatch({ control, name: 'studyId' });
   const segment = useWatch({ control, name: 'segment' });
   const basis = useWatch({ control, name: 'basis' });
   const ending = useWatch({ control, name: 'ending' });
+  const pooled = useWatch({ control, name: 'pooledStudyIds' }) ?? [];
   const study = studies.find((s) => s.id === studyId) ?? first;
+  // Studies whose shoppers may be fitted together with the chosen one: same task (guess rate) and currency.
+  const poolable = studies.filter((s) => s.id !== study.id && s.task === study.task && s.currency === study.currency);
+  const togglePooled = (id: string, on: boolean) => {
+    const next = on ? [...pooled.filter((x) => x !== id), id] : pooled.filter((x) => x !== id);
+    setValue('pooledStudyIds', next);
+    if (next.length) setValue('segment', null);
+  };
   const shareOff = study.basis.shareUnavailable;
   const err = formState.errors;
 
@@ -57,10 +65,11 @@ export function PlanForm({ slug, studies, lists }: { slug: string; studies: Stud
   return (
     <form onSubmit={submit} noValidate className="card grid max-w-3xl gap-4 p-5 sm:grid-cols-2">
       <div className="sm:col-span-2"><TextField label="Plan name" registration={register('name')} error={err.name?.message} /></div>
-      <Select id="f-studyId" label="Fitted study" error={err.studyId?.message} {...register('studyId', { onChange: () => { setValue('segment', null); setValue('basis', 'point'); setValue('share', null); } })}>
-        {studies.map((s) => <option key={s.id} value={s.id}>{s.name} ({s.currency})</option>)}
+      <Select id="f-studyId" label="Fitted study" error={err.studyId?.message} {...register('studyId', { onChange: () => { setValue('segment', null); setValue('basis', 'point'); setValue('share', null); setValue('pooledStudyIds', []); } })}
+        hint="An item in a category the study did not measure gets a borrowed floor; the plan, its exports and its cautions say so.">
+        {studies.map((s) => <option key={s.id} value={s.id}>{s.name} ({s.category}, {s.currency})</option>)}
       </Select>
-      <Select id="f-segment" label="Respondents" hint={`Tested base prices: ${study.basePrices.join(' · ')} ${study.currency}`}
+      <Select id="f-segment" label="Respondents" disabled={pooled.length > 0} hint={`Tested base prices: ${study.basePrices.join(' · ')} ${study.currency}`}
         value={segment ? `${segment.questionId}${SEP}${segment.answer}` : ''}
         onChange={(e) => { const [questionId, answer] = e.target.value.split(SEP); setValue('segment', e.target.value ? { questionId, answer } : null); }}>
         <option value="">All respondents</option>
@@ -70,6 +79,19 @@ export function PlanForm({ slug, studies, lists }: { slug: string; studies: Stud
           </optgroup>
         ))}
       </Select>
+      {poolable.length ? (
+        <fieldset className="field sm:col-span-2" data-testid="pooled-studies">
+          <legend className="label">Pool with other studies (optional)</legend>
+          <span className="hint">Fits the shoppers of the chosen studies together, for a category none of them measured alone. Same task and currency only; the whole plan is then marked as a pooled fit.</span>
+          {poolable.map((s) => (
+            <label key={s.id} className="flex items-center gap-2 text-sm">
+              <input type="checkbox" checked={pooled.includes(s.id)} onChange={(e) => togglePooled(s.id, e.target.checked)} />
+              <span>{s.name} <span className="text-muted">({s.category})</span></span>
+            </label>
+          ))}
+          {err.pooledStudyIds?.message ? <span className="field-error" role="alert">{err.pooledStudyIds.message}</span> : null}
+        </fieldset>
+      ) : null}
       <Select id="f-priceListId" label="Price list" error={err.priceListId?.message} {...register('priceListId')}>
         {lists.map((l) => <option key={l.id} value={l.id}>{l.name} ({l.itemCount.toLocaleString('en-GB')} items, {l.currency})</option>)}
       </Select>
