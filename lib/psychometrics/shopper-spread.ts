@@ -22,7 +22,7 @@ import { chiSquareP } from './chi2';
 import { fitDesign } from './fit-core';
 import { normalExpectation } from './gauss-hermite';
 import {
-  fitMixed, type MixedFit, mixedCovariance, mixedData, type MixedProblem, mixedProblem, mixedStart, MIXED_NODES, profileSigma, type SigmaProfile,
+  catchCellsOf, fitMixed, type MixedFit, mixedCovariance, mixedData, type MixedProblem, mixedProblem, mixedStart, MIXED_NODES, profileSigma, type SigmaProfile,
 } from './mixed';
 import { baseDesign, fitJointModels, type JointFits, packStart, startForBase } from './models';
 import type { Prepared } from './prepare';
@@ -76,8 +76,9 @@ export function fitSpread(
 ): SpreadFit {
   const d = joint.designs[model];
   const fixed = joint.fits[model];
-  const pooledParams = Float64Array.from(fixed.params.subarray(0, d.pTheta + 1 + (d.lapseFixed === null ? 1 : 0)));
-  const data = mixedData(counts, weights);
+  // ψ starts from the whole fixed fit: θ, ln β, λ and, for the spot task, the γs (fitted with the catch trials)
+  const pooledParams = Float64Array.from(fixed.params);
+  const data = mixedData(counts, weights, d.nGamma ? catchCellsOf(d, prep.x.length, prep.bases.length) : undefined);
   const problem = mixedProblem(d, data);
   const fit = fitMixed(problem, mixedStart(problem, pooledParams, 0.3));
   // ℓ_p(0) is the fixed model's maximum on these shoppers' counts (same cells, same weights)
