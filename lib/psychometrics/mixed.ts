@@ -28,7 +28,7 @@
 // as not converged unless the Newton decrement is already negligible. Gradients hold the
 // quadrature nodes fixed (the error of that is of the quadrature's own order). σ's interval
 // is the profile likelihood interval {σ : 2(ℓ̂ − ℓ_p(σ)) ≤ χ²₁(0.95)}, found on the signed
-// root of the deviance by regula falsi; it is fast (a handful of warm-started refits) and,
+// root of the deviance, each end started at its Wald guess; it is fast (a few warm-started refits) and,
 // unlike a Wald interval, behaves at σ = 0 (the lower end is 0 whenever the pooled fit lies
 // within the cut-off). The test of σ = 0 is the likelihood ratio against the pooled fit with
 // the boundary null distribution ½χ²₀ + ½χ²₁ (Self & Liang 1987, value from memory).
@@ -812,10 +812,14 @@ export interface SigmaProfile {
 /**
  * Profile-likelihood interval for σ at level 95 %: the σ values whose profile deviance
  * 2(ℓ̂ − ℓ_p(σ)) stays under χ²₁(0.95). The signed root r(σ) = ±√(2(ℓ̂ − ℓ_p(σ))) is close
- * to linear in σ, so regula falsi (Illinois) on r = ±1.96 needs few refits. `pooledLogLik` is
- * ℓ_p(0), the fixed model's maximum (without constant).
+ * to linear in σ, so each end is searched from its Wald guess σ̂ ± 1.96·SE (`waldSe`, from the
+ * observed information) by secant steps and regula falsi (profileEnd): one or two refits per
+ * end where a blind search took five or more. `pooled` is ℓ_p(0), the fixed model's maximum
+ * (without constant).
  */
-export function profileSigma(pr: MixedProblem, best: MixedFit, pooled: { params: ArrayLike<number>; logLik: number }): SigmaProfile {
+export function profileSigma(
+  pr: MixedProblem, best: MixedFit, pooled: { params: ArrayLike<number>; logLik: number }, waldSe?: number,
+): SigmaProfile {
   let fit = best;
   const iS = pr.iSigma;
   if (pooled.logLik > fit.logLik + 1e-9) {
@@ -829,48 +833,63 @@ export function profileSigma(pr: MixedProblem, best: MixedFit, pooled: { params:
   const p = chi2 <= 0 ? 1 : 0.5 * chiSquareP(chi2, 1)!;
   const crit = Math.sqrt(CHI2_1_95);
   const profileTol = 1e-4;
-  const profileAt = (sigma: number, from: Float64Array) => fitMixed(pr, from, { fixSigma: sigma, tol: profileTol });
-  const r = (ll: number, sigma: number) => Math.sign(sigma - sHat) * Math.sqrt(Math.max(0, 2 * (lhat - ll)));
+  // each refit starts from the nearest one before it
+  let from = Float64Array.from(fit.params);
+  const r = (sigma: number) => {
+    const f = fitMixed(pr, from, { fixSigma: sigma, tol: profileTol });
+    from = Float64Array.from(f.params);
+    return Math.sign(sigma - sHat) * Math.sqrt(Math.max(0, 2 * (lhat - f.logLik)));
+  };
+  const step = waldSe !== undefined && Number.isFinite(waldSe) && waldSe > 0 ? crit * waldSe : Math.max(0.1, 0.5 * sHat);
   let complete = true;
-
-  // lower end
+  // lower end: 0 unless σ = 0 lies outside the interval
   let lowerEnd = 0;
   if (chi2 > CHI2_1_95 && sHat > 0) {
-    const e = solveRoot((s) => r(profileAt(s, fit.params).logLik, s) + crit, 0, crit - Math.sqrt(chi2), sHat, crit, 0.02);
+    const e = profileEnd(r, sHat, -crit, Math.max(0, sHat - step), 0, -Math.sqrt(chi2));
     if (e === null) complete = false; else lowerEnd = e;
   }
-  // upper end: step out until the signed root passes +1.96
-  let upperEnd: number | null = null;
-  let prev = sHat, rPrev = 0;
-  let guess = sHat + Math.max(0.1, 0.5 * sHat);
-  let from = Float64Array.from(fit.params);
-  for (let expand = 0; expand < 12; expand++) {
-    if (guess > SIGMA_MAX) guess = SIGMA_MAX;
-    const f = profileAt(guess, from);
-    const rg = r(f.logLik, guess);
-    if (rg >= crit) {
-      const lo = prev, rlo = rPrev, hi = guess;
-      upperEnd = solveRoot((s) => r(profileAt(s, f.params).logLik, s) - crit, lo, rlo - crit, hi, rg - crit, 0.02);
-      break;
-    }
-    if (guess >= SIGMA_MAX) { upperEnd = SIGMA_MAX; break; }
-    // secant extrapolation on the (near-linear) signed root, at least doubling the step
-    const slope = (rg - rPrev) / (guess - prev);
-    const next = slope > 1e-6 ? prev + (crit - rPrev) / slope : guess + 2 * (guess - prev);
-    prev = guess; rPrev = rg; from = Float64Array.from(f.params);
-    guess = Math.max(next * 1.05, guess + 0.02);
-  }
+  from = Float64Array.from(fit.params);
+  const upperEnd = profileEnd(r, sHat, crit, Math.min(SIGMA_MAX, sHat + step), SIGMA_MAX, null);
   if (upperEnd === null) complete = false;
   return { ci: complete ? [lowerEnd, upperEnd!] : null, chi2, p, fit, complete };
 }
 
+/**
+ * One end of σ's profile interval: the σ where the signed root r(σ) reaches `target` (±1.96),
+ * searched from σ̂ (r = 0) towards `limit` (0 or SIGMA_MAX, where r is `rLimit` if known).
+ * The first try is `guess` (the Wald end, σ̂ ± 1.96·SE); as r is near linear in σ, secant steps
+ * from σ̂ and the tries so far usually land within the tolerance in one or two refits, and
+ * once two tries bracket the target regula falsi finishes. A search that runs into the limit
+ * returns the limit (the interval reaches σ = 0 or the largest spread allowed).
+ */
+function profileEnd(
+  r: (s: number) => number, sHat: number, target: number, guess: number, limit: number, rLimit: number | null,
+): number | null {
+  const tol = 0.02;
+  let a = sHat, ra = 0;
+  let b = guess, rb = b === limit && rLimit !== null ? rLimit : r(b);
+  for (let it = 0; it < 12; it++) {
+    if (Math.abs(rb - target) < tol) return b;
+    if ((rb - target) * (ra - target) < 0) return solveRoot(r, a < b ? a : b, (a < b ? ra : rb) - target, a < b ? b : a, (a < b ? rb : ra) - target, tol, target);
+    if (b === limit) return limit;
+    const slope = (rb - ra) / (b - a);
+    let next = slope * Math.sign(target) > 1e-9 ? b + (target - rb) / slope : b + 2 * (b - a);
+    // overshoot a little so the next try usually brackets the target
+    next += 0.05 * (next - b);
+    if ((limit - next) * Math.sign(target) < 0 || next === b) next = limit;
+    a = b; ra = rb;
+    b = next; rb = b === limit && rLimit !== null ? rLimit : r(b);
+  }
+  return null;
+}
+
 /** Illinois regula falsi for h(s) = 0 on [lo, hi] with h(lo), h(hi) of opposite signs. */
-function solveRoot(h: (s: number) => number, lo: number, hLo: number, hi: number, hHi: number, tol: number): number | null {
+function solveRoot(h: (s: number) => number, lo: number, hLo: number, hi: number, hHi: number, tol: number, target = 0): number | null {
   if (!(hLo * hHi <= 0)) return null;
   let side = 0;
   for (let it = 0; it < 30; it++) {
     const s = (lo * hHi - hi * hLo) / (hHi - hLo);
-    const hs = h(s);
+    const hs = h(s) - target;
     if (Math.abs(hs) < tol || hi - lo < 1e-5) return s;
     if (hs * hHi > 0) { hi = s; hHi = hs; if (side === -1) hLo /= 2; side = -1; }
     else { lo = s; hLo = hs; if (side === 1) hHi /= 2; side = 1; }

@@ -49,6 +49,8 @@ export interface SpreadFit {
   fit: MixedFit;
   profile: SigmaProfile;
   logLik: number;
+  /** Covariance of ψ̂ from the observed information (when the interval was asked for). */
+  cov: Float64Array | null;
 }
 
 /** Fixed-effect fits of every joint model from per-base starts (as analyse() makes them). */
@@ -73,6 +75,7 @@ export function fixedJointFits(prep: Prepared): JointFits {
  */
 export function fitSpread(
   prep: Prepared, counts: ShopperCounts, joint: JointFits, model: ModelName, interval = true, weights?: ArrayLike<number>,
+  start?: Float64Array,
 ): SpreadFit {
   const d = joint.designs[model];
   const fixed = joint.fits[model];
@@ -80,15 +83,36 @@ export function fitSpread(
   const pooledParams = Float64Array.from(fixed.params);
   const data = mixedData(counts, weights, d.nGamma ? catchCellsOf(d, prep.x.length, prep.bases.length) : undefined);
   const problem = mixedProblem(d, data);
-  const fit = fitMixed(problem, mixedStart(problem, pooledParams, 0.3));
+  let fit = fitMixed(problem, start ?? mixedStart(problem, pooledParams, 0.3));
+  if (start && !fit.converged) {
+    const again = fitMixed(problem, mixedStart(problem, pooledParams, 0.3));
+    if (again.logLik > fit.logLik) fit = again;
+  }
   // ℓ_p(0) is the fixed model's maximum on these shoppers' counts (same cells, same weights)
   const pooled = { params: pooledParams, logLik: pooledLogLik(problem, pooledParams) };
-  const profile: SigmaProfile = interval ? profileSigma(problem, fit, pooled) : {
+  // the Wald SE of σ̂ starts the profile search at about the right place
+  const cov = interval ? mixedCovariance(problem, fit.params) : null;
+  const se = cov ? Math.sqrt(cov[problem.iSigma * problem.nPar + problem.iSigma]) : undefined;
+  const profile: SigmaProfile = interval ? profileSigma(problem, fit, pooled, se) : {
     ci: null, fit, complete: true,
     chi2: Math.max(0, 2 * (fit.logLik - pooled.logLik)),
     p: fit.logLik > pooled.logLik ? 0.5 * chiSquareP(2 * (fit.logLik - pooled.logLik), 1)! : 1,
   };
-  return { model, problem, fit: profile.fit, profile, logLik: profile.fit.logLik + data.logConst };
+  return { model, problem, fit: profile.fit, profile, logLik: profile.fit.logLik + data.logConst, cov: profile.fit === fit ? cov : null };
+}
+
+/** ψ of the free mixed model at a joint model's mixed fit: α per base, then the same ln β, λ, γs and σ. */
+function freeStart(prep: Prepared, pr: MixedProblem, psi: Float64Array): Float64Array {
+  const d = pr.d, p = d.pTheta, J = prep.bases.length;
+  const out = new Float64Array(J + pr.nPar - p);
+  for (let j = 0; j < J; j++) {
+    const i = prep.baseStart[j];
+    let a = d.offset[i];
+    for (let t = 0; t < p; t++) a += d.z[i * p + t] * psi[t];
+    out[j] = a;
+  }
+  out.set(psi.subarray(p), J);
+  return out;
 }
 
 function pooledLogLik(pr: MixedProblem, params: Float64Array): number {
@@ -108,9 +132,10 @@ export function reportShopperSpread(
   const joint = opts.joint ?? fixedJointFits(prep);
   const main = fitSpread(prep, counts, joint, model);
   if (main.problem.data.rows === 0) return null;
-  const others = model === 'free' ? [] : [fitSpread(prep, counts, joint, 'free', false)];
   const pr = main.problem, psi = main.fit.params;
-  const cov = mixedCovariance(pr, psi);
+  // the free model starts where the preferred one ended: its thresholds per base, the same β, λ, γ and σ
+  const others = model === 'free' ? [] : [fitSpread(prep, counts, joint, 'free', false, undefined, freeStart(prep, pr, psi))];
+  const cov = main.cov ?? mixedCovariance(pr, psi);
   const sigma = psi[pr.iSigma];
   const beta = Math.exp(psi[pr.iBeta]);
   const lapse = pr.iLapse >= 0 ? psi[pr.iLapse] : pr.d.lapseFixed!;
