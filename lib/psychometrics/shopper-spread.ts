@@ -75,14 +75,16 @@ export function fixedJointFits(prep: Prepared): JointFits {
  */
 export function fitSpread(
   prep: Prepared, counts: ShopperCounts, joint: JointFits, model: ModelName, interval = true, weights?: ArrayLike<number>,
-  start?: Float64Array,
+  start?: Float64Array, warm?: MixedProblem,
 ): SpreadFit {
   const d = joint.designs[model];
   const fixed = joint.fits[model];
   // ψ starts from the whole fixed fit: θ, ln β, λ and, for the spot task, the γs (fitted with the catch trials)
   const pooledParams = Float64Array.from(fixed.params);
-  const data = mixedData(counts, weights, d.nGamma ? catchCellsOf(d, prep.x.length, prep.bases.length) : undefined);
+  // a second model on the same shoppers reuses their rows and where each row's integrand lay
+  const data = warm?.data ?? mixedData(counts, weights, d.nGamma ? catchCellsOf(d, prep.x.length, prep.bases.length) : undefined);
   const problem = mixedProblem(d, data);
+  if (warm) warmFrom(problem, warm);
   let fit = fitMixed(problem, start ?? mixedStart(problem, pooledParams, 0.3));
   if (start && !fit.converged) {
     const again = fitMixed(problem, mixedStart(problem, pooledParams, 0.3));
@@ -99,6 +101,14 @@ export function fitSpread(
     p: fit.logLik > pooled.logLik ? 0.5 * chiSquareP(2 * (fit.logLik - pooled.logLik), 1)! : 1,
   };
   return { model, problem, fit: profile.fit, profile, logLik: profile.fit.logLik + data.logConst, cov: profile.fit === fit ? cov : null };
+}
+
+/** Carries the rows' integrand centres and widths (and the grid's state) over from another model's problem on the same rows. */
+function warmFrom(pr: MixedProblem, warm: MixedProblem): void {
+  pr.mode.set(warm.mode);
+  pr.scale.set(warm.scale);
+  pr.gridSeen = warm.gridSeen;
+  pr.gridSigma = warm.gridSigma;
 }
 
 /** ψ of the free mixed model at a joint model's mixed fit: α per base, then the same ln β, λ, γs and σ. */
@@ -134,7 +144,7 @@ export function reportShopperSpread(
   if (main.problem.data.rows === 0) return null;
   const pr = main.problem, psi = main.fit.params;
   // the free model starts where the preferred one ended: its thresholds per base, the same β, λ, γ and σ
-  const others = model === 'free' ? [] : [fitSpread(prep, counts, joint, 'free', false, undefined, freeStart(prep, pr, psi))];
+  const others = model === 'free' ? [] : [fitSpread(prep, counts, joint, 'free', false, undefined, freeStart(prep, pr, psi), pr)];
   const cov = main.cov ?? mixedCovariance(pr, psi);
   const sigma = psi[pr.iSigma];
   const beta = Math.exp(psi[pr.iBeta]);
