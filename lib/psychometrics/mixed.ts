@@ -369,7 +369,8 @@ export function mixedLogLik(pr: MixedProblem, psi: ArrayLike<number>, withScores
     if (withScores) {
       const a = d.gammaStart + g;
       grad[a] += GAMMA_PRIOR * (1 / v - 1 / (1 - v));
-      info[a * nPar + a] += 2 * GAMMA_PRIOR / (v * (1 - v));
+      // the penalty's own curvature (exact): near γ = 0 it dominates, and BHHH alone would crawl there
+      info[a * nPar + a] += GAMMA_PRIOR * (1 / (v * v) + 1 / ((1 - v) * (1 - v)));
     }
   }
   return total;

@@ -34,6 +34,7 @@ import type { Interval, ModelName } from './types';
 export const SHARES = [0.5, 0.75, 0.9] as const;
 export const CURVE_POINTS = 40;
 const Z975 = 1.959963984540054;
+const SHARE_METHOD = 'delta method on the ln scale from the observed information';
 
 export interface SpreadOptions {
   /** The report's notice-rate target (undefined: the curve's mid-point, F = 0.5). */
@@ -103,6 +104,24 @@ export function fitSpread(
   return { model, problem, fit: profile.fit, profile, logLik: profile.fit.logLik + data.logConst, cov: profile.fit === fit ? cov : null };
 }
 
+/** The mixed fit's γ per group with a Wald interval on the logit scale (finite even when nobody false-alarmed). */
+function guessRates(prep: Prepared, pr: MixedProblem, psi: Float64Array, cov: Float64Array): NonNullable<ShopperSpreadReport['guess']> {
+  const d = pr.d;
+  const out: NonNullable<ShopperSpreadReport['guess']> = [];
+  for (let g = 0; g < d.nGamma; g++) {
+    const a = d.gammaStart + g, v = psi[a];
+    const sd = Math.sqrt(cov[a * pr.nPar + a]) / (v * (1 - v));
+    const l = Math.log(v / (1 - v));
+    const inv = (x: number) => 1 / (1 + Math.exp(-x));
+    out.push({
+      bases: prep.bases.filter((_, j) => prep.guessGroup[j] === g),
+      value: v,
+      ci: Number.isFinite(sd) && sd > 0 ? [inv(l - Z975 * sd), inv(l + Z975 * sd)] : null,
+    });
+  }
+  return out;
+}
+
 /** Carries the rows' integrand centres and widths (and the grid's state) over from another model's problem on the same rows. */
 function warmFrom(pr: MixedProblem, warm: MixedProblem): void {
   pr.mode.set(warm.mode);
@@ -157,13 +176,16 @@ export function reportShopperSpread(
     sigmaCi: main.profile.ci,
     sigmaMethod:
       `profile likelihood, 95 % (χ²₁ cut-off 3.84), of a mixed model with a normal shopper effect on the ln threshold, ` +
-      `fitted by maximum marginal likelihood with adaptive Gauss–Hermite quadrature (${MIXED_NODES} nodes per shopper); ` +
-      'share-of-shoppers discounts: delta method on the ln scale from the observed information',
+      'fitted by maximum marginal likelihood (each shopper integrated over the effect on one grid shared by all shoppers, ' +
+      `adaptive Gauss–Hermite quadrature from ${MIXED_NODES} nodes for a shopper the grid cannot resolve)` +
+      (prep.guessFromCatch ? ', guess rates fitted with the catch trials in the same likelihood' : '') +
+      `; share-of-shoppers discounts: ${SHARE_METHOD}`,
     logLik: main.logLik,
     converged: main.fit.converged && main.profile.complete,
     slope: beta,
     lapse,
     sigmaTest: { chi2: main.profile.chi2, p: main.profile.p },
+    guess: guessRates(prep, pr, psi, cov),
     fits: [main, ...others].map((f) => ({
       model: f.model, sigma: f.fit.params[f.problem.iSigma], sigmaCi: f.profile.ci, logLik: f.logLik, converged: f.fit.converged,
     })),
