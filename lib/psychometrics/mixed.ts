@@ -54,6 +54,10 @@ export const MIXED_NODES = NODE_LEVELS[0];
 const MAX_GRID = 801;
 /** Share of a row's integral on an outermost node above which the row goes to the grid. */
 const OUTER_SHARE = 5e-4;
+/** BHHH iterations before Newton steps on the observed information take over. */
+const BHHH_ITERATIONS = 15;
+/** Fewer shoppers than this many per parameter and fitMixed takes Newton steps from the start. */
+const NEWTON_SHOPPERS_PER_PARAMETER = 8;
 /** Upper bound for σ (SD of ln thresholds): e^4 ≈ 55-fold between neighbouring SDs is no longer a spread. */
 export const SIGMA_MAX = 4;
 /** χ²₁ 95 % point: the profile-likelihood cut-off for σ's interval. */
@@ -706,8 +710,21 @@ export function fitMixed(
   const sub = new Float64Array(nPar * nPar), subG = new Float64Array(nPar), subX = new Float64Array(nPar), work = new Float64Array(nPar * nPar);
   const step = new Float64Array(nPar), cand = new Float64Array(nPar);
   let converged = false, it = 0;
+  // BHHH's outer products need many more shoppers than parameters to stand in for the
+  // information; with few shoppers, or when BHHH crawls, Newton steps on the observed
+  // information (differences of the analytic score, nPar + 1 evaluations) take over
+  const newtonFrom = pr.data.shoppers < NEWTON_SHOPPERS_PER_PARAMETER * nPar ? 1 : BHHH_ITERATIONS + 1;
   for (it = 1; it <= maxIt; it++) {
-    grad.set(pr.grad); info.set(pr.info);
+    if (it >= newtonFrom) {
+      const H = observedInformation(pr, psi, opts.fixSigma !== undefined);
+      grad.set(pr.grad);
+      // keep the observed information where it is positive definite on the diagonal, else BHHH's
+      let ok = true;
+      for (let j = 0; j < nPar; j++) if (!(H[j * nPar + j] > 0) && !(j === pr.iSigma && opts.fixSigma !== undefined)) ok = false;
+      info.set(ok ? H : pr.info);
+    } else {
+      grad.set(pr.grad); info.set(pr.info);
+    }
     let m = 0;
     for (let j = 0; j < nPar; j++) {
       if (j === pr.iSigma && opts.fixSigma !== undefined) continue;
@@ -760,13 +777,14 @@ export function fitMixed(
  * Observed information −∂²ℓ/∂ψ² by forward differences of the analytic score, symmetrised.
  * σ is included even at 0: ℓ is even in σ, so σ = 0 is an interior point of that function.
  */
-export function observedInformation(pr: MixedProblem, psi: Float64Array): Float64Array {
+export function observedInformation(pr: MixedProblem, psi: Float64Array, skipSigma = false): Float64Array {
   const nPar = pr.nPar;
   mixedLogLik(pr, psi, true);
   const g0 = Float64Array.from(pr.grad);
   const H = new Float64Array(nPar * nPar);
   const p = Float64Array.from(psi);
   for (let j = 0; j < nPar; j++) {
+    if (skipSigma && j === pr.iSigma) continue;
     let h = 1e-5 * Math.max(1, Math.abs(psi[j]));
     if (j !== pr.iSigma && psi[j] + h > pr.upper[j]) h = -h;
     p[j] = psi[j] + h;

@@ -34,13 +34,17 @@ import type { Interval, ModelName } from './types';
 export const SHARES = [0.5, 0.75, 0.9] as const;
 export const CURVE_POINTS = 40;
 const Z975 = 1.959963984540054;
-const SHARE_METHOD = 'delta method on the ln scale from the observed information';
+const SHARE_METHOD = 'delta method on the ln scale from the observed information, critical value √(S/(S − 1))·t(S − 1) for S shoppers';
 
 export interface SpreadOptions {
   /** The report's notice-rate target (undefined: the curve's mid-point, F = 0.5). */
   target?: number;
   /** Fixed-effect fits to start from (analyse() has them); fitted here when absent. */
   joint?: JointFits;
+  /** Also fit the free model beside a preferred joint model (default true). */
+  free?: boolean;
+  /** Search σ's profile interval (default true; false leaves sigmaCi null, as a calibration of the shares needs no σ interval). */
+  sigmaInterval?: boolean;
 }
 
 /** One mixed fit with its σ interval, for the models the report compares. */
@@ -104,6 +108,19 @@ export function fitSpread(
   return { model, problem, fit: profile.fit, profile, logLik: profile.fit.logLik + data.logConst, cov: profile.fit === fit ? cov : null };
 }
 
+/**
+ * Critical value of the share-of-shoppers intervals for S shoppers: √(S/(S − 1))·t₀.₉₇₅(S − 1)
+ * instead of 1.96. The information behind the delta method comes from S independent shoppers,
+ * and with few of them a normal cut-off is too short (the usual small-sample correction for a
+ * mean of S clustered units; common practice, no source): at S = 40 it is 2.05, at S = 10 2.39,
+ * and it tends to 1.96 as S grows. Calibration: tests/calibration/share-of-shoppers.test.ts.
+ */
+export function shareCritical(shoppers: number): number {
+  const S = Math.floor(shoppers);
+  if (!(S >= 2)) return NaN;
+  return Math.sqrt(S / (S - 1)) * jStat.studentt.inv(0.975, S - 1);
+}
+
 /** The mixed fit's γ per group with a Wald interval on the logit scale (finite even when nobody false-alarmed). */
 function guessRates(prep: Prepared, pr: MixedProblem, psi: Float64Array, cov: Float64Array): NonNullable<ShopperSpreadReport['guess']> {
   const d = pr.d;
@@ -159,16 +176,17 @@ export function reportShopperSpread(
   prep: Prepared, counts: ShopperCounts, model: ModelName, opts: SpreadOptions = {},
 ): ShopperSpreadReport | null {
   const joint = opts.joint ?? fixedJointFits(prep);
-  const main = fitSpread(prep, counts, joint, model);
+  const main = fitSpread(prep, counts, joint, model, opts.sigmaInterval !== false);
   if (main.problem.data.rows === 0) return null;
   const pr = main.problem, psi = main.fit.params;
   // the free model starts where the preferred one ended: its thresholds per base, the same β, λ, γ and σ
-  const others = model === 'free' ? [] : [fitSpread(prep, counts, joint, 'free', false, undefined, freeStart(prep, pr, psi), pr)];
+  const others = model === 'free' || opts.free === false ? [] : [fitSpread(prep, counts, joint, 'free', false, undefined, freeStart(prep, pr, psi), pr)];
   const cov = main.cov ?? mixedCovariance(pr, psi);
   const sigma = psi[pr.iSigma];
   const beta = Math.exp(psi[pr.iBeta]);
   const lapse = pr.iLapse >= 0 ? psi[pr.iLapse] : pr.d.lapseFixed!;
-  const bases = prep.bases.map((basePrice, j) => baseSpread(prep, pr, psi, cov, j, basePrice, opts.target, beta, lapse, sigma));
+  const crit = shareCritical(pr.data.shoppers);
+  const bases = prep.bases.map((basePrice, j) => baseSpread(prep, pr, psi, cov, j, basePrice, opts.target, beta, lapse, sigma, crit));
   return {
     model,
     shoppers: pr.data.shoppers,
@@ -195,7 +213,7 @@ export function reportShopperSpread(
 
 function baseSpread(
   prep: Prepared, pr: MixedProblem, psi: Float64Array, cov: Float64Array, j: number, basePrice: number,
-  target: number | undefined, beta: number, lapse: number, sigma: number,
+  target: number | undefined, beta: number, lapse: number, sigma: number, crit: number,
 ): ShopperSpreadReport['bases'][number] {
   const d = pr.d, p = d.pTheta, nPar = pr.nPar;
   const i0 = prep.baseStart[j];
@@ -229,7 +247,7 @@ function baseSpread(
     const bound: ThresholdBound | null = value > hi * (1 + 1e-9) ? { kind: 'above', fraction: hi } : value < lo * (1 - 1e-9) ? { kind: 'below', fraction: lo } : null;
     if (bound) return { share: q, fraction: null, fractionCi: null, bound };
     const sd = Math.sqrt(v);
-    const ci: Interval | null = Number.isFinite(sd) && sd > 0 ? [Math.exp(lnD - Z975 * sd), Math.exp(lnD + Z975 * sd)] : null;
+    const ci: Interval | null = Number.isFinite(sd) && sd > 0 && Number.isFinite(crit) ? [Math.exp(lnD - crit * sd), Math.exp(lnD + crit * sd)] : null;
     return { share: q, fraction: value, fractionCi: ci, bound: null };
   };
   const shares = SHARES.map(share);
