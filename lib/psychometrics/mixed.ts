@@ -3,36 +3,54 @@
 // ln threshold α_s = α(model, base) + σ·z_s with z_s ~ Normal(0, 1), so σ is the SD of
 // shoppers' ln thresholds; given z_s the shopper answers like the fixed model in fit-core.ts:
 //   P_si = γ_i + (1 − γ_i − λ)·F(β(x_i − α_i − σ z_s)),  F logistic, α_i = z_i·θ + offset_i,
-// with the same Design (free, weber, constant amount, power) and the same guess rates γ (the
-// task's, or the catch trials' false-alarm rates, held at their estimates: catch trials do
-// not depend on the shopper's threshold, so they add a constant to the likelihood) and the
-// same lapse bound [0, 0.06]. Parameters ψ = [θ, ln β, λ (unless fixed), σ].
+// with the same Design (free, weber, constant amount, power), the same lapse bound [0, 0.06]
+// and the same guess rates: the task's, or for the spot task γ as parameters fitted with the
+// catch trials in this likelihood (per base, or pooled where a base has fewer than 20 catch
+// trials; prepare.ts), with the fixed models' add-half term, so σ's interval and the shares
+// carry γ's uncertainty and a base with no false alarm still has an interval for γ. Catch
+// trials do not depend on the shopper's threshold, so they sit in each shopper's row as
+// cells whose term is the same at every z. Parameters ψ = [the fixed design's θ, ln β,
+// λ (unless fixed), γ…, then σ], so a fixed fit's parameters start the mixed fit directly.
 //
 // Estimation is by maximum marginal likelihood: each shopper's likelihood is integrated over
-// z_s by adaptive Gauss–Hermite quadrature (Liu & Pierce 1994): the integrand is centred at
-// its mode ẑ_s and scaled by its curvature τ_s = (−g''(ẑ_s))^(−1/2), so that
-//   L_s ≈ √2·τ_s·Σ_q w_q·exp(t_q² + g_s(ẑ_s + √2 τ_s t_q)),   g_s = ln(binomial terms · φ).
-// The number of nodes grows with β·σ·τ (sharper cell transitions across the integrand need
-// more), and a shopper whose integrand puts a visible share on the rule's outermost nodes
-// (a second mode: answers that contradict each other on a steep curve) is integrated on a
-// fine uniform grid instead; together they keep the likelihood within 1e-6 of an independent
-// integration (tests/fixtures/psychometrics/mixed-loglik.json, made by scipy).
+// z_s. Speed (issue 12, point 10: 2,000 shoppers in the benchmark) comes from one shared grid
+// per evaluation: nodes z_q = q·h on [−9, 9] and, per design cell and node, ln P and ln(1 − P)
+// computed once, so a shopper's integrand at a node is a sum of table entries over its cells
+// — no exp or log per shopper. Shoppers shown the same cells (a cell pattern) share the sums
+// with every answer yes and every answer no, so a shopper costs only the cells where its
+// answers differ from the nearer of the two. Each shopper sums only the window of nodes where
+// its integrand lives (its last centre ± 7.5 widths, widened while an end still carries
+// weight). The trapezoid rule on the line is exponentially accurate for smooth integrands:
+// h is at most 0.6/(βσ) (the logistic's poles lie π/(βσ) off the real line) and 0.7 of the
+// narrowest shopper's width, so the error is ~1e-12 relative; a shopper narrower than 1.2·h,
+// or heavy at ±9, is integrated by adaptive Gauss–Hermite quadrature instead (Liu & Pierce
+// 1994): the integrand is centred at its mode ẑ_s and scaled by its curvature
+// τ_s = (−g''(ẑ_s))^(−1/2), so that
+//   L_s ≈ √2·τ_s·Σ_q w_q·exp(t_q² + g_s(ẑ_s + √2 τ_s t_q)),   g_s = ln(binomial terms · φ),
+// with more nodes as β·σ·τ grows and a fine uniform grid for a shopper with a second mode.
+// Both ways are checked within 1e-6 of an independent integration
+// (tests/fixtures/psychometrics/mixed-loglik.json, made by scipy; mixed.test.ts runs each
+// case with and without the shared grid).
 // At σ = 0 the integral is the fixed model's likelihood exactly, so σ = 0 is the pooled fit.
 // Each shopper is a count vector over the prepared cells (shoppers.ts); shoppers with the
-// same counts are integrated once and weighted, and the modes are warm-started between
-// evaluations, so a likelihood costs about (shoppers × cells seen × nodes) logistic terms.
+// same counts are integrated once and weighted.
 //
 // The optimiser is projected BHHH (Berndt–Hall–Hall–Hausman: the sum of outer products of the
 // shoppers' scores stands in for the information, which is natural here because the shopper
-// is the independent unit) with backtracking; a line search that cannot improve is reported
-// as not converged unless the Newton decrement is already negligible. Gradients hold the
-// quadrature nodes fixed (the error of that is of the quadrature's own order). σ's interval
-// is the profile likelihood interval {σ : 2(ℓ̂ − ℓ_p(σ)) ≤ χ²₁(0.95)}, found on the signed
-// root of the deviance, each end started at its Wald guess; it is fast (a few warm-started refits) and,
+// is the independent unit; the γ add-half term enters with its exact curvature) with
+// backtracking. With fewer than 8 shoppers per parameter, or after 15 BHHH steps, Newton
+// steps on the observed information (differences of the analytic score) take over: BHHH
+// needs many shoppers to stand in for the information and otherwise crawls. A line search
+// that cannot improve is reported as not converged unless the Newton decrement is already
+// negligible. Gradients hold the quadrature nodes fixed (the error of that is of the
+// quadrature's own order). σ's interval is the profile likelihood interval
+// {σ : 2(ℓ̂ − ℓ_p(σ)) ≤ χ²₁(0.95)}, found on the signed root of the deviance, each end
+// started at its Wald guess σ̂ ± 1.96·SE; it is fast (a few warm-started refits) and,
 // unlike a Wald interval, behaves at σ = 0 (the lower end is 0 whenever the pooled fit lies
 // within the cut-off). The test of σ = 0 is the likelihood ratio against the pooled fit with
 // the boundary null distribution ½χ²₀ + ½χ²₁ (Self & Liang 1987, value from memory).
-// Tests: tests/unit/psychometrics/mixed.test.ts (reference integrals), shopper-spread.test.ts.
+// Tests: tests/unit/psychometrics/mixed.test.ts (reference integrals), mixed-guess.test.ts
+// (γ), shopper-spread.test.ts; tests/calibration/shopper-spread.test.ts, share-of-shoppers.test.ts.
 import { chiSquareP } from './chi2';
 import { type Design, GAMMA_PRIOR } from './fit-core';
 import { gaussHermite, type GaussHermiteRule } from './gauss-hermite';
