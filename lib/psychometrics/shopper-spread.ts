@@ -9,8 +9,12 @@
 // t_s = exp(α + logit(F)/β + σ z_s), so the share of shoppers who notice d is
 // Φ((ln d − ln t_typical)/σ) and the discount a share q notices is t_typical·exp(σ Φ⁻¹(q)).
 // Intervals for those discounts are Wald intervals on the ln scale from the observed
-// information of the marginal likelihood (delta method); σ's own interval is the profile
-// likelihood one (mixed.ts). A discount past the deepest rung tested at that base is reported
+// information of the marginal likelihood (delta method), with the critical value
+// √(S/(S − 1))·t₀.₉₇₅(S − 1) for S shoppers instead of 1.96 (shareCritical: the information
+// comes from S independent shoppers; with few of them a normal cut-off is short), calibrated
+// in tests/calibration/share-of-shoppers.test.ts; σ's own interval is the profile
+// likelihood one (mixed.ts). For the spot task the guess rates are parameters of the mixed
+// fit (with the catch trials) and are reported with Wald intervals on the logit scale. A discount past the deepest rung tested at that base is reported
 // as a bound ("above the deepest rung") with no number, because nothing in the data measured
 // it; the same below the shallowest rung. The population notice curve (the share of all
 // shoppers who notice d, i.e. the typical curve averaged over the spread) is drawn next to the
