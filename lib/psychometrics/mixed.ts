@@ -229,6 +229,12 @@ interface SharedGrid {
   dd: Float64Array;
   ff: Float64Array;
   tt: Float64Array;
+  /** For a row read against a pattern's reference: ln P − ln(1 − P), u = 1/(P(1 − P)), u·D, u·D·t, u·f. */
+  dl: Float64Array;
+  ud: Float64Array;
+  udd: Float64Array;
+  uddt: Float64Array;
+  udf: Float64Array;
   g: Float64Array;
   post: Float64Array;
   /** Per pattern and node [pat·Q + q]: Σ n·ln P (all yes) and Σ n·ln(1 − P) (all no). */
@@ -252,14 +258,17 @@ const MIN_WIDTH = 1.2;
 
 function emptyGrid(): SharedGrid {
   const e = new Float64Array(0);
-  return { h: 0, Q: 0, half: 0, lp: e, lq: e, uy: e, un: e, dd: e, ff: e, tt: e, g: e, post: e, allYes: e, allNo: e, scoreYes: e, scoreNo: e };
+  return {
+    h: 0, Q: 0, half: 0, lp: e, lq: e, uy: e, un: e, dd: e, ff: e, tt: e, dl: e, ud: e, udd: e, uddt: e, udf: e,
+    g: e, post: e, allYes: e, allNo: e, scoreYes: e, scoreNo: e,
+  };
 }
 
 /** (Re)allocates the grid's tables when they are too small for Q nodes. */
 function sizeGrid(pr: MixedProblem, Q: number): SharedGrid {
   const G = pr.grid, size = Q * pr.d.nCells, P = pr.data.patternRow.length;
   if (G.lp.length < size) {
-    for (const key of ['lp', 'lq', 'uy', 'un', 'dd', 'ff', 'tt'] as const) G[key] = new Float64Array(size);
+    for (const key of ['lp', 'lq', 'uy', 'un', 'dd', 'ff', 'tt', 'dl', 'ud', 'udd', 'uddt', 'udf'] as const) G[key] = new Float64Array(size);
   }
   if (G.g.length < Q) { G.g = new Float64Array(Q); G.post = new Float64Array(Q); }
   if (G.allYes.length < P * Q) {
@@ -434,14 +443,14 @@ function buildGrid(pr: MixedProblem, beta: number, sigma: number, withScores: bo
   pr.gridSigma = sigma;
   const G = sizeGrid(pr, Q);
   G.h = h; G.Q = Q; G.half = half;
-  const { lp, lq, uy, un, dd, ff, tt } = G;
+  const { lp, lq, uy, un, dd, ff, tt, dl, ud, udd, uddt, udf } = G;
   for (let i = 0; i < d.nCells; i++) {
     const o = i * Q, s = height[i], gi = gam[i];
     if (d.isCatch[i]) {
       const P = gi < P_EPS ? P_EPS : gi > 1 - P_EPS ? 1 - P_EPS : gi;
-      lp.fill(Math.log(P), o, o + Q); lq.fill(Math.log(1 - P), o, o + Q);
-      uy.fill(1 / P, o, o + Q); un.fill(-1 / (1 - P), o, o + Q);
-      dd.fill(0, o, o + Q); ff.fill(0, o, o + Q); tt.fill(0, o, o + Q);
+      lp.fill(Math.log(P), o, o + Q); lq.fill(Math.log(1 - P), o, o + Q); dl.fill(Math.log(P) - Math.log(1 - P), o, o + Q);
+      uy.fill(1 / P, o, o + Q); un.fill(-1 / (1 - P), o, o + Q); ud.fill(1 / (P * (1 - P)), o, o + Q);
+      for (const t of [dd, ff, tt, udd, uddt, udf]) t.fill(0, o, o + Q);
       continue;
     }
     const base = beta * (d.x[i] - alpha[i]);
@@ -450,8 +459,10 @@ function buildGrid(pr: MixedProblem, beta: number, sigma: number, withScores: bo
       const f = 1 / (1 + Math.exp(-t));
       let P = gi + s * f;
       P = P < P_EPS ? P_EPS : P > 1 - P_EPS ? 1 - P_EPS : P;
-      lp[o + q] = Math.log(P); lq[o + q] = Math.log(1 - P);
-      uy[o + q] = 1 / P; un[o + q] = -1 / (1 - P); dd[o + q] = s * f * (1 - f); ff[o + q] = f; tt[o + q] = t;
+      const a = Math.log(P), b = Math.log(1 - P), u = 1 / (P * (1 - P)), D = s * f * (1 - f);
+      lp[o + q] = a; lq[o + q] = b; dl[o + q] = a - b;
+      uy[o + q] = 1 / P; un[o + q] = -1 / (1 - P); dd[o + q] = D; ff[o + q] = f; tt[o + q] = t;
+      ud[o + q] = u; udd[o + q] = u * D; uddt[o + q] = u * D * t; udf[o + q] = u * f;
     }
   }
   // the all-yes and all-no references of each pattern
@@ -512,8 +523,8 @@ function gridRow(pr: MixedProblem, G: SharedGrid, r: number, beta: number, withS
         // all yes → this row: (n − k) answers turn to no; all no → this row: k turn to yes
         const m = fromYes ? data.n[c] - data.k[c] : data.k[c];
         if (m === 0) continue;
-        if (fromYes) for (let q = lo; q <= hi; q++) g[q] += m * (lq[o + q] - lp[o + q]);
-        else for (let q = lo; q <= hi; q++) g[q] += m * (lp[o + q] - lq[o + q]);
+        const mm = fromYes ? -m : m, dl = G.dl;
+        for (let q = lo; q <= hi; q++) g[q] += mm * dl[o + q];
       }
     } else {
       for (let q = lo; q <= hi; q++) { const z = (q - half) * h; g[q] = -0.5 * z * z; }
@@ -546,8 +557,8 @@ function gridRow(pr: MixedProblem, G: SharedGrid, r: number, beta: number, withS
     const { uy, un, dd, ff, tt } = G;
     const p = d.pTheta;
     // trim the window to the nodes that carry weight
-    while (lo < hi && post[lo] < 1e-17) lo++;
-    while (hi > lo && post[hi] < 1e-17) hi--;
+    while (lo < hi && post[lo] < 1e-15) lo++;
+    while (hi > lo && post[hi] < 1e-15) hi--;
     score.fill(0);
     if (ref) {
       const sref = fromYes ? G.scoreYes : G.scoreNo;
@@ -556,20 +567,27 @@ function gridRow(pr: MixedProblem, G: SharedGrid, r: number, beta: number, withS
         for (let a = 0; a < nPar; a++) score[a] += wq * sref[so + a];
       }
     }
+    const { ud, udd, uddt, udf } = G;
     for (let c = c0; c < c1; c++) {
       const i = data.cell[c], o = i * Q, k = data.k[c], nk = data.n[c] - k;
-      // weights of ∂P/∂ψ: k/P − (n − k)/(1 − P) in full, or only the change from the reference
-      let wy = k, wn = nk;
+      let a0 = 0, a1 = 0, a2 = 0, a3 = 0, a4 = 0;
       if (ref) {
+        // only the change from the reference: m answers turned, each adding ±(1/P + 1/(1 − P))·∂P/∂ψ
         const m = fromYes ? nk : k;
         if (m === 0) continue;
-        wy = fromYes ? -m : m; wn = -wy;
-      }
-      let a0 = 0, a1 = 0, a2 = 0, a3 = 0, a4 = 0;
-      for (let q = lo; q <= hi; q++) {
-        const om = post[q] * (wy * uy[o + q] + wn * un[o + q]);
-        const od = om * dd[o + q];
-        a0 += om; a1 += od; a2 += od * tt[o + q]; a3 += od * (q - half); a4 += om * ff[o + q];
+        for (let q = lo; q <= hi; q++) {
+          const w = post[q], wd = w * udd[o + q];
+          a0 += w * ud[o + q]; a1 += wd; a2 += w * uddt[o + q]; a3 += wd * (q - half); a4 += w * udf[o + q];
+        }
+        const mm = fromYes ? -m : m;
+        a0 *= mm; a1 *= mm; a2 *= mm; a3 *= mm; a4 *= mm;
+      } else {
+        // weights of ∂P/∂ψ in full: k/P − (n − k)/(1 − P)
+        for (let q = lo; q <= hi; q++) {
+          const om = post[q] * (k * uy[o + q] + nk * un[o + q]);
+          const od = om * dd[o + q];
+          a0 += om; a1 += od; a2 += od * tt[o + q]; a3 += od * (q - half); a4 += om * ff[o + q];
+        }
       }
       for (let j = 0; j < p; j++) score[j] -= beta * a1 * d.z[i * p + j];
       score[p] += a2;
