@@ -53,10 +53,19 @@ function time<T>(fn: () => T): [number, T] {
   return [performance.now() - t, out];
 }
 
+/** Median CPU time of the last medianTime call: less sensitive than wall time to other work on the machine. */
+let lastCpuMs = NaN;
+
 function medianTime<T>(fn: () => T): [number, T] {
-  const times: number[] = [];
+  const times: number[] = [], cpu: number[] = [];
   let out!: T;
-  for (let i = 0; i < RUNS; i++) { const [ms, o] = time(fn); times.push(ms); out = o; }
+  for (let i = 0; i < RUNS; i++) {
+    const c = process.cpuUsage();
+    const [ms, o] = time(fn);
+    const d = process.cpuUsage(c);
+    times.push(ms); cpu.push((d.user + d.system) / 1000); out = o;
+  }
+  lastCpuMs = median(cpu);
   return [median(times), out];
 }
 
@@ -94,6 +103,7 @@ const [cellMs] = medianTime(() => analyse({ ...input, bootstrap: BOOTSTRAP }));
 const shopperCells = simulateShopperCells(observer, BASES, RUNGS, { shoppers: RESPONDENTS, repetitions: 1, sigma: 0.3 }, createRng('bench-shoppers'));
 const shopperTrials = shopperCells.reduce((a, c) => a + c.n, 0);
 const [fullMs, report] = medianTime(() => analyse({ shopperCells, task: 'pick', seed: 1, bootstrap: BOOTSTRAP }));
+const fullCpuMs = lastCpuMs;
 const [withSpreadMs] = medianTime(() => analyse({ shopperCells, task: 'pick', seed: 1, bootstrap: 0 }));
 const [noSpreadMs] = medianTime(() => analyse({ shopperCells, task: 'pick', seed: 1, bootstrap: 0, spread: false }));
 const mixedMs = Math.max(0, withSpreadMs - noSpreadMs);
@@ -111,7 +121,7 @@ console.log(`trials ${trials.length}, cells ${cells.length}, bases ${BASES.lengt
 console.log(`aggregate trials → cells:                       ${f(aggMs)} ms`);
 console.log(`four joint models + per-base fits, no bootstrap: ${f(noBootMs)} ms`);
 console.log(`cells without ids, ${BOOTSTRAP}-sample parametric bootstrap: ${f(cellMs)} ms`);
-console.log(`${RESPONDENTS} shoppers (${shopperTrials} trials), ${BOOTSTRAP}-sample respondent bootstrap and the mixed model: ${f(fullMs)} ms (target ≤ 1,500 ms); ${report.bootstrapFailures?.nonFinite ?? 0} non-finite samples`);
+console.log(`${RESPONDENTS} shoppers (${shopperTrials} trials), ${BOOTSTRAP}-sample respondent bootstrap and the mixed model: ${f(fullMs)} ms (target ≤ 1,500 ms; CPU time ${f(fullCpuMs)} ms); ${report.bootstrapFailures?.nonFinite ?? 0} non-finite samples`);
 console.log(`of which the mixed model (preferred + free, σ interval, shares):  ${f(mixedMs)} ms; σ ${f(spread?.sigma ?? NaN, 3)} [${spread?.sigmaCi?.map((v) => f(v, 3)).join(', ')}] (simulated 0.3)`);
 console.log(`plain logistic per base (engine IRLS):           ${f(plainMs, 3)} ms`);
 console.log(`plain logistic per base (peer: ml-matrix IRLS):  ${f(peerMs, 3)} ms, max relative difference ${maxRel.toExponential(2)}`);
