@@ -72,7 +72,7 @@ describe('results of a seeded study equal the fit CLI on its exported raw trials
     expect(json.about.bootstrapFailures).toMatch(/of 1000 samples non-finite/);
     expect(header).toContain('Threshold bound');
     // the shopper spread travels with the thresholds: shares of shoppers per base, σ in the header block
-    expect(header).toContain('Discount 75 % of shoppers notice (%),Discount 75 % of shoppers notice, 95% low (%)');
+    expect(header).toContain('Discount 75 % of shoppers notice (%),Discount 75 % of shoppers notice 95% low (%)');
     expect(header).toContain('Middle half of shoppers low (%)');
     expect(json.about.shopperSpread).toMatch(/^σ \d\.\d{3} \(95 % interval \d\.\d{3} to \d\.\d{3}\): SD of shoppers' ln thresholds/);
     expect(json.about.shopperSpreadMethod).toMatch(/profile likelihood/);

@@ -96,8 +96,8 @@ function shareColumns(report: AnalysisReport, basePrice: number): Record<string,
   for (const q of SHARE_LABELS) {
     const s = sb?.shares.find((x) => Math.round(x.share * 100) === q);
     out[`Discount ${q} % of shoppers notice (%)`] = round(s?.fraction == null ? null : s.fraction * 100, 4);
-    out[`Discount ${q} % of shoppers notice, 95% low (%)`] = round(s?.fractionCi ? s.fractionCi[0] * 100 : null, 4);
-    out[`Discount ${q} % of shoppers notice, 95% high (%)`] = round(s?.fractionCi ? s.fractionCi[1] * 100 : null, 4);
+    out[`Discount ${q} % of shoppers notice 95% low (%)`] = round(s?.fractionCi ? s.fractionCi[0] * 100 : null, 4);
+    out[`Discount ${q} % of shoppers notice 95% high (%)`] = round(s?.fractionCi ? s.fractionCi[1] * 100 : null, 4);
     if (s?.bound) bounds.push(`${q} %: ${boundText(s.bound)}`);
   }
   out['Shares of shoppers bound'] = bounds.join('; ');
