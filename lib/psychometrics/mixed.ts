@@ -22,7 +22,7 @@
 // its integrand lives (its last centre ± 7.5 widths, widened while an end still carries
 // weight). The trapezoid rule on the line is exponentially accurate for smooth integrands:
 // h is at most 0.6/(βσ) (the logistic's poles lie π/(βσ) off the real line) and 0.7 of the
-// narrowest shopper's width, so the error is ~1e-12 relative; a shopper narrower than 1.2·h,
+// narrowest shoppers' width (2nd percentile), so the error is ~1e-12 relative; a shopper narrower than 1.2·h,
 // or heavy at ±9, is integrated by adaptive Gauss–Hermite quadrature instead (Liu & Pierce
 // 1994): the integrand is centred at its mode ẑ_s and scaled by its curvature
 // τ_s = (−g''(ẑ_s))^(−1/2), so that
@@ -255,6 +255,8 @@ const TAIL_SHARE = 1e-11;
 const WINDOW = 7.5;
 /** Narrowest integrand, in grid steps, the grid integrates; narrower rows go to the adaptive rule. */
 const MIN_WIDTH = 1.2;
+/** Quantile of the rows' widths that sets the grid's step. */
+const NARROW_QUANTILE = 0.02;
 
 function emptyGrid(): SharedGrid {
   const e = new Float64Array(0);
@@ -414,7 +416,7 @@ export function mixedLogLik(pr: MixedProblem, psi: ArrayLike<number>, withScores
  * trapezoid rule's error is about exp(−2π²/(βσh)) ≈ 1e-14 at h = 0.6/(βσ)), and the width of
  * the narrowest shopper's integrand: on the first evaluation its bound
  * (1 + (βσ)²·n_max/4)^(−1/2) for n_max trials (each trial adds at most (βσ)²/4 to the
- * curvature in z), afterwards the narrowest width actually seen. A row whose own width comes
+ * curvature in z), afterwards the narrowest widths actually seen (2nd percentile). A row whose own width comes
  * out below MIN_WIDTH·h is integrated adaptively instead (gridRow), so the width is checked, not trusted.
  */
 function buildGrid(pr: MixedProblem, beta: number, sigma: number, withScores: boolean): SharedGrid | null {
@@ -422,9 +424,11 @@ function buildGrid(pr: MixedProblem, beta: number, sigma: number, withScores: bo
   const bs = beta * sigma;
   let width: number;
   if (pr.gridSeen) {
-    // 0.7 of the narrowest row, so that a row may narrow by a sixth before it leaves the grid
-    let narrowest = Infinity;
-    for (let r = 0; r < data.rows; r++) if (pr.scale[r] < narrowest) narrowest = pr.scale[r];
+    // 0.7 of the narrowest rows (the 2nd percentile of widths: one shopper with far more trials
+    // than the rest goes adaptive rather than making the grid fine for everyone), so that a row
+    // may narrow by a sixth before it leaves the grid
+    const widths = Float64Array.from(pr.scale).sort();
+    const narrowest = widths[Math.floor(NARROW_QUANTILE * (widths.length - 1))];
     // a larger σ narrows the rows in z about in proportion (their width in ln threshold stays)
     width = 0.7 * narrowest * Math.min(1, pr.gridSigma / sigma);
   } else {
