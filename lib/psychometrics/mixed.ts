@@ -343,12 +343,12 @@ export function mixedLogLik(pr: MixedProblem, psi: ArrayLike<number>, withScores
     if (sigma <= 0) {
       // σ = 0: the shopper's likelihood is the fixed model's; ∂/∂σ is 0 by symmetry in z.
       ls = 0;
-      for (let c = c0; c < c1; c++) ls += cellTerm(pr, c, 0, beta, lapse, 0, withScores ? score : null);
+      for (let c = c0; c < c1; c++) ls += cellTerm(pr, c, 0, beta, 0, withScores ? score : null);
     } else if (grid && !Number.isNaN(ls = gridRow(pr, grid, r, beta, withScores))) {
       pr.shared++;
     } else {
       pr.adaptive++;
-      const g2 = findMode(pr, r, beta, lapse, sigma);
+      const g2 = findMode(pr, r, beta, sigma);
       const z = pr.mode[r];
       const tau = 1 / Math.sqrt(-g2);
       pr.scale[r] = tau;
@@ -363,7 +363,7 @@ export function mixedLogLik(pr: MixedProblem, psi: ArrayLike<number>, withScores
         nodeZ[q] = z + spread * tq;
         nodeW[q] = rule.logWeights[q] + tq * tq + logSpread;
       }
-      ls = rowIntegral(pr, r, Q, beta, lapse, sigma, withScores);
+      ls = rowIntegral(pr, r, Q, beta, sigma, withScores);
       // A normal-shaped integrand puts almost nothing on the rule's outermost nodes (the
       // Gaussian share there is w/√π, below 3e-5 for 9 nodes). Much more there means the
       // integrand reaches past the rule (a second mode: answers that contradict each other on
@@ -380,7 +380,7 @@ export function mixedLogLik(pr: MixedProblem, psi: ArrayLike<number>, withScores
         if (count > MAX_GRID) { count = MAX_GRID; h = (hi - lo) / (count - 1); }
         const lh = Math.log(h);
         for (let q = 0; q < count; q++) { nodeZ[q] = lo + q * h; nodeW[q] = lh; }
-        ls = rowIntegral(pr, r, count, beta, lapse, sigma, withScores);
+        ls = rowIntegral(pr, r, count, beta, sigma, withScores);
         pr.fallbacks++;
       }
     }
@@ -610,7 +610,7 @@ function gridRow(pr: MixedProblem, G: SharedGrid, r: number, beta: number, withS
  * the row's score (node scores averaged with the integrand's weights) into pr.score.
  * pr.nodeLog[q] is left holding node q's share of the integral.
  */
-function rowIntegral(pr: MixedProblem, r: number, count: number, beta: number, lapse: number, sigma: number, withScores: boolean): number {
+function rowIntegral(pr: MixedProblem, r: number, count: number, beta: number, sigma: number, withScores: boolean): number {
   const { data, nPar, nodeGrad, nodeLog, nodeZ, nodeW, score } = pr;
   const c0 = data.start[r], c1 = data.start[r + 1];
   let mx = -Infinity;
@@ -619,7 +619,7 @@ function rowIntegral(pr: MixedProblem, r: number, count: number, beta: number, l
     let g = -0.5 * zq * zq - LN_SQRT_2PI;
     const ng = withScores ? nodeGrad.subarray(q * nPar, (q + 1) * nPar) : null;
     if (ng) ng.fill(0);
-    for (let c = c0; c < c1; c++) g += cellTerm(pr, c, zq, beta, lapse, sigma, ng);
+    for (let c = c0; c < c1; c++) g += cellTerm(pr, c, zq, beta, sigma, ng);
     nodeLog[q] = nodeW[q] + g;
     if (nodeLog[q] > mx) mx = nodeLog[q];
   }
@@ -669,7 +669,7 @@ function modeTerms(pr: MixedProblem, r: number, z: number, beta: number, sigma: 
  * continuously as ψ moves; sets pr.mode[r] and returns the curvature g''(ẑ) (< 0; the
  * expected-information value where the exact one is not negative).
  */
-function findMode(pr: MixedProblem, r: number, beta: number, _lapse: number, sigma: number): number {
+function findMode(pr: MixedProblem, r: number, beta: number, sigma: number): number {
   let z = pr.mode[r];
   modeTerms(pr, r, z, beta, sigma);
   let [g, g1, g2, fisher] = modeState;
@@ -695,7 +695,7 @@ function findMode(pr: MixedProblem, r: number, beta: number, _lapse: number, sig
 
 /** One cell's binomial log term at shopper effect z; adds ∂/∂ψ into g when given. */
 function cellTerm(
-  pr: MixedProblem, c: number, z: number, beta: number, _lapse: number, sigma: number, g: Float64Array | null,
+  pr: MixedProblem, c: number, z: number, beta: number, sigma: number, g: Float64Array | null,
 ): number {
   const { d, data, alpha, gam, height } = pr;
   const i = data.cell[c], n = data.n[c], k = data.k[c];
