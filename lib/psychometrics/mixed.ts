@@ -871,13 +871,13 @@ export interface SigmaProfile {
 /**
  * Profile-likelihood interval for σ at level 95 %: the σ values whose profile deviance
  * 2(ℓ̂ − ℓ_p(σ)) stays under χ²₁(0.95). The signed root r(σ) = ±√(2(ℓ̂ − ℓ_p(σ))) is close
- * to linear in σ, so each end is searched from its Wald guess σ̂ ± 1.96·SE (`waldSe`, from the
- * observed information) by secant steps and regula falsi (profileEnd): one or two refits per
+ * to linear in σ, so each end is searched from its Wald guess σ̂ ± 1.96·SE (from `cov`, the
+ * observed information's inverse at the optimum) by secant steps and regula falsi (profileEnd): one or two refits per
  * end where a blind search took five or more. `pooled` is ℓ_p(0), the fixed model's maximum
  * (without constant).
  */
 export function profileSigma(
-  pr: MixedProblem, best: MixedFit, pooled: { params: ArrayLike<number>; logLik: number }, waldSe?: number,
+  pr: MixedProblem, best: MixedFit, pooled: { params: ArrayLike<number>; logLik: number }, cov?: Float64Array | null,
 ): SigmaProfile {
   let fit = best;
   const iS = pr.iSigma;
@@ -892,14 +892,28 @@ export function profileSigma(
   const p = chi2 <= 0 ? 1 : 0.5 * chiSquareP(chi2, 1)!;
   const crit = Math.sqrt(CHI2_1_95);
   const profileTol = 1e-4;
-  // each refit starts from the nearest one before it
-  let from = Float64Array.from(fit.params);
+  // Each refit starts from the one before it, moved along the other parameters' regression on
+  // σ (cov[·, σ]/var σ from the observed information: where the conditional optimum moves as σ
+  // is held elsewhere), so it starts close to its optimum.
+  const nPar = pr.nPar;
+  const varS = cov ? cov[iS * nPar + iS] : NaN;
+  const slope = new Float64Array(nPar);
+  if (cov && varS > 0) for (let j = 0; j < nPar; j++) if (j !== iS && Number.isFinite(cov[j * nPar + iS])) slope[j] = cov[j * nPar + iS] / varS;
+  let from = Float64Array.from(fit.params), fromSigma = sHat;
+  const start = new Float64Array(nPar);
   const r = (sigma: number) => {
-    const f = fitMixed(pr, from, { fixSigma: sigma, tol: profileTol });
-    from = Float64Array.from(f.params);
+    for (let j = 0; j < nPar; j++) start[j] = from[j] + slope[j] * (sigma - fromSigma);
+    project(pr, start);
+    let f = fitMixed(pr, start, { fixSigma: sigma, tol: profileTol });
+    if (!f.converged) {
+      const plain = fitMixed(pr, from, { fixSigma: sigma, tol: profileTol });
+      if (plain.logLik > f.logLik) f = plain;
+    }
+    from = Float64Array.from(f.params); fromSigma = sigma;
     return Math.sign(sigma - sHat) * Math.sqrt(Math.max(0, 2 * (lhat - f.logLik)));
   };
-  const step = waldSe !== undefined && Number.isFinite(waldSe) && waldSe > 0 ? crit * waldSe : Math.max(0.1, 0.5 * sHat);
+  const waldSe = Math.sqrt(varS);
+  const step = Number.isFinite(waldSe) && waldSe > 0 ? crit * waldSe : Math.max(0.1, 0.5 * sHat);
   let complete = true;
   // lower end: 0 unless σ = 0 lies outside the interval
   let lowerEnd = 0;
@@ -907,7 +921,7 @@ export function profileSigma(
     const e = profileEnd(r, sHat, -crit, Math.max(0, sHat - step), 0, -Math.sqrt(chi2));
     if (e === null) complete = false; else lowerEnd = e;
   }
-  from = Float64Array.from(fit.params);
+  from = Float64Array.from(fit.params); fromSigma = sHat;
   const upperEnd = profileEnd(r, sHat, crit, Math.min(SIGMA_MAX, sHat + step), SIGMA_MAX, null);
   if (upperEnd === null) complete = false;
   return { ci: complete ? [lowerEnd, upperEnd!] : null, chi2, p, fit, complete };

@@ -101,10 +101,9 @@ export function fitSpread(
   }
   // ℓ_p(0) is the fixed model's maximum on these shoppers' counts (same cells, same weights)
   const pooled = { params: pooledParams, logLik: pooledLogLik(problem, pooledParams) };
-  // the Wald SE of σ̂ starts the profile search at about the right place
+  // the observed information starts the profile search at about the right place (Wald ends, regression on σ)
   const cov = interval ? mixedCovariance(problem, fit.params) : null;
-  const se = cov ? Math.sqrt(cov[problem.iSigma * problem.nPar + problem.iSigma]) : undefined;
-  const profile: SigmaProfile = interval ? profileSigma(problem, fit, pooled, se) : {
+  const profile: SigmaProfile = interval ? profileSigma(problem, fit, pooled, cov) : {
     ci: null, fit, complete: true,
     chi2: Math.max(0, 2 * (fit.logLik - pooled.logLik)),
     p: fit.logLik > pooled.logLik ? 0.5 * chiSquareP(2 * (fit.logLik - pooled.logLik), 1)! : 1,
