@@ -125,41 +125,93 @@ export function drawShoppers(S: number, rng: Rng, w: Float64Array): void {
 }
 
 /**
- * Each shopper's counts packed into one contiguous row [n (test cells, then catch cells),
- * k (same)], so a respondent-level sample is one weighted sum of rows (a matrix–vector
- * product) in a tight loop.
+ * Shoppers' counts packed for the respondent-level sample, sparsely: the trial counts N of a
+ * shopper are one of a few cell patterns (shoppers shown the same design have the same N), so
+ * N* is Σ over patterns of (weight drawn in the pattern) × pattern; the "yes" counts K are
+ * kept as (cell, k) pairs for the cells where the shopper said yes at least once, or, when
+ * the shopper said no in fewer cells, as (cell, −no) pairs on top of the pattern's N. A sample
+ * then costs one pass over the drawn shoppers' shorter lists instead of a dense row each.
+ * Sample layout: N* = acc[0 … half), K* = acc[half … 2·half), half = m + J.
  */
-export function packShoppers(e: Engine, sc: ShopperCounts): { rows: Float64Array; width: number } {
+export interface PackedShoppers {
+  width: number;
+  /** Pattern of each shopper and the patterns' N rows (pattern p at [p·half …]). */
+  pattern: Int32Array;
+  patternN: Float64Array;
+  patterns: number;
+  /** 1 for a pattern whose shoppers list their no counts (negative kVal): K* also gets the pattern's n. */
+  complement: Uint8Array;
+  /** Shopper s's yes counts (or minus its no counts): kIdx/kVal[kStart[s] … kStart[s + 1]). */
+  kStart: Int32Array;
+  kIdx: Int32Array;
+  kVal: Float64Array;
+  /** Scratch: weight drawn per pattern. */
+  patternWeight: Float64Array;
+}
+
+export function packShoppers(e: Engine, sc: ShopperCounts): PackedShoppers {
   const { m, J } = e;
-  const half = m + J, width = 2 * half, S = sc.ids.length;
-  const rows = new Float64Array(S * width);
+  const half = m + J, S = sc.ids.length;
+  const nRow = new Float64Array(half);
+  const byKey = new Map<string, number>();
+  const pattern = new Int32Array(S), patternN: number[] = [];
+  const kStart = new Int32Array(S + 1), kIdx: number[] = [], kVal: number[] = [], complementOf: number[] = [];
   for (let s = 0; s < S; s++) {
-    const o = s * width;
-    for (let i = 0; i < m; i++) { rows[o + i] = sc.n[s * m + i]; rows[o + half + i] = sc.k[s * m + i]; }
-    for (let j = 0; j < J; j++) { rows[o + m + j] = sc.catchN[s * J + j]; rows[o + half + m + j] = sc.catchK[s * J + j]; }
+    for (let i = 0; i < m; i++) nRow[i] = sc.n[s * m + i];
+    for (let j = 0; j < J; j++) nRow[m + j] = sc.catchN[s * J + j];
+    // keep the shorter list: the cells with a yes (k), or those with a no (k = n − no, the
+    // pattern's n added to K* and the no counts taken off)
+    let yes = 0, no = 0;
+    for (let i = 0; i < half; i++) {
+      const k = i < m ? sc.k[s * m + i] : sc.catchK[s * J + i - m];
+      if (k > 0) yes++;
+      if (nRow[i] - k > 0) no++;
+    }
+    const complement = no < yes;
+    const key = `${complement ? 'c' : 'k'}${nRow.join(',')}`;
+    let p = byKey.get(key);
+    if (p === undefined) { p = byKey.size; byKey.set(key, p); patternN.push(...nRow); complementOf.push(complement ? 1 : 0); }
+    pattern[s] = p;
+    for (let i = 0; i < half; i++) {
+      const k = i < m ? sc.k[s * m + i] : sc.catchK[s * J + i - m];
+      if (complement) { if (nRow[i] - k > 0) { kIdx.push(i); kVal.push(-(nRow[i] - k)); } }
+      else if (k > 0) { kIdx.push(i); kVal.push(k); }
+    }
+    kStart[s + 1] = kIdx.length;
   }
-  return { rows, width };
+  return {
+    width: 2 * half, pattern, patternN: Float64Array.from(patternN), patterns: byKey.size, complement: Uint8Array.from(complementOf),
+    kStart, kIdx: Int32Array.from(kIdx), kVal: Float64Array.from(kVal), patternWeight: new Float64Array(byKey.size),
+  };
 }
 
 /**
  * Respondent-level sample into `acc` (length width; N* = acc[0 … m + J), K* = the rest):
- * Σ_s w_s · (shopper s's row), then the degenerate-γ redraw described in the header for catch
- * cells whose γ group saw no variation.
+ * Σ_s w_s · (shopper s's counts), then the degenerate-γ redraw described in the header for
+ * catch cells whose γ group saw no variation.
  */
 export function shopperSample(
-  e: Engine, packed: { rows: Float64Array; width: number }, w: Float64Array, rng: Rng, acc: Float64Array,
+  e: Engine, packed: PackedShoppers, w: Float64Array, rng: Rng, acc: Float64Array,
   degenerate: { rate: Float64Array; flag: Uint8Array },
 ): void {
   const { m, J } = e;
-  const { rows, width } = packed;
+  const { width, pattern, patternN, patternWeight, kStart, kIdx, kVal } = packed;
   const half = width / 2;
   acc.fill(0);
+  patternWeight.fill(0);
   const S = w.length;
   for (let s = 0; s < S; s++) {
     const ws = w[s];
     if (ws === 0) continue;
-    const o = s * width;
-    for (let i = 0; i < width; i++) acc[i] += ws * rows[o + i];
+    patternWeight[pattern[s]] += ws;
+    for (let c = kStart[s]; c < kStart[s + 1]; c++) acc[half + kIdx[c]] += ws * kVal[c];
+  }
+  for (let p = 0; p < packed.patterns; p++) {
+    const wp = patternWeight[p];
+    if (wp === 0) continue;
+    const o = p * half;
+    for (let i = 0; i < half; i++) acc[i] += wp * patternN[o + i];
+    if (packed.complement[p]) for (let i = 0; i < half; i++) acc[half + i] += wp * patternN[o + i];
   }
   for (let j = 0; j < J; j++) if (degenerate.flag[j]) acc[half + m + j] = rng.binomial(acc[m + j], degenerate.rate[j]);
 }

@@ -33,7 +33,7 @@ export const GUESS_MIN = 1e-6;
 export const GUESS_MAX = 0.9;
 const P_EPS = 1e-12;
 /** Weight of each γ's add-half term (½ false alarm + ½ correct rejection). */
-const GAMMA_PRIOR = 0.5;
+export const GAMMA_PRIOR = 0.5;
 
 export interface Design {
   nCells: number;

@@ -167,6 +167,12 @@ export interface ShopperSpreadReport {
   lapse?: number;
   /** Likelihood-ratio test of σ = 0 (the pooled fit) with the boundary null ½χ²₀ + ½χ²₁. */
   sigmaTest?: { chi2: number; p: number };
+  /**
+   * Spot task: the guess rates γ fitted in the mixed likelihood with the catch trials, one per
+   * γ group (a base with enough catch trials, or the bases that share one), with a 95 % Wald
+   * interval on the logit scale from the observed information. Empty for pick and trip.
+   */
+  guess?: { bases: number[]; value: number; ci: Interval | null }[];
   /** σ for each model fitted: the preferred one first, then the free model (σ and fit only, no interval). */
   fits?: { model: ModelName; sigma: number; sigmaCi: Interval | null; logLik: number; converged: boolean }[];
   bases: {

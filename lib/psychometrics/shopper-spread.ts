@@ -9,8 +9,12 @@
 // t_s = exp(α + logit(F)/β + σ z_s), so the share of shoppers who notice d is
 // Φ((ln d − ln t_typical)/σ) and the discount a share q notices is t_typical·exp(σ Φ⁻¹(q)).
 // Intervals for those discounts are Wald intervals on the ln scale from the observed
-// information of the marginal likelihood (delta method); σ's own interval is the profile
-// likelihood one (mixed.ts). A discount past the deepest rung tested at that base is reported
+// information of the marginal likelihood (delta method), with the critical value
+// √(S/(S − 1))·t₀.₉₇₅(S − 1) for S shoppers instead of 1.96 (shareCritical: the information
+// comes from S independent shoppers; with few of them a normal cut-off is short), calibrated
+// in tests/calibration/share-of-shoppers.test.ts; σ's own interval is the profile
+// likelihood one (mixed.ts). For the spot task the guess rates are parameters of the mixed
+// fit (with the catch trials) and are reported with Wald intervals on the logit scale. A discount past the deepest rung tested at that base is reported
 // as a bound ("above the deepest rung") with no number, because nothing in the data measured
 // it; the same below the shallowest rung. The population notice curve (the share of all
 // shoppers who notice d, i.e. the typical curve averaged over the spread) is drawn next to the
@@ -22,7 +26,7 @@ import { chiSquareP } from './chi2';
 import { fitDesign } from './fit-core';
 import { normalExpectation } from './gauss-hermite';
 import {
-  fitMixed, type MixedFit, mixedCovariance, mixedData, type MixedProblem, mixedProblem, mixedStart, MIXED_NODES, profileSigma, type SigmaProfile,
+  catchCellsOf, fitMixed, type MixedFit, mixedCovariance, mixedData, type MixedProblem, mixedProblem, mixedStart, MIXED_NODES, profileSigma, type SigmaProfile,
 } from './mixed';
 import { baseDesign, fitJointModels, type JointFits, packStart, startForBase } from './models';
 import type { Prepared } from './prepare';
@@ -34,12 +38,17 @@ import type { Interval, ModelName } from './types';
 export const SHARES = [0.5, 0.75, 0.9] as const;
 export const CURVE_POINTS = 40;
 const Z975 = 1.959963984540054;
+const SHARE_METHOD = 'delta method on the ln scale from the observed information, critical value √(S/(S − 1))·t(S − 1) for S shoppers';
 
 export interface SpreadOptions {
   /** The report's notice-rate target (undefined: the curve's mid-point, F = 0.5). */
   target?: number;
   /** Fixed-effect fits to start from (analyse() has them); fitted here when absent. */
   joint?: JointFits;
+  /** Also fit the free model beside a preferred joint model (default true). */
+  free?: boolean;
+  /** Search σ's profile interval (default true; false leaves sigmaCi null, as a calibration of the shares needs no σ interval). */
+  sigmaInterval?: boolean;
 }
 
 /** One mixed fit with its σ interval, for the models the report compares. */
@@ -49,6 +58,8 @@ export interface SpreadFit {
   fit: MixedFit;
   profile: SigmaProfile;
   logLik: number;
+  /** Covariance of ψ̂ from the observed information (when the interval was asked for). */
+  cov: Float64Array | null;
 }
 
 /** Fixed-effect fits of every joint model from per-base starts (as analyse() makes them). */
@@ -73,21 +84,84 @@ export function fixedJointFits(prep: Prepared): JointFits {
  */
 export function fitSpread(
   prep: Prepared, counts: ShopperCounts, joint: JointFits, model: ModelName, interval = true, weights?: ArrayLike<number>,
+  start?: Float64Array, warm?: MixedProblem,
 ): SpreadFit {
   const d = joint.designs[model];
   const fixed = joint.fits[model];
-  const pooledParams = Float64Array.from(fixed.params.subarray(0, d.pTheta + 1 + (d.lapseFixed === null ? 1 : 0)));
-  const data = mixedData(counts, weights);
+  // ψ starts from the whole fixed fit: θ, ln β, λ and, for the spot task, the γs (fitted with the catch trials)
+  const pooledParams = Float64Array.from(fixed.params);
+  // a second model on the same shoppers reuses their rows and where each row's integrand lay
+  const data = warm?.data ?? mixedData(counts, weights, d.nGamma ? catchCellsOf(d, prep.x.length, prep.bases.length) : undefined);
   const problem = mixedProblem(d, data);
-  const fit = fitMixed(problem, mixedStart(problem, pooledParams, 0.3));
+  if (warm) warmFrom(problem, warm);
+  let fit = fitMixed(problem, start ?? mixedStart(problem, pooledParams, 0.3));
+  if (start && !fit.converged) {
+    const again = fitMixed(problem, mixedStart(problem, pooledParams, 0.3));
+    if (again.logLik > fit.logLik) fit = again;
+  }
   // ℓ_p(0) is the fixed model's maximum on these shoppers' counts (same cells, same weights)
   const pooled = { params: pooledParams, logLik: pooledLogLik(problem, pooledParams) };
-  const profile: SigmaProfile = interval ? profileSigma(problem, fit, pooled) : {
+  // the observed information starts the profile search at about the right place (Wald ends, regression on σ)
+  const cov = interval ? mixedCovariance(problem, fit.params) : null;
+  const profile: SigmaProfile = interval ? profileSigma(problem, fit, pooled, cov) : {
     ci: null, fit, complete: true,
     chi2: Math.max(0, 2 * (fit.logLik - pooled.logLik)),
     p: fit.logLik > pooled.logLik ? 0.5 * chiSquareP(2 * (fit.logLik - pooled.logLik), 1)! : 1,
   };
-  return { model, problem, fit: profile.fit, profile, logLik: profile.fit.logLik + data.logConst };
+  return { model, problem, fit: profile.fit, profile, logLik: profile.fit.logLik + data.logConst, cov: profile.fit === fit ? cov : null };
+}
+
+/**
+ * Critical value of the share-of-shoppers intervals for S shoppers: √(S/(S − 1))·t₀.₉₇₅(S − 1)
+ * instead of 1.96. The information behind the delta method comes from S independent shoppers,
+ * and with few of them a normal cut-off is too short (the usual small-sample correction for a
+ * mean of S clustered units; common practice, no source): at S = 40 it is 2.05, at S = 10 2.39,
+ * and it tends to 1.96 as S grows. Calibration: tests/calibration/share-of-shoppers.test.ts.
+ */
+export function shareCritical(shoppers: number): number {
+  const S = Math.floor(shoppers);
+  if (!(S >= 2)) return NaN;
+  return Math.sqrt(S / (S - 1)) * jStat.studentt.inv(0.975, S - 1);
+}
+
+/** The mixed fit's γ per group with a Wald interval on the logit scale (finite even when nobody false-alarmed). */
+function guessRates(prep: Prepared, pr: MixedProblem, psi: Float64Array, cov: Float64Array): NonNullable<ShopperSpreadReport['guess']> {
+  const d = pr.d;
+  const out: NonNullable<ShopperSpreadReport['guess']> = [];
+  for (let g = 0; g < d.nGamma; g++) {
+    const a = d.gammaStart + g, v = psi[a];
+    const sd = Math.sqrt(cov[a * pr.nPar + a]) / (v * (1 - v));
+    const l = Math.log(v / (1 - v));
+    const inv = (x: number) => 1 / (1 + Math.exp(-x));
+    out.push({
+      bases: prep.bases.filter((_, j) => prep.guessGroup[j] === g),
+      value: v,
+      ci: Number.isFinite(sd) && sd > 0 ? [inv(l - Z975 * sd), inv(l + Z975 * sd)] : null,
+    });
+  }
+  return out;
+}
+
+/** Carries the rows' integrand centres and widths (and the grid's state) over from another model's problem on the same rows. */
+function warmFrom(pr: MixedProblem, warm: MixedProblem): void {
+  pr.mode.set(warm.mode);
+  pr.scale.set(warm.scale);
+  pr.gridSeen = warm.gridSeen;
+  pr.gridSigma = warm.gridSigma;
+}
+
+/** ψ of the free mixed model at a joint model's mixed fit: α per base, then the same ln β, λ, γs and σ. */
+function freeStart(prep: Prepared, pr: MixedProblem, psi: Float64Array): Float64Array {
+  const d = pr.d, p = d.pTheta, J = prep.bases.length;
+  const out = new Float64Array(J + pr.nPar - p);
+  for (let j = 0; j < J; j++) {
+    const i = prep.baseStart[j];
+    let a = d.offset[i];
+    for (let t = 0; t < p; t++) a += d.z[i * p + t] * psi[t];
+    out[j] = a;
+  }
+  out.set(psi.subarray(p), J);
+  return out;
 }
 
 function pooledLogLik(pr: MixedProblem, params: Float64Array): number {
@@ -105,15 +179,17 @@ export function reportShopperSpread(
   prep: Prepared, counts: ShopperCounts, model: ModelName, opts: SpreadOptions = {},
 ): ShopperSpreadReport | null {
   const joint = opts.joint ?? fixedJointFits(prep);
-  const main = fitSpread(prep, counts, joint, model);
+  const main = fitSpread(prep, counts, joint, model, opts.sigmaInterval !== false);
   if (main.problem.data.rows === 0) return null;
-  const others = model === 'free' ? [] : [fitSpread(prep, counts, joint, 'free', false)];
   const pr = main.problem, psi = main.fit.params;
-  const cov = mixedCovariance(pr, psi);
+  // the free model starts where the preferred one ended: its thresholds per base, the same β, λ, γ and σ
+  const others = model === 'free' || opts.free === false ? [] : [fitSpread(prep, counts, joint, 'free', false, undefined, freeStart(prep, pr, psi), pr)];
+  const cov = main.cov ?? mixedCovariance(pr, psi);
   const sigma = psi[pr.iSigma];
   const beta = Math.exp(psi[pr.iBeta]);
   const lapse = pr.iLapse >= 0 ? psi[pr.iLapse] : pr.d.lapseFixed!;
-  const bases = prep.bases.map((basePrice, j) => baseSpread(prep, pr, psi, cov, j, basePrice, opts.target, beta, lapse, sigma));
+  const crit = shareCritical(pr.data.shoppers);
+  const bases = prep.bases.map((basePrice, j) => baseSpread(prep, pr, psi, cov, j, basePrice, opts.target, beta, lapse, sigma, crit));
   return {
     model,
     shoppers: pr.data.shoppers,
@@ -121,13 +197,16 @@ export function reportShopperSpread(
     sigmaCi: main.profile.ci,
     sigmaMethod:
       `profile likelihood, 95 % (χ²₁ cut-off 3.84), of a mixed model with a normal shopper effect on the ln threshold, ` +
-      `fitted by maximum marginal likelihood with adaptive Gauss–Hermite quadrature (${MIXED_NODES} nodes per shopper); ` +
-      'share-of-shoppers discounts: delta method on the ln scale from the observed information',
+      'fitted by maximum marginal likelihood (each shopper integrated over the effect on one grid shared by all shoppers, ' +
+      `adaptive Gauss–Hermite quadrature from ${MIXED_NODES} nodes for a shopper the grid cannot resolve)` +
+      (prep.guessFromCatch ? ', guess rates fitted with the catch trials in the same likelihood' : '') +
+      `; share-of-shoppers discounts: ${SHARE_METHOD}`,
     logLik: main.logLik,
     converged: main.fit.converged && main.profile.complete,
     slope: beta,
     lapse,
     sigmaTest: { chi2: main.profile.chi2, p: main.profile.p },
+    guess: guessRates(prep, pr, psi, cov),
     fits: [main, ...others].map((f) => ({
       model: f.model, sigma: f.fit.params[f.problem.iSigma], sigmaCi: f.profile.ci, logLik: f.logLik, converged: f.fit.converged,
     })),
@@ -137,7 +216,7 @@ export function reportShopperSpread(
 
 function baseSpread(
   prep: Prepared, pr: MixedProblem, psi: Float64Array, cov: Float64Array, j: number, basePrice: number,
-  target: number | undefined, beta: number, lapse: number, sigma: number,
+  target: number | undefined, beta: number, lapse: number, sigma: number, crit: number,
 ): ShopperSpreadReport['bases'][number] {
   const d = pr.d, p = d.pTheta, nPar = pr.nPar;
   const i0 = prep.baseStart[j];
@@ -171,7 +250,7 @@ function baseSpread(
     const bound: ThresholdBound | null = value > hi * (1 + 1e-9) ? { kind: 'above', fraction: hi } : value < lo * (1 - 1e-9) ? { kind: 'below', fraction: lo } : null;
     if (bound) return { share: q, fraction: null, fractionCi: null, bound };
     const sd = Math.sqrt(v);
-    const ci: Interval | null = Number.isFinite(sd) && sd > 0 ? [Math.exp(lnD - Z975 * sd), Math.exp(lnD + Z975 * sd)] : null;
+    const ci: Interval | null = Number.isFinite(sd) && sd > 0 && Number.isFinite(crit) ? [Math.exp(lnD - crit * sd), Math.exp(lnD + crit * sd)] : null;
     return { share: q, fraction: value, fractionCi: ci, bound: null };
   };
   const shares = SHARES.map(share);

@@ -1,4 +1,5 @@
-// Calibration of σ's 95 % interval (the profile likelihood of the mixed model, mixed.ts):
+// Calibration of σ's 95 % interval (the profile likelihood of the mixed model, mixed.ts; the
+// GLMM for psychometric functions of Moscatelli, Mezzetti & Lacquaniti 2012) and recovery of σ:
 // seeded simulated studies with a known spread, own simulation, no published source.
 // Prints each figure with its binomial standard error; fails when coverage drops below the
 // bound. Kept small (40 shoppers × 36 pick trials, one model per study) so the tier stays fast.

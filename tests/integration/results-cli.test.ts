@@ -71,6 +71,13 @@ describe('results of a seeded study equal the fit CLI on its exported raw trials
     expect(json.about.testWeberVsPower).toMatch(/respondent-level bootstrap SE/);
     expect(json.about.bootstrapFailures).toMatch(/of 1000 samples non-finite/);
     expect(header).toContain('Threshold bound');
+    // the shopper spread travels with the thresholds: shares of shoppers per base, σ in the header block
+    expect(header).toContain('Discount 75 % of shoppers notice (%),Discount 75 % of shoppers notice 95% low (%)');
+    expect(header).toContain('Middle half of shoppers low (%)');
+    expect(json.about.shopperSpread).toMatch(/^σ \d\.\d{3} \(95 % interval \d\.\d{3} to \d\.\d{3}\): SD of shoppers' ln thresholds/);
+    expect(json.about.shopperSpreadMethod).toMatch(/profile likelihood/);
+    const r0 = json.thresholds[0] as Record<string, number | string | null>;
+    expect(typeof r0['Discount 50 % of shoppers notice (%)'] === 'number' || r0['Shares of shoppers bound'] !== '').toBe(true);
     expect(json.about.cautions.join(' ')).toMatch(/16 CFR Part 233/);
     const about = await (await callRoute(exportGet, { params: { workspace: ws.slug, study: studyId, file: 'thresholds-about.csv' } })).text();
     expect(about.split('\r\n')[0]).toBe('Field,Value');

@@ -17,7 +17,10 @@ import { findStudy, respondentRows, screen } from './cells';
 // A threshold the data only bound (nobody noticed the deepest rung, or everybody the
 // shallowest) has no number: the CSV's threshold cells stay empty and the "Threshold bound"
 // column says "> 24 %" / "< 1 %"; the JSON carries `bound`. The about block names the unit
-// (shopper or trial), the interval and test methods and the bootstrap failures.
+// (shopper or trial), the interval and test methods and the bootstrap failures, and the shopper
+// spread (σ with its interval and method, the mixed model's guess rates); each threshold row
+// carries the discounts 50 / 75 / 90 % of shoppers notice with their intervals (or a bound) and
+// the middle half of shoppers, empty where no mixed model was fitted (segment groups, no ids).
 
 export const EXPORT_FILES = ['thresholds.csv', 'thresholds-about.csv', 'thresholds.json', 'report.json', 'trials.csv'] as const;
 export type ExportFile = (typeof EXPORT_FILES)[number];
@@ -68,15 +71,46 @@ function about(state: FitState, report: AnalysisReport, segmentQuestion: string 
     testConstantVsPower: report.tests.constantVsPower ? testText(report.tests.constantVsPower) : null,
     bootstrapFailures: report.bootstrapFailures ? `${report.bootstrapFailures.nonFinite} of ${report.bootstrapSamples} samples non-finite, ${report.bootstrapFailures.notConverged} with a refit that did not converge` : null,
     segmentQuestion: q ? q.text : null,
+    shopperSpread: spreadText(report.shopperSpread),
+    shopperSpreadMethod: report.shopperSpread?.sigmaMethod ?? null,
+    guessRatesMixedModel: report.shopperSpread?.guess?.length
+      ? report.shopperSpread.guess.map((g) => `${g.bases.join(', ')}: ${round(g.value * 100, 3)} %${g.ci ? ` (95 % ${round(g.ci[0] * 100, 3)} to ${round(g.ci[1] * 100, 3)} %)` : ''}`).join('; ')
+      : null,
     cautions: fitCautions(report, isPoorFit(report)),
   };
+}
+
+function spreadText(sp: AnalysisReport['shopperSpread']): string | null {
+  if (!sp) return null;
+  const ci = sp.sigmaCi ? `95 % interval ${sp.sigmaCi[0].toFixed(3)} to ${sp.sigmaCi[1].toFixed(3)}` : 'no interval';
+  return `σ ${sp.sigma.toFixed(3)} (${ci}): SD of shoppers' ln thresholds, mixed model ${modelLabel(sp.model)}, ${sp.shoppers} shoppers${sp.converged ? '' : ', did not converge'}`;
+}
+
+const SHARE_LABELS = [50, 75, 90] as const;
+
+/** The share-of-shoppers columns of one base (empty cells without a mixed model, e.g. segment groups). */
+function shareColumns(report: AnalysisReport, basePrice: number): Record<string, CsvValue> {
+  const sb = report.shopperSpread?.bases.find((x) => x.basePrice === basePrice);
+  const out: Record<string, CsvValue> = {};
+  const bounds: string[] = [];
+  for (const q of SHARE_LABELS) {
+    const s = sb?.shares.find((x) => Math.round(x.share * 100) === q);
+    out[`Discount ${q} % of shoppers notice (%)`] = round(s?.fraction == null ? null : s.fraction * 100, 4);
+    out[`Discount ${q} % of shoppers notice 95% low (%)`] = round(s?.fractionCi ? s.fractionCi[0] * 100 : null, 4);
+    out[`Discount ${q} % of shoppers notice 95% high (%)`] = round(s?.fractionCi ? s.fractionCi[1] * 100 : null, 4);
+    if (s?.bound) bounds.push(`${q} %: ${boundText(s.bound)}`);
+  }
+  out['Shares of shoppers bound'] = bounds.join('; ');
+  out['Middle half of shoppers low (%)'] = round(sb?.middleHalf ? sb.middleHalf[0] * 100 : null, 4);
+  out['Middle half of shoppers high (%)'] = round(sb?.middleHalf ? sb.middleHalf[1] * 100 : null, 4);
+  return out;
 }
 
 function testText(t: AnalysisReport['tests']['weberVsPower']): string {
   return `p = ${t.p === null ? '—' : t.p.toPrecision(3)} (LR ${t.chi2.toFixed(2)} on ${t.df} df; ${t.method ?? 'likelihood ratio, χ² reference'})`;
 }
 
-function boundText(b: AnalysisReport['bases'][number]['threshold']['bound']): string {
+function boundText(b: AnalysisReport['bases'][number]['threshold']['bound'] | undefined): string {
   if (!b) return '';
   return `${b.kind === 'above' ? '>' : '<'} ${round(b.fraction * 100, 4)} %`;
 }
@@ -101,6 +135,7 @@ function thresholdRows(state: FitState, report: AnalysisReport, segment: Segment
     'Deviance p-value': round(b.devianceP, 4),
     'Verdict': b.verdict,
     'Interval unit': report.unit ?? 'trial',
+    ...shareColumns(report, b.basePrice),
   }));
 }
 

@@ -2,7 +2,7 @@ import 'server-only';
 import { compareGroups } from '@/lib/psychometrics/segments';
 import { PsychometricsInputError } from '@/lib/psychometrics/errors';
 import { hashKey, requestComputation, runCached, type JobData } from './cache';
-import { FIT_SEED, loadFitInput } from './study-fit';
+import { FIT_ENGINE, FIT_SEED, loadFitInput } from './study-fit';
 import { em } from '@/lib/server/db/orm';
 import { AppError } from '@/lib/server/http/errors';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
@@ -28,7 +28,7 @@ export async function getSegmentComparison(ctx: WorkspaceContext, studyId: strin
   const q = study.design.segmentQuestions.find((x) => x.id === questionId);
   if (!q) throw new AppError(422, 'validation_failed', 'This study has no such segment question.');
   if (!(await hasAnsweredTests(study.id))) return { status: 'empty', message: 'No finished respondent has answered a test trial yet.' };
-  const cacheKey = hashKey({ v: study.dataVersion, rules: study.exclusionRules, questionId, b: SEGMENT_BOOTSTRAP, seed: FIT_SEED });
+  const cacheKey = hashKey({ v: study.dataVersion, rules: study.exclusionRules, questionId, b: SEGMENT_BOOTSTRAP, seed: FIT_SEED, engine: FIT_ENGINE });
   const row = await requestComputation<SegmentResult>({
     studyId: study.id, kind: 'segments', cacheKey, dataVersion: study.dataVersion, queue: 'analysis', payload: { questionId },
   });

@@ -25,6 +25,12 @@ import { findStudy, hasAnsweredTests, loadShopperCells, respondentRows, screen, 
 /** Fixed so a study's numbers are reproducible (and equal the CLI's with --seed 1 --bootstrap 1000). */
 export const FIT_BOOTSTRAP = 1000;
 export const FIT_SEED = 1;
+/**
+ * The engine's result format and numbers: part of every fit's cache key, so a change that
+ * alters what a fit reports (2: the mixed model fits γ with the catch trials and reports it,
+ * share-of-shoppers intervals with the small-sample critical value) refits old caches.
+ */
+export const FIT_ENGINE = 2;
 
 export type Segment = { questionId: string; answer: string };
 
@@ -46,7 +52,7 @@ export interface FitResult extends Record<string, unknown> {
 export interface FitOptions { segment?: Segment | null; target?: number }
 
 function optionsKeyOf(rules: ExclusionRules, opts: FitOptions): string {
-  return hashKey({ rules, segment: opts.segment ?? null, target: opts.target ?? null, bootstrap: FIT_BOOTSTRAP, seed: FIT_SEED });
+  return hashKey({ rules, segment: opts.segment ?? null, target: opts.target ?? null, bootstrap: FIT_BOOTSTRAP, seed: FIT_SEED, engine: FIT_ENGINE });
 }
 
 export function fitCacheKey(study: Pick<StudyDetail, 'dataVersion' | 'exclusionRules'>, opts: FitOptions) {

@@ -45,8 +45,19 @@ describe('mixed model: marginal likelihood against an independent integration', 
 
   it.each(fixture.cases.map((c) => [c.label, c] as const))('%s: within 1e-6 relative of scipy.integrate.quad', (_, c) => {
     const { prep, data, pr } = problemFor(fixture.rows[c.data], c.model, c.guess);
-    const ll = mixedLogLik(pr, psiFor(c, prep), false) + data.logConst;
-    expect(Math.abs(ll - c.logLik) / Math.abs(c.logLik)).toBeLessThan(1e-6);
+    const psi = psiFor(c, prep);
+    // the shared grid, first from its width bound, then from the widths the first evaluation saw
+    for (let pass = 0; pass < 2; pass++) {
+      const ll = mixedLogLik(pr, psi, false) + data.logConst;
+      expect(Math.abs(ll - c.logLik) / Math.abs(c.logLik), `shared grid, pass ${pass + 1}`).toBeLessThan(1e-6);
+    }
+    if (c.sigma > 0) expect(pr.shared).toBeGreaterThan(0);
+    // every shopper by adaptive Gauss–Hermite quadrature (the rule the grid falls back to)
+    const adaptive = mixedProblem(pr.d, data);
+    adaptive.useGrid = false;
+    const la = mixedLogLik(adaptive, psi, false) + data.logConst;
+    expect(Math.abs(la - c.logLik) / Math.abs(c.logLik), 'adaptive Gauss–Hermite').toBeLessThan(1e-6);
+    expect(adaptive.shared).toBe(0);
   });
 
   it('a shopper effect lowers nothing it should not: σ = 0 is the pooled fixed-effect likelihood exactly', () => {

@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { analyse } from '@/lib/psychometrics/analyse';
 import { prepare } from '@/lib/psychometrics/prepare';
 import { createRng } from '@/lib/psychometrics/random';
-import { middleHalfSentence, reportShopperSpread } from '@/lib/psychometrics/shopper-spread';
+import { middleHalfSentence, reportShopperSpread, shareCritical } from '@/lib/psychometrics/shopper-spread';
 import { poolShopperCells, shopperCounts } from '@/lib/psychometrics/shoppers';
 import { geometricLadder } from '@/lib/psychometrics/simulate';
 import { simulateShoppers } from '@/lib/psychometrics/simulate-shoppers';
@@ -127,5 +127,26 @@ describe('shopper spread: honest edges', () => {
     const rows = study(0.5, 'spread-none', 10);
     const report = analyse({ ...poolShopperCells(rows), task: 'pick', bootstrap: 0 });
     expect(report.shopperSpread).toBeNull();
+  });
+});
+
+describe('shopper spread: the share intervals’ small-sample critical value', () => {
+  it('is √(S/(S − 1))·t₀.₉₇₅(S − 1): wider than 1.96 with few shoppers, 1.96 in the limit, none below two', () => {
+    // t₀.₉₇₅ with 39 and 9 degrees of freedom: 2.0227 and 2.2622 (standard tables, values from memory)
+    expect(shareCritical(40)).toBeCloseTo(Math.sqrt(40 / 39) * 2.0227, 3);
+    expect(shareCritical(10)).toBeCloseTo(Math.sqrt(10 / 9) * 2.2622, 3);
+    expect(shareCritical(100000)).toBeCloseTo(1.96, 2);
+    expect(shareCritical(1)).toBeNaN();
+  });
+
+  it('is named in the method, and the share intervals are symmetric on the ln scale', () => {
+    const rows = study(0.5, 'spread-crit', 12);
+    const sp = analyse({ ...poolShopperCells(rows), task: 'pick', bootstrap: 0, shopperCells: rows }).shopperSpread!;
+    expect(sp.sigmaMethod).toMatch(/√\(S\/\(S − 1\)\)·t\(S − 1\)/);
+    for (const b of sp.bases) {
+      const s = b.shares[0];
+      if (!s.fraction || !s.fractionCi) continue;
+      expect(Math.log(s.fractionCi[1] / s.fraction)).toBeCloseTo(Math.log(s.fraction / s.fractionCi[0]), 9);
+    }
   });
 });
