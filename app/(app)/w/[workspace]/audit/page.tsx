@@ -6,6 +6,7 @@ import { listAuditEvents } from '@/lib/server/team/audit';
 import { PageTitle } from '@/components/ui/page-title';
 import { EmptyState } from '@/components/ui/empty-state';
 import { describeAction } from './describe-action';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 export const metadata: Metadata = { title: 'Audit trail' };
 
@@ -24,7 +25,7 @@ export default async function AuditPage({ params, searchParams }: { params: Prom
       {data.events.length === 0 ? (
         <EmptyState title="Nothing recorded yet" />
       ) : (
-        <div className="card overflow-x-auto">
+        <ScrollFrame label="Audit trail" className="card">
           <table className="table" data-testid="audit">
             <thead><tr><th>When (UTC)</th><th>Who</th><th>What</th><th>On</th></tr></thead>
             <tbody>
@@ -38,7 +39,7 @@ export default async function AuditPage({ params, searchParams }: { params: Prom
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollFrame>
       )}
       {data.pageCount > 1 ? (
         <nav aria-label="Pages" className="mt-4 flex items-center gap-4 text-sm">

@@ -28,7 +28,7 @@ export default async function PromotionsPage({ params }: { params: Promise<{ wor
         {analyst ? <Link className="btn" href={`${base}/price-lists/new`}>Upload price list</Link> : null}
         {analyst && lists.length ? <Link className="btn btn-primary" href={`${base}/plans/new`}>New promotion plan</Link> : null}
       </PageTitle>
-      <div className="grid gap-8 lg:grid-cols-[1fr_19rem]">
+      <div className="grid gap-8 *:min-w-0 lg:grid-cols-[1fr_19rem]">
         <div className="space-y-8">
           <section aria-labelledby="plans-h">
             <h2 id="plans-h" className="mb-3 text-xl">Promotion plans</h2>

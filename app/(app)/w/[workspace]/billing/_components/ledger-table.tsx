@@ -1,5 +1,6 @@
 import type { BillingOverview } from '@/lib/server/billing/checkout';
 import { EmptyState } from '@/components/ui/empty-state';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 const REASONS: Record<string, string> = {
   welcome: 'Welcome seats',
@@ -13,7 +14,7 @@ const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { dateStyle:
 export function LedgerTable({ entries }: { entries: BillingOverview['entries'] }) {
   if (entries.length === 0) return <EmptyState title="No seat movements yet" />;
   return (
-    <div className="card overflow-x-auto">
+    <ScrollFrame label="Seat history" className="card">
       <table className="table" data-testid="ledger">
         <thead>
           <tr>
@@ -48,6 +49,6 @@ export function LedgerTable({ entries }: { entries: BillingOverview['entries'] }
           ))}
         </tbody>
       </table>
-    </div>
+    </ScrollFrame>
   );
 }

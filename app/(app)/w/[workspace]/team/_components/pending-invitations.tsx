@@ -5,6 +5,7 @@ import { fetchJson } from '@/lib/fetch-json';
 import { ROLE_LABELS } from '@/lib/roles';
 import type { PendingInvitation } from '@/lib/server/team/invitations';
 import { day } from './dates';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 export function PendingInvitations({ slug, invitations }: { slug: string; invitations: PendingInvitation[] }) {
   const router = useRouter();
@@ -22,7 +23,7 @@ export function PendingInvitations({ slug, invitations }: { slug: string; invita
   return (
     <div>
       {error ? <p className="field-error mb-2" role="alert">{error}</p> : null}
-      <div className="card overflow-x-auto">
+      <ScrollFrame label="Pending invitations" className="card">
         <table className="table" data-testid="invitations">
           <thead><tr><th>E-mail</th><th>Role</th><th>Invited by</th><th>Expires</th><th><span className="sr-only">Actions</span></th></tr></thead>
           <tbody>
@@ -37,7 +38,7 @@ export function PendingInvitations({ slug, invitations }: { slug: string; invita
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollFrame>
     </div>
   );
 }

@@ -1,4 +1,5 @@
 import type { FieldworkDto } from '@/lib/server/studies/fieldwork';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 const pct = (f: number) => `${Math.round(f * 10_000) / 100} %`;
 
@@ -14,7 +15,7 @@ export function CellGrid({ data }: { data: FieldworkDto }) {
   return (
     <div>
       <h3 className="mb-1 text-base">Answers per cell</h3>
-      <div className="overflow-x-auto">
+      <ScrollFrame label="Answers per cell">
         <table className="table" data-testid="cell-grid">
           <caption className="hint mb-1 text-left">Test trials answered per base price × rung, and below each count the discount shoppers actually saw (after rounding to the price shown). Shading grows with the count; the number is always shown.</caption>
           <thead>
@@ -44,7 +45,7 @@ export function CellGrid({ data }: { data: FieldworkDto }) {
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollFrame>
     </div>
   );
 }

@@ -7,6 +7,7 @@ import { importedStudySchema, IMPORT_MAX_BYTES, type ImportedStudyInput } from '
 import { CURRENCIES, TASKS, TASK_LABELS } from '@/lib/schemas/study.schema';
 import { TextField } from '@/components/ui/text-field';
 import type { ImportCheck } from '@/lib/server/studies/response-import';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 type Result = { check: ImportCheck; imported: { studyId: string; respondents: number; trials: number } | null };
 
@@ -81,13 +82,13 @@ function CheckReport({ check }: { check: ImportCheck }) {
         </table>
       ) : null}
       {check.preview.length ? (
-        <div className="card overflow-x-auto p-2">
+        <ScrollFrame label="First rows of the file" className="card p-2">
           <h3 className="px-2 text-base">First rows</h3>
           <table className="table">
             <thead><tr><th className="n">Row</th>{check.columns.map((c) => <th key={c}>{c}</th>)}</tr></thead>
             <tbody>{check.preview.map((r, i) => <tr key={i}><td className="n">{i + 2}</td>{check.columns.map((c) => <td key={c} className="num">{r[c]}</td>)}</tr>)}</tbody>
           </table>
-        </div>
+        </ScrollFrame>
       ) : null}
     </section>
   );
