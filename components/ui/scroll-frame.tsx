@@ -49,7 +49,7 @@ export function ScrollFrame({ label, children, className, innerClassName, testId
           aria-label={label}
           tabIndex={0}
           data-clipped={clipped ? 'true' : 'false'}
-          className={clsx('overflow-x-auto focus-visible:outline focus-visible:outline-2 focus-visible:outline-teal', innerClassName)}
+          className={clsx('relative overflow-x-auto focus-visible:outline focus-visible:outline-2 focus-visible:outline-teal', innerClassName)}
         >
           {children}
         </div>

@@ -11,6 +11,7 @@ import { PageTitle } from '@/components/ui/page-title';
 import { EmptyState } from '@/components/ui/empty-state';
 import { CautionsPanel } from './_components/cautions-panel';
 import { DeleteButton } from './_components/delete-button';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 export const metadata: Metadata = { title: 'Promotions' };
 
@@ -37,7 +38,7 @@ export default async function PromotionsPage({ params }: { params: Promise<{ wor
                 A plan turns a fitted study into a promo floor for every item on a price list: the smallest discount shoppers notice, rounded to a price ending.
               </EmptyState>
             ) : (
-              <table className="table card">
+              <ScrollFrame label="Promotion plans" className="card"><table className="table">
                 <thead><tr><th>Plan</th><th>Study</th><th>Price list</th><th>Model</th><th>Notice rate</th><th>Ending</th><th>Created</th>{analyst ? <th><span className="sr-only">Actions</span></th> : null}</tr></thead>
                 <tbody>
                   {plans.map((p) => (
@@ -53,7 +54,7 @@ export default async function PromotionsPage({ params }: { params: Promise<{ wor
                     </tr>
                   ))}
                 </tbody>
-              </table>
+              </table></ScrollFrame>
             )}
           </section>
           <section aria-labelledby="lists-h">
@@ -63,7 +64,7 @@ export default async function PromotionsPage({ params }: { params: Promise<{ wor
                 Upload a CSV with the columns sku, name, regular_price and, optionally, unit_cost and category.
               </EmptyState>
             ) : (
-              <table className="table card">
+              <ScrollFrame label="Price lists" className="card"><table className="table">
                 <thead><tr><th>Price list</th><th>Currency</th><th className="n">Items</th><th>Uploaded</th>{analyst ? <th><span className="sr-only">Actions</span></th> : null}</tr></thead>
                 <tbody>
                   {lists.map((l) => (
@@ -76,7 +77,7 @@ export default async function PromotionsPage({ params }: { params: Promise<{ wor
                     </tr>
                   ))}
                 </tbody>
-              </table>
+              </table></ScrollFrame>
             )}
           </section>
         </div>

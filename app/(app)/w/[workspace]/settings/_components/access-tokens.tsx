@@ -7,6 +7,7 @@ import { apiTokenCreateSchema, type ApiTokenCreate } from '@/lib/schemas/api-tok
 import type { ApiTokenDto } from '@/lib/server/team/access-tokens';
 import { TextField } from '@/components/ui/text-field';
 import { ApiRequestError, fetchJson } from '@/lib/fetch-json';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 export function AccessTokens({ slug, initial, appUrl }: { slug: string; initial: ApiTokenDto[]; appUrl: string }) {
   const qc = useQueryClient();
@@ -48,7 +49,7 @@ export function AccessTokens({ slug, initial, appUrl }: { slug: string; initial:
         </div>
       ) : null}
       {status ? <p role="alert" className="field-error">{status}</p> : null}
-      <table className="table card">
+      <ScrollFrame label="Access tokens" className="card"><table className="table">
         <thead><tr><th>Name</th><th>Starts with</th><th>Created</th><th>Last used</th><th /></tr></thead>
         <tbody>
           {q.data.length === 0 ? <tr><td colSpan={5} className="text-muted">No tokens yet.</td></tr> : null}
@@ -62,7 +63,7 @@ export function AccessTokens({ slug, initial, appUrl }: { slug: string; initial:
             </tr>
           ))}
         </tbody>
-      </table>
+      </table></ScrollFrame>
     </section>
   );
 }

@@ -76,10 +76,10 @@ function CheckReport({ check }: { check: ImportCheck }) {
         {check.ok ? `✓ All ${check.rows} rows are valid: ${check.respondents} respondents, base prices ${check.basePrices.join(', ')}.` : `⚠ ${check.errors.length} problem${check.errors.length === 1 ? '' : 's'} found; nothing was written.`}
       </p>
       {check.errors.length ? (
-        <table className="table card" data-testid="import-errors">
+        <ScrollFrame label="Problems found in the file" className="card"><table className="table" data-testid="import-errors">
           <thead><tr><th className="n">Row</th><th>Problem</th></tr></thead>
           <tbody>{check.errors.map((e, i) => <tr key={i}><td className="n">{e.row}</td><td>{e.message}</td></tr>)}</tbody>
-        </table>
+        </table></ScrollFrame>
       ) : null}
       {check.preview.length ? (
         <ScrollFrame label="First rows of the file" className="card p-2">
