@@ -17,9 +17,15 @@ interface Props {
   /** Extra classes for the scrolling box itself (e.g. a max height). */
   innerClassName?: string;
   testId?: string;
+  /**
+   * A line of words above the frame, for a table whose caption would otherwise be as wide as the
+   * table and cut on a phone. The table keeps the same words as a caption for screen readers
+   * (class "sr-only"), so this visible copy is hidden from them.
+   */
+  note?: React.ReactNode;
 }
 
-export function ScrollFrame({ label, children, className, innerClassName, testId }: Props) {
+export function ScrollFrame({ label, children, className, innerClassName, testId, note }: Props) {
   const box = useRef<HTMLDivElement>(null);
   const [edges, setEdges] = useState({ left: false, right: false });
 
@@ -42,6 +48,7 @@ export function ScrollFrame({ label, children, className, innerClassName, testId
   const clipped = edges.left || edges.right;
   return (
     <div className={clsx('scroll-frame', className)} data-testid={testId}>
+      {note ? <p className="hint mb-1" aria-hidden>{note}</p> : null}
       <div className="relative">
         <div
           ref={box}

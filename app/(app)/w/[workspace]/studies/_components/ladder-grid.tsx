@@ -38,9 +38,9 @@ export function LadderGrid({ form }: { form: BuilderForm }) {
         </select>
       </Field>
       {grid.length && ladder.length ? (
-        <ScrollFrame label="Prices shoppers will see" className="rounded-sm border border-rule">
+        <ScrollFrame label="Prices shoppers will see" className="rounded-sm border border-rule p-2" note="Prices shoppers will see: the promo price on screen and the discount it shows, per base price and rung.">
           <table className="table text-sm" data-testid="ladder-grid">
-            <caption className="p-2 text-left text-muted">Prices shoppers will see: the promo price on screen and the discount it shows, per base price and rung.</caption>
+            <caption className="sr-only">Prices shoppers will see: the promo price on screen and the discount it shows, per base price and rung.</caption>
             <thead>
               <tr>
                 <th scope="col">Shelf price</th>

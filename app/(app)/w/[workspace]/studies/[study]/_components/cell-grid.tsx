@@ -8,6 +8,8 @@ const pct = (f: number) => `${Math.round(f * 10_000) / 100} %`;
  * from), with the discount actually shown under each count; catch and off-ladder (adaptive)
  * trials in their own columns.
  */
+const CAPTION = 'Test trials answered per base price × rung, and below each count the discount shoppers actually saw (after rounding to the price shown). Shading grows with the count; the number is always shown.';
+
 export function CellGrid({ data }: { data: FieldworkDto }) {
   const max = Math.max(1, ...data.cells.flat());
   const anyOff = data.offLadder.some((n) => n > 0);
@@ -15,9 +17,9 @@ export function CellGrid({ data }: { data: FieldworkDto }) {
   return (
     <div>
       <h3 className="mb-1 text-base">Answers per cell</h3>
-      <ScrollFrame label="Answers per cell">
+      <ScrollFrame label="Answers per cell" note={CAPTION}>
         <table className="table" data-testid="cell-grid">
-          <caption className="hint mb-1 text-left">Test trials answered per base price × rung, and below each count the discount shoppers actually saw (after rounding to the price shown). Shading grows with the count; the number is always shown.</caption>
+          <caption className="sr-only">{CAPTION}</caption>
           <thead>
             <tr>
               <th scope="col">Base price</th>
