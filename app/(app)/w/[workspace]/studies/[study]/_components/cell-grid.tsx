@@ -37,7 +37,7 @@ export function CellGrid({ data }: { data: FieldworkDto }) {
                   return (
                     <td key={j} className="n" style={{ background: n ? `rgba(15,110,110,${0.08 + 0.3 * (n / max)})` : undefined }}>
                       <span className="block" data-testid="cell-count">{n}</span>
-                      {shown !== null ? <span className="block text-xs text-muted" data-testid="cell-shown">shown {pct(shown)}</span> : null}
+                      {shown !== null ? <span className="block text-xs" data-testid="cell-shown">shown {pct(shown)}</span> : null}
                     </td>
                   );
                 })}
