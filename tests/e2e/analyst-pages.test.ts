@@ -82,6 +82,8 @@ describe('analyst pages in Chromium', () => {
       { name: 'study-preview', path: `/studies/${live.studyId}/preview`, ready: '[data-testid="respondent-preview"]' },
       { name: 'study-results', path: `${demo}/results`, ready: '[data-testid="summary-table"]' },
       { name: 'study-import', path: `${demo}/import`, ready: 'main form' },
+      { name: 'study-report-print', path: `${demo}/results/print`, ready: '[data-testid="print-summary"]' },
+      { name: 'responses-import', path: '/studies/import', ready: 'main form' },
       { name: 'promotions', path: '/promotions', ready: 'main h1' },
       { name: 'promotion-plan', path: `/promotions/plans/${planId}`, ready: '[data-testid="plan-table"] tbody tr' },
       { name: 'promotion-plan-new', path: '/promotions/plans/new', ready: 'main form' },
