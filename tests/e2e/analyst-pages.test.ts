@@ -165,6 +165,8 @@ describe('analyst pages in Chromium', () => {
     await screenshot(page, 'study-close-dialog');
     await dialog.getByRole('button', { name: 'Close study' }).click();
     await poll(() => page.locator('[data-state="closed"]').count()).toBe(1);
+    // The monitor's per-link states follow the study too.
+    await poll(async () => (await page.getByTestId('per-link-state').allTextContents()).sort()).toEqual(['Closed', 'Study closed']);
 
     await page.goto(`${study}/links`);
     await page.getByTestId('links-table').waitFor();
