@@ -18,7 +18,7 @@ export function SectionNav({ slug, role }: { slug: string; role?: Role }) {
   const path = usePathname();
   const base = `/w/${slug}`;
   return (
-    <nav aria-label="Sections" className="flex gap-1 overflow-x-auto text-sm">
+    <nav aria-label="Sections" className="flex flex-wrap gap-x-1 text-sm">
       {SECTIONS.filter((s) => !('ownerOnly' in s) || role === 'owner').map((s) => {
         const href = base + s.href;
         const active = s.href === '' ? path === base || path.startsWith(`${base}/studies`) : path.startsWith(href);

@@ -24,7 +24,8 @@ export const DEMO_DESIGN = studyDesignSchema.parse({
   viewMs: 1200,
   tripMinutes: 20,
   basePrices: [3.49, 12.99, 39, 129, 449],
-  ladder: [0.01, 0.02, 0.03, 0.05, 0.08, 0.12, 0.18, 0.25],
+  // No 1 % rung: at €3.49 cents can only show it as 0.86 % off (the builder's ladder check, tests/unit/seed-ladders.test.ts).
+  ladder: [0.02, 0.03, 0.05, 0.08, 0.12, 0.18, 0.25],
   repetitions: 2,
   catchShare: 0.1,
   practiceTrials: 2,
@@ -63,6 +64,8 @@ export const DEMO_SIM: SimParams = {
   },
   careless: { inattentive: 4, speeders: 3, straightLiners: 3 },
   seed: 'harbourline-kitchen-demo',
+  priceEnding: DEMO_DESIGN.priceEnding,
+  currency: DEMO_DESIGN.currency,
 };
 
 export async function seedDemoStudy(db: EntityManager, workspaceId: string) {

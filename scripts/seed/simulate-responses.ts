@@ -2,6 +2,8 @@
 // every answer drawn from a model observer; no real shopper answered any of it.
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { createRng, type Rng } from '@/lib/psychometrics/random';
+import type { PriceEnding } from '@/lib/psychometrics/promo-floor';
+import { minorDigits, shownDiscount, shownPrice } from '@/respondent/shared/price';
 import { insertFinishedRespondents, type FinishedRespondent } from '@/lib/server/studies/finished-respondents';
 
 export interface SimParams {
@@ -26,9 +28,24 @@ export interface SimParams {
   /** Respondents who fail the attention check, speed through at random, or press one key. */
   careless?: { inattentive: number; speeders: number; straightLiners: number };
   seed: string;
+  /**
+   * The study's price ending and currency: each test trial is shown at the price a real
+   * respondent would see (respondent/shared/price.ts), the model observer reacts to the discount
+   * that price shows, and that discount is what the trial records (with the rung beside it),
+   * as the live answer path does. Default: exact cents in a two-decimal currency.
+   */
+  priceEnding?: PriceEnding;
+  currency?: string;
 }
 
-export interface SimTrial { idx: number; kind: 'test' | 'catch' | 'attention'; basePrice: number; discount: number; answer: 0 | 1; responseMs: number }
+export interface SimTrial {
+  idx: number; kind: 'test' | 'catch' | 'attention'; basePrice: number;
+  /** The discount actually shown (0 on catch trials). */
+  discount: number;
+  answer: 0 | 1; responseMs: number;
+  /** Test trials: the rung drawn and the price shown, as Trial.shown holds them for live answers. */
+  shown?: { rung: number; price: number };
+}
 export interface SimRespondent { segmentAnswers: Record<string, string>; attentionPassed: boolean | null; trials: SimTrial[] }
 
 const logistic = (x: number) => 1 / (1 + Math.exp(-x));
@@ -48,6 +65,17 @@ export function simulateRespondents(p: SimParams): SimRespondent[] {
   const rng = createRng(p.seed);
   const care = p.careless ?? { inattentive: 0, speeders: 0, straightLiners: 0 };
   const out: SimRespondent[] = [];
+  const digits = minorDigits(p.currency);
+  const priced = new Map<string, { price: number; discount: number }>();
+  const shownAt = (base: number, rung: number) => {
+    const key = `${base}|${rung}`;
+    let v = priced.get(key);
+    if (!v) {
+      const price = shownPrice(base, rung, p.priceEnding ?? 'exact', digits);
+      priced.set(key, (v = { price, discount: shownDiscount(base, price) }));
+    }
+    return v;
+  };
   for (let r = 0; r < p.respondents; r++) {
     const kind = r < care.inattentive ? 'inattentive' : r < care.inattentive + care.speeders ? 'speeder'
       : r < care.inattentive + care.speeders + care.straightLiners ? 'straight' : 'careful';
@@ -59,15 +87,18 @@ export function simulateRespondents(p: SimParams): SimRespondent[] {
     for (let c = 0; c < p.catchPerRespondent; c++) screens.push({ kind: 'catch', basePrice: p.basePrices[c % p.basePrices.length], discount: 0 });
     rng.shuffle(screens);
     const trials: SimTrial[] = screens.map((s, idx) => {
+      const seen = s.kind === 'test' ? shownAt(s.basePrice, s.discount) : null;
       const alpha = Math.log(p.refFraction) + (p.weberSlope - 1) * Math.log(s.basePrice / p.refPrice) + offset;
-      const pYes = s.kind === 'catch' ? guess : guess + (1 - guess - p.lapse) * logistic(p.beta * (Math.log(s.discount) - alpha));
+      const pYes = !seen ? guess : guess + (1 - guess - p.lapse) * logistic(p.beta * (Math.log(seen.discount) - alpha));
       let answer: 0 | 1 = rng.next() < pYes ? 1 : 0;
       // Inattentive respondents answer the price screens plausibly but miss the attention check;
       // speeders tap at random.
       if (kind === 'speeder') answer = rng.next() < 0.5 ? 1 : 0;
       if (kind === 'straight') answer = 1;
       const ms = kind === 'speeder' ? 180 + rng.int(150) : Math.round(Math.exp(Math.log(1500) + 0.35 * rng.normal()));
-      return { idx: idx + 1, kind: s.kind, basePrice: s.basePrice, discount: s.discount, answer, responseMs: ms };
+      const t: SimTrial = { idx: idx + 1, kind: s.kind, basePrice: s.basePrice, discount: seen ? seen.discount : 0, answer, responseMs: ms };
+      if (seen) t.shown = { rung: s.discount, price: seen.price };
+      return t;
     });
     const attentionPassed = kind !== 'inattentive';
     trials.splice(Math.floor(trials.length / 2), 0, { idx: 0, kind: 'attention', basePrice: p.basePrices[0], discount: 0, answer: attentionPassed ? 1 : 0, responseMs: 2400 });

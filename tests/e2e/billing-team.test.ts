@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { baseUrl, openBrowser, screenshot, signIn } from '../support/browser';
+import { DEMO_WORKSPACE } from '../../scripts/seed/accounts';
 
 const DEMO_PASSWORD = 'harbour-demo-2026';
 
@@ -17,6 +18,18 @@ async function invitationLink(address: string): Promise<string> {
     const link = mail?.text.match(/https?:\/\/\S+\/invite\/[\w-]+/)?.[0];
     if (link) return link;
     if (Date.now() > until) throw new Error(`no invitation e-mail for ${address}`);
+    await new Promise((r) => setTimeout(r, 250));
+  }
+}
+
+/** The receipt e-mail with this number, from the mail catcher. */
+async function receiptMail(address: string, number: string): Promise<{ subject: string; text: string }> {
+  const until = Date.now() + 15_000;
+  for (;;) {
+    const mails = (await (await fetch(`${inject('mailApiUrl')}/api/email`)).json()) as { to: { address: string }[]; subject: string; text: string }[];
+    const mail = mails.find((m) => m.to.some((t) => t.address === address) && m.subject.includes(number));
+    if (mail) return mail;
+    if (Date.now() > until) throw new Error(`no receipt ${number} for ${address}`);
     await new Promise((r) => setTimeout(r, 250));
   }
 }
@@ -45,8 +58,22 @@ describe('seat bundles and team in Chromium', () => {
     await page.getByRole('link', { name: 'Back to billing' }).click();
     await page.waitForURL(/\/billing$/);
     expect(await balanceOn(page)).toBe(before + 100);
-    expect(await page.getByTestId('ledger').locator('tbody tr').first().textContent()).toContain('+100');
+    const line = (await page.getByTestId('ledger').locator('tbody tr').first().textContent())!;
+    expect(line).toContain('+100');
+    // The ledger names the purchase by its receipt number, in words; no raw id anywhere in it.
+    expect(line).toContain('Pilot bundle bought');
+    const receipt = line.match(/Receipt (NW-\d{4}-[0-9A-F]{4}-[0-9A-F]{4}-[0-9A-F]{4})/)?.[1];
+    expect(receipt, line).toBeTruthy();
+    expect(await page.getByTestId('ledger').textContent()).not.toMatch(/cs_test_|[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}/);
+    expect(await page.getByTestId('ledger').getByText('Welcome seats').count()).toBeGreaterThan(0);
     await screenshot(page, 'billing');
+
+    // The receipt e-mail, caught by the mail catcher: the same number, the date, the workspace's billing name.
+    const mail = await receiptMail('owner@harbourline.example', receipt!);
+    expect(mail.text).toContain(`Receipt number: ${receipt}`);
+    const today = new Date().toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
+    expect(mail.text).toContain(`Date: ${today}`);
+    expect(mail.text).toContain(`Billed to: ${DEMO_WORKSPACE.name}`);
   });
 
   it('cancelling on the checkout page comes back with nothing charged', async () => {

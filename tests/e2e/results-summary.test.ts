@@ -17,7 +17,8 @@ type Box = { x: number; y: number; width: number; height: number };
 const overlap = (a: Box, b: Box) => a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
 
 async function noPageScroll(page: Page) {
-  return page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth);
+  // Chromium's mobile emulation widens innerWidth to fit an overflowing page: compare with the layout width too.
+  return page.evaluate(() => document.documentElement.scrollWidth <= Math.min(window.innerWidth, document.documentElement.clientWidth));
 }
 
 async function waitForSummary(page: Page) {

@@ -4,13 +4,15 @@ import { GET as resultsGet } from '@/app/api/w/[workspace]/studies/[study]/resul
 import { DEFAULT_EXCLUSION_RULES, type ExclusionRules } from '@/lib/schemas/exclusions.schema';
 import { callRoute, makeMember, makeWorkspace, signInAs } from '../support/factories';
 import { makeSimulatedStudy } from '../support/studies';
+import { DEMO_SIM } from '@/scripts/seed/demo-study';
 
 const off: ExclusionRules = {
   falseAlarms: { enabled: false, maxRate: 0.5 }, attention: { enabled: false },
   speeders: { enabled: false, minMedianMs: 400 }, straightLining: { enabled: false },
 };
 // 40 simulated respondents: 4 fail the attention check, 3 speed (median < 400 ms), 3 press "yes" throughout.
-const TRIALS_EACH = 89;
+// Each answers the demo design's test trials (base prices × rungs × repetitions) and its catch trials.
+const TRIALS_EACH = DEMO_SIM.basePrices.length * DEMO_SIM.ladder.length * DEMO_SIM.repetitions + DEMO_SIM.catchPerRespondent;
 
 describe('exclusion rules change the counts as stated', () => {
   let ws: Awaited<ReturnType<typeof makeWorkspace>>;

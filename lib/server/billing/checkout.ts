@@ -7,7 +7,7 @@ import { env } from '@/lib/server/platform/env';
 import { AppError, notFoundError } from '@/lib/server/http/errors';
 import type { WorkspaceContext } from '@/lib/server/team/membership';
 import { seatBalance, seatHistory } from './seat-ledger';
-import { completeDetails } from './ledger-details';
+import { completeDetails, purchaseDetails } from './ledger-details';
 import { stripe } from './stripe';
 
 // Buying seats, the analyst-facing half: the billing page's balance and ledger, starting a
@@ -23,8 +23,16 @@ export async function billingOverview(ctx: WorkspaceContext) {
   const db = await em();
   const [balance, history] = await Promise.all([seatBalance(db, ctx.workspace.id), seatHistory(db, ctx.workspace.id, HISTORY_LIMIT)]);
   // A complete's line names its study and whether the respondent is kept or excluded now.
-  const details = await completeDetails(db, ctx.workspace.id, history.filter((e) => e.reason === 'complete').map((e) => e.reference));
-  const entries = history.map((e) => ({ ...e, complete: details.get(e.reference) ?? null }));
+  const [details, purchases] = await Promise.all([
+    completeDetails(db, ctx.workspace.id, history.filter((e) => e.reason === 'complete').map((e) => e.reference)),
+    purchaseDetails(db, ctx.workspace.id, history.filter((e) => e.reason === 'purchase').map((e) => e.reference)),
+  ]);
+  // The page shows each line in words (lib/ledger-words.ts), never the raw reference.
+  const entries = history.map((e) => ({
+    ...e,
+    complete: e.reason === 'complete' ? details.get(e.reference) ?? null : null,
+    purchase: e.reason === 'purchase' ? purchases.get(e.reference) ?? null : null,
+  }));
   return { balance, canBuy: ctx.role === 'owner', entries };
 }
 export type BillingOverview = Awaited<ReturnType<typeof billingOverview>>;

@@ -12,6 +12,7 @@ import { AppError } from '@/lib/server/http/errors';
 import { composeMail, sendMail } from '@/lib/server/platform/mail';
 import { creditPurchase, seatBalance } from './seat-ledger';
 import { stripe } from './stripe';
+import { receiptNumber } from './receipt-number';
 
 // Stripe's webhook: the signature is checked over the raw body (a bad or missing one is a 400),
 // then seats are credited exactly once in one transaction — the event id goes into
@@ -102,11 +103,7 @@ export async function applyStripeEvent(event: Stripe.Event): Promise<WebhookOutc
   return outcome;
 }
 
-/** A purchase's receipt number: stable for the purchase (a resend names the same receipt), readable over the phone. */
-export function receiptNumber(purchaseId: string, paidAt: Date): string {
-  const hex = purchaseId.replace(/-/g, '').slice(0, 12).toUpperCase();
-  return `NW-${paidAt.getUTCFullYear()}-${hex.slice(0, 4)}-${hex.slice(4, 8)}-${hex.slice(8, 12)}`;
-}
+export { receiptNumber };
 
 const receiptDate = (d: Date) => d.toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
 

@@ -19,6 +19,8 @@ export interface FinishedTrial {
   answer: 0 | 1;
   /** 0 when the source did not record it. */
   responseMs: number;
+  /** What the screen showed (Trial.shown): simulated trials carry the rung drawn and the price shown. */
+  shown?: Record<string, unknown> | null;
 }
 
 export interface FinishedRespondent {
@@ -49,7 +51,7 @@ export async function insertFinishedRespondents(
     for (const t of r.trials) {
       trialRows.push({
         respondent: id, idx: t.idx, kind: t.kind, basePrice: t.basePrice, discount: t.discount,
-        answer: t.answer, responseMs: t.responseMs, clientId: randomUUID(), answeredAt: r.completedAt,
+        answer: t.answer, responseMs: t.responseMs, shown: t.shown ?? null, clientId: randomUUID(), answeredAt: r.completedAt,
       });
     }
   }

@@ -6,6 +6,7 @@ import type { StudySummary } from '@/lib/server/studies/studies';
 import { TASK_LABELS } from '@/lib/schemas/study.schema';
 import { STUDY_STATE_LABELS, type StudyStateName } from '@/lib/study-states';
 import { StudyStatePill } from '@/components/studies/study-state-pill';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 const col = createColumnHelper<StudySummary>();
 const dateFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
@@ -62,7 +63,7 @@ export function StudyTable({ slug, studies }: { slug: string; studies: StudySumm
         </div>
         <span className="hint pb-2" role="status">{rows.length} of {studies.length} studies</span>
       </div>
-      <div className="card overflow-x-auto">
+      <ScrollFrame label="Studies" className="card">
         <table className="table" data-testid="study-table">
           <thead>
             {table.getHeaderGroups().map((hg) => (
@@ -97,7 +98,7 @@ export function StudyTable({ slug, studies }: { slug: string; studies: StudySumm
             ) : null}
           </tbody>
         </table>
-      </div>
+      </ScrollFrame>
     </div>
   );
 }

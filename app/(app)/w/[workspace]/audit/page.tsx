@@ -6,10 +6,12 @@ import { listAuditEvents } from '@/lib/server/team/audit';
 import { PageTitle } from '@/components/ui/page-title';
 import { EmptyState } from '@/components/ui/empty-state';
 import { describeAction } from './describe-action';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 export const metadata: Metadata = { title: 'Audit trail' };
 
-const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'medium', timeZone: 'UTC' });
+const day = (iso: string) => new Date(iso).toLocaleDateString('en-GB', { dateStyle: 'medium', timeZone: 'UTC' });
+const time = (iso: string) => new Date(iso).toLocaleTimeString('en-GB', { timeStyle: 'medium', timeZone: 'UTC' });
 
 export default async function AuditPage({ params, searchParams }: { params: Promise<{ workspace: string }>; searchParams: Promise<{ page?: string }> }) {
   await connection();
@@ -24,21 +26,22 @@ export default async function AuditPage({ params, searchParams }: { params: Prom
       {data.events.length === 0 ? (
         <EmptyState title="Nothing recorded yet" />
       ) : (
-        <div className="card overflow-x-auto">
+        <ScrollFrame label="Audit trail" className="card">
           <table className="table" data-testid="audit">
-            <thead><tr><th>When (UTC)</th><th>Who</th><th>What</th><th>On</th></tr></thead>
+            {/* What happened comes second, so a phone shows it without scrolling the frame. */}
+            <thead><tr><th>When (UTC)</th><th>What</th><th>Who</th><th>On</th></tr></thead>
             <tbody>
               {data.events.map((e) => (
                 <tr key={e.id}>
-                  <td className="num whitespace-nowrap">{when(e.createdAt)}</td>
-                  <td>{e.actor ? <>{e.actor.name} <span className="text-muted">{e.actor.email}</span></> : <span className="text-muted">system</span>}</td>
-                  <td>{describeAction(e.action, e.detail)}</td>
+                  <td className="num whitespace-nowrap text-xs"><span className="block">{day(e.createdAt)}</span><span className="block text-muted">{time(e.createdAt)}</span></td>
+                  <td className="min-w-40">{describeAction(e.action, e.detail)}</td>
+                  <td>{e.actor ? <><span className="block">{e.actor.name}</span><span className="block text-xs text-muted">{e.actor.email}</span></> : <span className="text-muted">system</span>}</td>
                   <td className="max-w-[20rem] truncate" title={e.target ?? undefined}>{e.target ?? '—'}</td>
                 </tr>
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollFrame>
       )}
       {data.pageCount > 1 ? (
         <nav aria-label="Pages" className="mt-4 flex items-center gap-4 text-sm">

@@ -12,6 +12,7 @@ import { PageTitle } from '@/components/ui/page-title';
 import { EmptyState } from '@/components/ui/empty-state';
 import { CautionsPanel } from './_components/cautions-panel';
 import { DeleteButton } from './_components/delete-button';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 export const metadata: Metadata = { title: 'Promotions' };
 
@@ -29,7 +30,7 @@ export default async function PromotionsPage({ params }: { params: Promise<{ wor
         {analyst ? <Link className="btn" href={`${base}/price-lists/new`}>Upload price list</Link> : null}
         {analyst && lists.length ? <Link className="btn btn-primary" href={`${base}/plans/new`}>New promotion plan</Link> : null}
       </PageTitle>
-      <div className="grid gap-8 lg:grid-cols-[1fr_19rem]">
+      <div className="grid gap-8 *:min-w-0 lg:grid-cols-[1fr_19rem]">
         <div className="space-y-8">
           <section aria-labelledby="plans-h">
             <h2 id="plans-h" className="mb-3 text-xl">Promotion plans</h2>
@@ -38,7 +39,7 @@ export default async function PromotionsPage({ params }: { params: Promise<{ wor
                 A plan turns a fitted study into a promo floor for every item on a price list: the smallest discount shoppers notice, rounded to a price ending.
               </EmptyState>
             ) : (
-              <table className="table card">
+              <ScrollFrame label="Promotion plans" className="card"><table className="table">
                 <thead><tr><th>Plan</th><th>Study</th><th>Price list</th><th>Model</th><th>Notice rate</th><th>Ending</th><th>Created</th>{analyst ? <th><span className="sr-only">Actions</span></th> : null}</tr></thead>
                 <tbody>
                   {plans.map((p) => (
@@ -54,7 +55,7 @@ export default async function PromotionsPage({ params }: { params: Promise<{ wor
                     </tr>
                   ))}
                 </tbody>
-              </table>
+              </table></ScrollFrame>
             )}
           </section>
           <section aria-labelledby="lists-h">
@@ -64,7 +65,7 @@ export default async function PromotionsPage({ params }: { params: Promise<{ wor
                 Upload a CSV with the columns sku, name, regular_price and, optionally, unit_cost and category.
               </EmptyState>
             ) : (
-              <table className="table card">
+              <ScrollFrame label="Price lists" className="card"><table className="table">
                 <thead><tr><th>Price list</th><th>Currency</th><th className="n">Items</th><th>Uploaded</th>{analyst ? <th><span className="sr-only">Actions</span></th> : null}</tr></thead>
                 <tbody>
                   {lists.map((l) => (
@@ -77,7 +78,7 @@ export default async function PromotionsPage({ params }: { params: Promise<{ wor
                     </tr>
                   ))}
                 </tbody>
-              </table>
+              </table></ScrollFrame>
             )}
           </section>
         </div>

@@ -25,7 +25,7 @@ export default async function TeamPage({ params }: { params: Promise<{ workspace
       </p>
       <MembersTable slug={ctx.workspace.slug} members={members} canManage={isOwner} />
       {isOwner ? (
-        <div className="mt-10 grid gap-8 lg:grid-cols-[minmax(0,22rem)_1fr]">
+        <div className="mt-10 grid gap-8 *:min-w-0 lg:grid-cols-[minmax(0,22rem)_1fr]">
           <section aria-labelledby="invite-h">
             <h2 id="invite-h" className="mb-3 text-xl">Invite someone</h2>
             <InviteForm slug={ctx.workspace.slug} />

@@ -7,6 +7,8 @@ import { apiTokenCreateSchema, type ApiTokenCreate } from '@/lib/schemas/api-tok
 import type { ApiTokenDto } from '@/lib/server/team/access-tokens';
 import { TextField } from '@/components/ui/text-field';
 import { ApiRequestError, fetchJson } from '@/lib/fetch-json';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 
 export function AccessTokens({ slug, initial, appUrl }: { slug: string; initial: ApiTokenDto[]; appUrl: string }) {
   const qc = useQueryClient();
@@ -26,11 +28,17 @@ export function AccessTokens({ slug, initial, appUrl }: { slug: string; initial:
       else setStatus(err instanceof Error ? err.message : 'Could not create the token.');
     }
   });
-  const revoke = async (id: string) => {
+  // Revoking asks first in the app's own dialog: a script using the token stops working at once.
+  const [revoking, setRevoking] = useState<ApiTokenDto | null>(null);
+  const [busy, setBusy] = useState(false);
+  const revoke = async () => {
+    if (!revoking) return;
+    setBusy(true);
     try {
-      await fetchJson(`/api/w/${slug}/tokens/${id}`, { method: 'DELETE' });
+      await fetchJson(`/api/w/${slug}/tokens/${revoking.id}`, { method: 'DELETE' });
       await qc.invalidateQueries({ queryKey: key });
     } catch (err) { setStatus(err instanceof Error ? err.message : 'Could not revoke the token.'); }
+    finally { setBusy(false); setRevoking(null); }
   };
   return (
     <section aria-labelledby="tokens-h" className="mt-10 max-w-3xl">
@@ -48,7 +56,7 @@ export function AccessTokens({ slug, initial, appUrl }: { slug: string; initial:
         </div>
       ) : null}
       {status ? <p role="alert" className="field-error">{status}</p> : null}
-      <table className="table card">
+      <ScrollFrame label="Access tokens" className="card"><table className="table">
         <thead><tr><th>Name</th><th>Starts with</th><th>Created</th><th>Last used</th><th /></tr></thead>
         <tbody>
           {q.data.length === 0 ? <tr><td colSpan={5} className="text-muted">No tokens yet.</td></tr> : null}
@@ -58,11 +66,14 @@ export function AccessTokens({ slug, initial, appUrl }: { slug: string; initial:
               <td className="num">{t.prefix}…</td>
               <td className="num">{t.createdAt.slice(0, 10)}</td>
               <td className="num">{t.lastUsedAt?.slice(0, 10) ?? '—'}</td>
-              <td>{t.revokedAt ? <span className="pill text-muted">revoked</span> : <button className="btn btn-danger !min-h-0 !py-0.5" onClick={() => revoke(t.id)}>Revoke</button>}</td>
+              <td>{t.revokedAt ? <span className="pill text-muted">revoked</span> : <button className="btn btn-danger !min-h-0 !py-0.5" onClick={() => setRevoking(t)}>Revoke</button>}</td>
             </tr>
           ))}
         </tbody>
-      </table>
+      </table></ScrollFrame>
+      <ConfirmDialog open={revoking !== null} title="Revoke this token?" confirmLabel="Revoke token" danger busy={busy} onConfirm={() => void revoke()} onCancel={() => setRevoking(null)}>
+        <p>Scripts and notebooks using <strong>{revoking?.name}</strong> (<span className="num">{revoking?.prefix}…</span>) stop working at once. This cannot be undone; you can make a new token.</p>
+      </ConfirmDialog>
     </section>
   );
 }

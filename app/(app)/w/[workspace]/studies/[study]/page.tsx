@@ -37,7 +37,7 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
         {analyst && (study.state === 'closed' || study.state === 'imported') ? <Link className="btn" href={`${base}/import`}>Import responses</Link> : null}
         {analyst ? <StudyActions slug={ctx.workspace.slug} studyId={study.id} state={study.state} /> : null}
       </nav>
-      <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
+      <div className="grid gap-6 *:min-w-0 lg:grid-cols-[1fr_20rem]">
         <FieldworkMonitor slug={ctx.workspace.slug} studyId={study.id} />
         <DesignSummary study={study} />
       </div>

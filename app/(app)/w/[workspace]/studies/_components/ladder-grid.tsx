@@ -4,6 +4,7 @@ import type { PriceEnding } from '@/lib/psychometrics/promo-floor';
 import { PRICE_ENDINGS, PRICE_ENDING_LABELS } from '@/lib/schemas/study.schema';
 import { checkLadder, describeFix, describeIssue, type LadderFix } from '@/lib/promo/ladder-check';
 import { errorAt, Field, fieldId, pct, type BuilderForm } from './form-bits';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 // The ladder as shoppers will see it: base price × rung, with the promo price on screen and the
 // discount it actually shows, and each problem (lib/promo/ladder-check.ts) with its one-click fixes.
@@ -37,9 +38,9 @@ export function LadderGrid({ form }: { form: BuilderForm }) {
         </select>
       </Field>
       {grid.length && ladder.length ? (
-        <div className="overflow-x-auto rounded-sm border border-rule" role="region" aria-label="Prices shoppers will see" tabIndex={0}>
+        <ScrollFrame label="Prices shoppers will see" className="rounded-sm border border-rule p-2" note="Prices shoppers will see: the promo price on screen and the discount it shows, per base price and rung.">
           <table className="table text-sm" data-testid="ladder-grid">
-            <caption className="p-2 text-left text-muted">Prices shoppers will see: the promo price on screen and the discount it shows, per base price and rung.</caption>
+            <caption className="sr-only">Prices shoppers will see: the promo price on screen and the discount it shows, per base price and rung.</caption>
             <thead>
               <tr>
                 <th scope="col">Shelf price</th>
@@ -63,7 +64,7 @@ export function LadderGrid({ form }: { form: BuilderForm }) {
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollFrame>
       ) : null}
       {issues.length ? (
         <div className="rounded-sm border border-brick/40 bg-card p-3" data-testid="ladder-issues">

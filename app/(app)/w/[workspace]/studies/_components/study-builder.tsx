@@ -50,7 +50,7 @@ export function StudyBuilder({ slug, studyId, initial }: Props) {
   const shown = status === INVALID && Object.keys(form.formState.errors).length === 0 ? null : status;
 
   return (
-    <form onSubmit={onSubmit} noValidate className="grid gap-6 lg:grid-cols-[1fr_17rem]" aria-label="Study builder">
+    <form onSubmit={onSubmit} noValidate className="grid gap-6 *:min-w-0 lg:grid-cols-[1fr_17rem]" aria-label="Study builder">
       <div className="space-y-6">
         <BuilderItem form={form} slug={slug} />
         <BuilderTask form={form} />

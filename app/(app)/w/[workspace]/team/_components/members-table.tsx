@@ -4,12 +4,16 @@ import { useState } from 'react';
 import { fetchJson } from '@/lib/fetch-json';
 import { ROLES, ROLE_LABELS, type Role } from '@/lib/roles';
 import type { MemberRow } from '@/lib/server/team/members';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 import { day } from './dates';
 
 export function MembersTable({ slug, members, canManage }: { slug: string; members: MemberRow[]; canManage: boolean }) {
   const router = useRouter();
   const [busy, setBusy] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
+  // Removal asks first in the app's own dialog, naming who goes and what they lose.
+  const [removing, setRemoving] = useState<MemberRow | null>(null);
   const act = async (id: string, init: RequestInit) => {
     setBusy(id);
     setError(null);
@@ -20,12 +24,13 @@ export function MembersTable({ slug, members, canManage }: { slug: string; membe
       setError(err instanceof Error ? err.message : 'That did not work.');
     } finally {
       setBusy(null);
+      setRemoving(null);
     }
   };
   return (
     <div>
       {error ? <p className="field-error mb-2" role="alert">{error}</p> : null}
-      <div className="card overflow-x-auto">
+      <ScrollFrame label="Members" className="card">
         <table className="table" data-testid="members">
           <thead>
             <tr><th>Name</th><th>E-mail</th><th>Role</th><th>Joined</th>{canManage ? <th><span className="sr-only">Actions</span></th> : null}</tr>
@@ -47,7 +52,7 @@ export function MembersTable({ slug, members, canManage }: { slug: string; membe
                 {canManage ? (
                   <td className="text-right">
                     <button type="button" className="btn btn-danger !min-h-0 !py-1" disabled={busy === m.id}
-                      onClick={() => window.confirm(`Remove ${m.name} (${m.email}) from the workspace?`) && act(m.id, { method: 'DELETE' })}>
+                      onClick={() => setRemoving(m)}>
                       Remove
                     </button>
                   </td>
@@ -56,7 +61,18 @@ export function MembersTable({ slug, members, canManage }: { slug: string; membe
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollFrame>
+      <ConfirmDialog
+        open={removing !== null}
+        title="Remove this member?"
+        confirmLabel="Remove member"
+        danger
+        busy={busy !== null}
+        onConfirm={() => removing && void act(removing.id, { method: 'DELETE' })}
+        onCancel={() => setRemoving(null)}
+      >
+        <p>{removing ? <><strong>{removing.name}</strong> ({removing.email}) will no longer be able to open this workspace. Their studies and plans stay; you can invite them again later.</> : null}</p>
+      </ConfirmDialog>
     </div>
   );
 }

@@ -35,7 +35,7 @@ export default async function PlanPage({ params }: { params: Promise<{ workspace
       <p className="-mt-3 mb-5 text-sm"><Link href={`/w/${ctx.workspace.slug}/promotions`}>← All promotion plans</Link></p>
       {plan.poorFit ? <PoorFitBanner /> : null}
       {plan.fit.source && isBorrowed(plan.fit.source) ? <BorrowedFitBanner source={plan.fit.source} /> : null}
-      <div className="grid gap-6 lg:grid-cols-[1fr_19rem]">
+      <div className="grid gap-6 *:min-w-0 lg:grid-cols-[1fr_19rem]">
         <div className="min-w-0 space-y-6">
           <PlanSummaryCard summary={summary} currency={currency} locale={plan.fit.locale} />
           <figure className="card p-4">

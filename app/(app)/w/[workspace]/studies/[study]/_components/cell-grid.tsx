@@ -1,4 +1,5 @@
 import type { FieldworkDto } from '@/lib/server/studies/fieldwork';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 const pct = (f: number) => `${Math.round(f * 10_000) / 100} %`;
 
@@ -7,6 +8,8 @@ const pct = (f: number) => `${Math.round(f * 10_000) / 100} %`;
  * from), with the discount actually shown under each count; catch and off-ladder (adaptive)
  * trials in their own columns.
  */
+const CAPTION = 'Test trials answered per base price × rung, and below each count the discount shoppers actually saw (after rounding to the price shown). Shading grows with the count; the number is always shown.';
+
 export function CellGrid({ data }: { data: FieldworkDto }) {
   const max = Math.max(1, ...data.cells.flat());
   const anyOff = data.offLadder.some((n) => n > 0);
@@ -14,9 +17,9 @@ export function CellGrid({ data }: { data: FieldworkDto }) {
   return (
     <div>
       <h3 className="mb-1 text-base">Answers per cell</h3>
-      <div className="overflow-x-auto">
+      <ScrollFrame label="Answers per cell" note={CAPTION}>
         <table className="table" data-testid="cell-grid">
-          <caption className="hint mb-1 text-left">Test trials answered per base price × rung, and below each count the discount shoppers actually saw (after rounding to the price shown). Shading grows with the count; the number is always shown.</caption>
+          <caption className="sr-only">{CAPTION}</caption>
           <thead>
             <tr>
               <th scope="col">Base price</th>
@@ -34,7 +37,7 @@ export function CellGrid({ data }: { data: FieldworkDto }) {
                   return (
                     <td key={j} className="n" style={{ background: n ? `rgba(15,110,110,${0.08 + 0.3 * (n / max)})` : undefined }}>
                       <span className="block" data-testid="cell-count">{n}</span>
-                      {shown !== null ? <span className="block text-xs text-muted" data-testid="cell-shown">shown {pct(shown)}</span> : null}
+                      {shown !== null ? <span className="block text-xs" data-testid="cell-shown">shown {pct(shown)}</span> : null}
                     </td>
                   );
                 })}
@@ -44,7 +47,7 @@ export function CellGrid({ data }: { data: FieldworkDto }) {
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollFrame>
     </div>
   );
 }

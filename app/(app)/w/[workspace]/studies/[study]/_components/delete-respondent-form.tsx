@@ -6,17 +6,28 @@ import type { z } from 'zod';
 import { respondentDeletionSchema, type RespondentDeletionInput } from '@/lib/schemas/respondent-deletion.schema';
 import { ApiRequestError, fetchJson } from '@/lib/fetch-json';
 import { studyApi } from '@/lib/queries/studies';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 
-/** A respondent's deletion request, by the reference code on their thank-you screen (analysts). */
+/**
+ * A respondent's deletion request, by the reference code on their thank-you screen (analysts).
+ * The form checks the code first; the deletion itself waits for the app's own dialog.
+ */
 export function DeleteRespondentForm({ slug, studyId }: { slug: string; studyId: string }) {
   const [status, setStatus] = useState<string | null>(null);
+  const [asking, setAsking] = useState<z.output<typeof respondentDeletionSchema> | null>(null);
+  const [busy, setBusy] = useState(false);
   const { register, handleSubmit, setError, reset, formState } = useForm<RespondentDeletionInput, unknown, z.output<typeof respondentDeletionSchema>>({
     resolver: zodResolver(respondentDeletionSchema),
     defaultValues: { code: '' },
   });
-  const onSubmit = handleSubmit(async (values) => {
+  const onSubmit = handleSubmit((values) => {
     setStatus(null);
-    if (!window.confirm(`Delete the respondent with reference ${values.code} and all their answers? This cannot be undone.`)) return;
+    setAsking(values);
+  });
+  const remove = async () => {
+    if (!asking) return;
+    const values = asking;
+    setBusy(true);
     try {
       const out = await fetchJson<{ referenceCode: string }>(`${studyApi(slug, studyId)}/respondent-deletions`, { method: 'POST', body: JSON.stringify(values) });
       reset();
@@ -24,8 +35,11 @@ export function DeleteRespondentForm({ slug, studyId }: { slug: string; studyId:
     } catch (err) {
       if (err instanceof ApiRequestError && err.issues) for (const i of err.issues) setError('code', { message: i.message });
       else setStatus(err instanceof Error ? err.message : 'Could not delete.');
+    } finally {
+      setBusy(false);
+      setAsking(null);
     }
-  });
+  };
   const e = formState.errors;
   return (
     <form onSubmit={onSubmit} noValidate className="card space-y-3 p-4" aria-label="Delete a respondent on request">
@@ -39,6 +53,17 @@ export function DeleteRespondentForm({ slug, studyId }: { slug: string; studyId:
         <button type="submit" className="btn btn-danger" disabled={formState.isSubmitting}>Delete respondent</button>
         {status ? <span role="status" className="text-sm text-muted">{status}</span> : null}
       </div>
+      <ConfirmDialog
+        open={asking !== null}
+        title="Delete this respondent?"
+        confirmLabel="Delete respondent"
+        danger
+        busy={busy}
+        onConfirm={() => void remove()}
+        onCancel={() => setAsking(null)}
+      >
+        <p>The respondent with reference <strong className="num">{asking?.code}</strong> and all their answers will be deleted. This cannot be undone.</p>
+      </ConfirmDialog>
     </form>
   );
 }

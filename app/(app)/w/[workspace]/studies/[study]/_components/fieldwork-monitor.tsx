@@ -1,6 +1,7 @@
 'use client';
 import { useQuery } from '@tanstack/react-query';
 import { fieldworkQuery } from '@/lib/queries/studies';
+import { linkStateLabel } from '@/lib/study-states';
 import { CellGrid } from './cell-grid';
 
 const time = new Intl.DateTimeFormat('en-GB', { timeStyle: 'medium' });
@@ -55,7 +56,7 @@ export function FieldworkMonitor({ slug, studyId }: { slug: string; studyId: str
             <thead><tr><th>Source</th><th>State</th><th className="n">Completes</th></tr></thead>
             <tbody>
               {data.perLink.map((l) => (
-                <tr key={l.linkId}><td>{l.source}</td><td>{l.closed ? 'Closed' : 'Open'}</td><td className="n">{l.completes}</td></tr>
+                <tr key={l.linkId}><td>{l.source}</td><td data-testid="per-link-state">{linkStateLabel(l.closed, data.state).text}</td><td className="n">{l.completes}</td></tr>
               ))}
             </tbody>
           </table>

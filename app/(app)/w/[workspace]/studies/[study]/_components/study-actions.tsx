@@ -15,7 +15,7 @@ import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 
 const SAY: Record<StudyAction, { title: string; text: string; confirm: string }> = {
   launch: { title: 'Launch this study?', text: 'Its design is frozen from now on, and respondents can answer through its links.', confirm: 'Launch' },
-  pause: { title: 'Pause fieldwork?', text: 'Links will say the study is paused until you resume it. Respondents answering now can finish.', confirm: 'Pause' },
+  pause: { title: 'Pause fieldwork?', text: 'Links will say the study is paused until you resume it. Respondents answering now are stopped too; their answers so far are kept.', confirm: 'Pause' },
   resume: { title: 'Resume fieldwork?', text: 'Links accept respondents again.', confirm: 'Resume' },
   close: { title: 'Close this study for good?', text: 'No new respondents can start, and this cannot be undone.', confirm: 'Close study' },
 };

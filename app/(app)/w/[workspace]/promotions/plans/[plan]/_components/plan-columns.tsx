@@ -36,9 +36,9 @@ export function planColumns(currency: string, locale: string) {
       id: 'flags',
       header: 'Flags',
       cell: (c) => (
-        <span className="flex gap-1 whitespace-nowrap">
+        <span className="flex min-w-32 flex-wrap gap-1">
           {rowFlags(c.row.original).map((k) => (
-            <span key={k} className={`pill ${k === 'outsideRange' ? 'text-amber' : 'text-brick'}`} title={FLAGS[k].explain}>
+            <span key={k} className={`pill whitespace-nowrap ${k === 'outsideRange' ? 'text-amber' : 'text-brick'}`} title={FLAGS[k].explain}>
               <span aria-hidden>{FLAGS[k].mark}</span>{FLAGS[k].label}
             </span>
           ))}

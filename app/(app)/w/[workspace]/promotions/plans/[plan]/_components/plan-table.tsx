@@ -6,6 +6,7 @@ import { planRowsQuery } from '@/lib/queries/promo-plans';
 import { FLAG_FILTERS, FLAG_FILTER_LABELS, type FlagFilter } from '@/lib/promo/flags';
 import type { SortKey } from '@/lib/promo/query-rows';
 import { planColumns } from './plan-columns';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 const PAGE_SIZE = 100;
 
@@ -51,7 +52,7 @@ export function PlanTable({ slug, planId, currency, locale, total }: { slug: str
         </div>
       </div>
       {error ? <p role="alert" className="field-error">{error.message}</p> : null}
-      <div className="card max-h-[36rem] overflow-auto">
+      <ScrollFrame label="Items of the plan" className="card" innerClassName="max-h-[36rem] overflow-y-auto" testId="plan-table-frame">
         <table className="table" data-testid="plan-table" aria-busy={isFetching}>
           <thead>
             {table.getHeaderGroups().map((g) => (
@@ -84,7 +85,7 @@ export function PlanTable({ slug, planId, currency, locale, total }: { slug: str
             {data && data.rows.length === 0 ? <tr><td colSpan={columns.length} className="p-6 text-center text-muted">No item matches.</td></tr> : null}
           </tbody>
         </table>
-      </div>
+      </ScrollFrame>
       <nav aria-label="Pages" className="flex flex-wrap items-center gap-3 text-sm">
         <button type="button" className="btn !min-h-0 !py-1" onClick={() => setPage((p) => Math.max(0, p - 1))} disabled={page === 0}>← Previous</button>
         <span className="num" role="status">Page {page + 1} of {pages} · {matched.toLocaleString('en-GB')} matching of {total.toLocaleString('en-GB')} items{isFetching ? ' · loading…' : ''}</span>

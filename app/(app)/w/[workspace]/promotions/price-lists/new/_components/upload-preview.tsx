@@ -1,4 +1,5 @@
 import type { PriceListPreview } from '@/lib/server/promotions/price-lists';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 export function UploadPreview({ preview }: { preview: PriceListPreview }) {
   return (
@@ -18,7 +19,7 @@ export function UploadPreview({ preview }: { preview: PriceListPreview }) {
         </div>
       )}
       {preview.preview.length ? (
-        <div className="card overflow-x-auto">
+        <ScrollFrame label="First rows of the price list" className="card">
           <table className="table">
             <caption className="p-2 text-left text-sm text-muted">First {preview.preview.length} valid rows of {preview.rowCount.toLocaleString('en-GB')}</caption>
             <thead><tr><th className="n">Row</th><th>SKU</th><th>Name</th><th className="n">Regular price</th><th className="n">Unit cost</th><th>Category</th></tr></thead>
@@ -31,7 +32,7 @@ export function UploadPreview({ preview }: { preview: PriceListPreview }) {
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollFrame>
       ) : null}
     </section>
   );

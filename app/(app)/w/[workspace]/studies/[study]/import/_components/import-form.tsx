@@ -7,6 +7,7 @@ import { importedStudySchema, IMPORT_MAX_BYTES, type ImportedStudyInput } from '
 import { CURRENCIES, TASKS, TASK_LABELS } from '@/lib/schemas/study.schema';
 import { TextField } from '@/components/ui/text-field';
 import type { ImportCheck } from '@/lib/server/studies/response-import';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 type Result = { check: ImportCheck; imported: { studyId: string; respondents: number; trials: number } | null };
 
@@ -75,19 +76,19 @@ function CheckReport({ check }: { check: ImportCheck }) {
         {check.ok ? `✓ All ${check.rows} rows are valid: ${check.respondents} respondents, base prices ${check.basePrices.join(', ')}.` : `⚠ ${check.errors.length} problem${check.errors.length === 1 ? '' : 's'} found; nothing was written.`}
       </p>
       {check.errors.length ? (
-        <table className="table card" data-testid="import-errors">
+        <ScrollFrame label="Problems found in the file" className="card"><table className="table" data-testid="import-errors">
           <thead><tr><th className="n">Row</th><th>Problem</th></tr></thead>
           <tbody>{check.errors.map((e, i) => <tr key={i}><td className="n">{e.row}</td><td>{e.message}</td></tr>)}</tbody>
-        </table>
+        </table></ScrollFrame>
       ) : null}
       {check.preview.length ? (
-        <div className="card overflow-x-auto p-2">
+        <ScrollFrame label="First rows of the file" className="card p-2">
           <h3 className="px-2 text-base">First rows</h3>
           <table className="table">
             <thead><tr><th className="n">Row</th>{check.columns.map((c) => <th key={c}>{c}</th>)}</tr></thead>
             <tbody>{check.preview.map((r, i) => <tr key={i}><td className="n">{i + 2}</td>{check.columns.map((c) => <td key={c} className="num">{r[c]}</td>)}</tr>)}</tbody>
           </table>
-        </div>
+        </ScrollFrame>
       ) : null}
     </section>
   );

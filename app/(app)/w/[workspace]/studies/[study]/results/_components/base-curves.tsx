@@ -6,6 +6,7 @@ import { PsychometricCurve } from '@/components/charts/psychometric-curve';
 import { sharedDiscountDomain } from '@/components/charts/chart-domain';
 import { boundText, isPoorBase, pct1, pValue, thresholdOf, verdictWhy } from '@/lib/results-text';
 import { FigureNotes, Term } from './figure-notes';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 // The detail per base price: its curve card (all cards on one x range) and a table where every
 // figure is labelled and footnoted. The verdict uses the calibrated (Monte-Carlo) deviance
@@ -24,7 +25,7 @@ export function BaseTable({ b, report, money }: { b: BaseReport; report: Analysi
   const why = verdictWhy(b, report.warnings);
   const mc = typeof b.devianceMonteCarloP === 'number' ? b.devianceMonteCarloP : null;
   return (
-    <div className="overflow-x-auto">
+    <ScrollFrame label={`Fit figures at ${b.basePrice}`}>
       <table className="table mt-2 [&_td.n]:whitespace-nowrap" data-testid={`base-table-${b.basePrice}`}>
         <tbody>
           <tr><th><Term id="threshold" notes={NOTES} /></th>
@@ -50,7 +51,7 @@ export function BaseTable({ b, report, money }: { b: BaseReport; report: Analysi
           </tr>
         </tbody>
       </table>
-    </div>
+    </ScrollFrame>
   );
 }
 

@@ -6,6 +6,7 @@ import { useQuery } from '@tanstack/react-query';
 import { plannerInputSchema, type PlannerInput } from '@/lib/schemas/results.schema';
 import { plannerQuery } from '@/lib/queries/results';
 import { FitProgress } from './fit-progress';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 export function PlannerPanel({ slug, studyId }: { slug: string; studyId: string }) {
   const [width, setWidth] = useState<number | null>(null);
@@ -28,7 +29,7 @@ export function PlannerPanel({ slug, studyId }: { slug: string; studyId: string 
       {d?.status === 'pending' ? <FitProgress message={d.message} /> : null}
       {d?.status === 'empty' ? <p className="text-sm text-muted">{d.message}</p> : null}
       {d?.status === 'ready' ? (
-        <table className="table card max-w-3xl">
+        <ScrollFrame label="Respondents needed per base price" className="card max-w-3xl"><table className="table">
           <thead><tr><th>Base price</th><th className="n">Threshold</th><th className="n">Width now (points)</th><th className="n">Completes needed</th><th className="n">More than now</th></tr></thead>
           <tbody>
             {d.result.bases.map((b) => (
@@ -42,7 +43,7 @@ export function PlannerPanel({ slug, studyId }: { slug: string; studyId: string 
             ))}
           </tbody>
           <caption className="hint caption-bottom pt-2 text-left">Now: {d.result.currentCompletes} completes after exclusions. Assumed slope {d.result.assumed.beta.toFixed(2)}, lapse {(d.result.assumed.lapse * 100).toFixed(1)} %, guess {(d.result.assumed.guess * 100).toFixed(1)} %; widths from simulated studies, so the current bootstrap width and the planned one differ a little.</caption>
-        </table>
+        </table></ScrollFrame>
       ) : null}
     </section>
   );

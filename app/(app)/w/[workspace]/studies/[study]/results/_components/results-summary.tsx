@@ -7,6 +7,7 @@ import { exclusionSummary, summaryRows, weberVerdict, type VerdictEvidence } fro
 import type { FigureId } from '@/lib/results-glossary';
 import type { ResultsResponse } from '@/lib/queries/results';
 import { FigureNotes, Term } from './figure-notes';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 // The answer first: what a category manager reads in 30 seconds. One table (base price,
 // threshold in % and money, 95 % interval, respondents kept; a bound in words, never a number),
@@ -36,7 +37,7 @@ export function ResultsSummary({ report, counts, rules, locale, currency, weberP
   return (
     <section aria-labelledby="summary-h" data-testid="summary" className="card p-3 sm:p-5">
       <h2 id="summary-h" className="mb-3 text-2xl">The answer</h2>
-      <div className="overflow-x-auto" data-testid="summary-scroll">
+      <ScrollFrame label="Thresholds by base price" testId="summary-scroll">
         <table className="table [&_td]:whitespace-nowrap" data-testid="summary-table">
           <thead>
             <tr>
@@ -58,7 +59,7 @@ export function ResultsSummary({ report, counts, rules, locale, currency, weberP
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollFrame>
       <p className="mt-4 max-w-prose text-lg" data-testid="weber-verdict" data-kind={verdict.kind}>{verdict.sentence}</p>
       <p className="mt-2 max-w-prose" data-testid="promotion-rule"><span className="font-semibold">Promotion rule: </span>{verdict.rule}</p>
       {counts ? <p className="mt-2 max-w-prose text-sm text-muted" data-testid="excluded-summary"><span className="font-semibold">Excluded: </span>{exclusionSummary(counts, rules)}</p> : null}

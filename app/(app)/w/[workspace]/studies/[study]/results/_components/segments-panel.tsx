@@ -4,6 +4,7 @@ import { useQuery } from '@tanstack/react-query';
 import { segmentsQuery } from '@/lib/queries/results';
 import { thresholdText } from '@/lib/results-text';
 import { FitProgress } from './fit-progress';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 type Question = { id: string; text: string; options: string[] };
 const pv = (p: number | null) => (p === null ? '—' : p < 0.001 ? '< 0.001' : p.toFixed(3));
@@ -27,7 +28,7 @@ export function SegmentsPanel({ slug, studyId, questions, money }: { slug: strin
       {d?.status === 'pending' ? <FitProgress message={d.message} /> : null}
       {d?.status === 'empty' ? <p className="text-sm text-muted">{d.message}</p> : null}
       {d?.status === 'ready' ? (
-        <div className="card overflow-x-auto p-4">
+        <ScrollFrame label="Thresholds by segment" className="card p-4">
           <table className="table">
             <thead>
               <tr><th>Base price</th>{d.result.groups.map((g) => <th key={g.label} className="n">{g.label}<br /><span className="hint">{d.result.respondents[g.label]} respondents</span></th>)}</tr>
@@ -50,7 +51,7 @@ export function SegmentsPanel({ slug, studyId, questions, money }: { slug: strin
             {d.result.test.p !== null && d.result.test.p < 0.05 ? 'The answer groups notice discounts differently: consider separate promo floors.' : 'No clear evidence that the answer groups differ; one set of thresholds serves them all.'}
           </p>
           <p className="hint">Thresholds from each group&apos;s power model; intervals from {200} bootstrap samples per group.{d.result.skipped.length ? ` Without data: ${d.result.skipped.join(', ')}.` : ''}</p>
-        </div>
+        </ScrollFrame>
       ) : null}
     </section>
   );

@@ -3,6 +3,7 @@ import type { AnalysisReport } from '@/lib/psychometrics/report-types';
 import { SpreadCurves } from '@/components/charts/spread-curves';
 import { MODEL_SHORT, TRIAL_UNIT_NOTE, middleHalfSentence, pct1, shareCell, sigmaSentence } from '@/lib/results-text';
 import { FigureNotes, Term } from './figure-notes';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 // How shoppers differ (the mixed model's shopper spread): σ with its interval in words, per
 // base "half of shoppers notice between … and …", the typical shopper's curve next to the
@@ -33,7 +34,7 @@ export function SpreadSection({ report, locale, currency, domain, width }: { rep
         {s.bases.map((b) => { const t = middleHalfSentence(b, fmt); return t ? <li key={b.basePrice}>{t}</li> : null; })}
       </ul>
       <p className="hint mb-3">Mixed model ({MODEL_SHORT[s.model].toLowerCase()} thresholds, a shopper effect on each shopper&apos;s threshold; Moscatelli, Mezzetti &amp; Lacquaniti 2012), {s.shoppers.toLocaleString('en-GB')} shoppers. <Term id="sigma" notes={['sigma']} /> interval: {s.sigmaMethod}.{s.converged ? '' : ' The mixed model did not converge: read these figures as rough.'}</p>
-      <div className="overflow-x-auto">
+      <ScrollFrame label="Share of shoppers who notice">
         <table className="table card max-w-4xl [&_td]:whitespace-nowrap" data-testid="share-table">
           <thead>
             <tr><th>Base price</th><th className="n">Typical shopper</th>{SHARES.map((v) => <th key={v} className="n">{Math.round(v * 100)} % of shoppers notice</th>)}</tr>
@@ -49,7 +50,7 @@ export function SpreadSection({ report, locale, currency, domain, width }: { rep
           </tbody>
           <caption className="hint caption-bottom pt-2 text-left">Each cell: the discount that share of shoppers notices (95 % interval). Promotion plans can place their floor at one of these shares.</caption>
         </table>
-      </div>
+      </ScrollFrame>
       <div className="mt-4 grid gap-6 md:grid-cols-2">
         {s.bases.filter((b) => b.curve.length > 1).map((b) => (
           <article key={b.basePrice} className="card min-w-0 p-3 sm:p-4 print-avoid-break">

@@ -4,6 +4,7 @@ import type { FigureId } from '@/lib/results-glossary';
 import { WeberPlot } from '@/components/charts/weber-plot';
 import { MODEL_SHORT, modelLabel, pValue } from '@/lib/results-text';
 import { FigureNotes, Term } from './figure-notes';
+import { ScrollFrame } from '@/components/ui/scroll-frame';
 
 // Price and threshold across base prices: the Weber plot, the model comparison (log-likelihood,
 // parameters, AIC) and the likelihood-ratio tests, each figure labelled and footnoted. The
@@ -35,7 +36,7 @@ export function WeberSection({ report, currency, width }: { report: AnalysisRepo
         </div>
         <div>
           <h3 className="mb-2 text-lg">Which rule describes the thresholds best</h3>
-          <div className="overflow-x-auto">
+          <ScrollFrame label="Models compared">
             <table className="table max-w-4xl" data-testid="model-table">
               <thead><tr><th>Model</th><th className="n"><Term id="logLik" notes={NOTES} /></th><th className="n"><Term id="parameters" notes={NOTES} /></th><th className="n"><Term id="aic" notes={NOTES} /></th><th className="n"><Term id="deltaAic" notes={NOTES} /></th></tr></thead>
               <tbody>
@@ -53,9 +54,9 @@ export function WeberSection({ report, currency, width }: { report: AnalysisRepo
                 Intervals: {report.intervalMethod}{report.bootstrapSamples ? ` (${report.bootstrapSamples.toLocaleString('en-GB')} samples, seed ${report.seed})` : ''}.
               </caption>
             </table>
-          </div>
+          </ScrollFrame>
           <h3 className="mb-2 mt-4 text-lg">Tests between the rules</h3>
-          <div className="overflow-x-auto">
+          <ScrollFrame label="Tests between the rules">
             <table className="table" data-testid="test-table">
               <thead><tr><th>Test</th><th className="n"><Term id="chi2" notes={NOTES} /></th><th className="n"><Term id="df" notes={NOTES} /></th><th className="n"><Term id="p" notes={NOTES} /></th><th>How p was calibrated</th></tr></thead>
               <tbody>
@@ -70,7 +71,7 @@ export function WeberSection({ report, currency, width }: { report: AnalysisRepo
                 ))}
               </tbody>
             </table>
-          </div>
+          </ScrollFrame>
           <p className="hint mt-2">The preferred model has the lowest AIC. A small p says the simpler model of the pair misses something.</p>
           <FigureNotes notes={NOTES} testId="weber-notes" />
         </div>
