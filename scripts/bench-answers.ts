@@ -2,7 +2,7 @@
 //                          --batch-answers 4 --batch-wait-ms 3000 --batch-clock latest-answer|oldest-answer]
 // Measures shoppers, not a flood: simulated respondents, each giving one answer every 2 s on
 // schedule (open loop: the next answer comes whether or not earlier requests have returned),
-// sent the way the phone sends them (its own answer queue: 4 answers, or 3 s after the latest,
+// sent the way the phone sends them (its own answer queue: 8 answers, or 3 s after the latest,
 // one request at a time), against a production build (`next start`) and a private database.
 // The number held is ramped in steps; a respondent who reaches the end completes and a new one
 // starts, so each step holds its number. After each step the database is checked: every
@@ -42,7 +42,7 @@ const ARRIVALS_PER_S = arg('arrivals-per-s', 25);
 const EVERY_MS = arg('every-ms', 2000);
 /** Study length: 3 base prices × 4 rungs × repetitions, plus catch, practice and attention trials (3 → 48 trials). */
 const REPETITIONS = arg('repetitions', 3);
-/** The phone's batch rule is 4 answers, or 3 s after the latest; these show what another rule would do. */
+/** The phone's batch rule is 8 answers, or 3 s after the latest; these show what another rule would do. */
 const BATCH_ANSWERS = arg('batch-answers', BATCH_ANSWERS_DEFAULT);
 const BATCH_WAIT_MS = arg('batch-wait-ms', BATCH_WAIT_MS_DEFAULT);
 /** `--batch-clock oldest-answer`: the wait counts from the oldest unsent answer (a hard cap on its age). */

@@ -1,6 +1,6 @@
 // Simulated respondents over real HTTP (keep-alive), doing what the respondent page's script
 // does: start, give one answer after another, send them with the page's own answer queue
-// (respondent/client/answer-queue.ts: 4 answers at a time or 3 s after the latest, one request
+// (respondent/client/answer-queue.ts: 8 answers at a time or 3 s after the latest, one request
 // at a time, the same client ids on every retry), wait until every answer is acknowledged,
 // complete. A start or
 // complete that meets a network error, 5xx or 429 is retried with backoff, as the page does.
@@ -87,7 +87,7 @@ export interface RespondentOptions {
   giveUpMs?: number;
   /** Asked before each answer: true = give no more answers (send what was given, do not complete). */
   stopAnswering?: () => boolean;
-  /** The page's batch rule (4 answers, or 3 s after the latest) unless given, to show what another rule would do. */
+  /** The page's batch rule (8 answers, or 3 s after the latest) unless given, to show what another rule would do. */
   batchAnswers?: number;
   batchWaitMs?: number;
   batchClock?: 'latest-answer' | 'oldest-answer';

@@ -20,13 +20,14 @@ const ack = (batch: AnswerInput[], over: Partial<{ acknowledged: string[]; confl
   ({ ok: true, data: { acknowledged: batch.map((a) => a.clientId), conflicts: [], answered: batch.at(-1)!.idx + 1, ...over } });
 const networkDown: SendResult = { ok: false, retry: true, code: 'network', message: 'No connection.' };
 
+/** Most cases below use batches of 4 (any size shows the rule); `batchAnswers: undefined` gives the phone's default (8). */
 function setup(opts: Partial<AnswerQueueOptions> = {}, storage = new FakeStorage()) {
   const sent: AnswerInput[][] = [];
   let reply: (batch: AnswerInput[]) => SendResult = (b) => ack(b);
   const send = vi.fn(async (batch: AnswerInput[]) => { sent.push(batch.map((a) => ({ ...a }))); return reply(batch); });
   const events = { retrying: [] as boolean[], stopped: [] as string[] };
   const q = new AnswerQueue({
-    send, storage, storageKey: () => KEY,
+    send, storage, storageKey: () => KEY, batchAnswers: 4,
     onRetrying: (on) => events.retrying.push(on),
     onStopped: (code) => events.stopped.push(code),
     ...opts,
@@ -39,14 +40,14 @@ describe('the answer queue on the phone', () => {
   beforeEach(() => { vi.useFakeTimers(); });
   afterEach(() => { vi.useRealTimers(); });
 
-  it('stores each answer on the device before anything is sent, sends four as one batch, and drops them once acknowledged', async () => {
-    const { q, send, sent, stored } = setup();
-    const a = [0, 1, 2, 3].map(answer);
-    for (const x of a.slice(0, 3)) q.push(x);
+  it('stores each answer on the device before anything is sent, sends eight as one batch, and drops them once acknowledged', async () => {
+    const { q, send, sent, stored } = setup({ batchAnswers: undefined });
+    const a = [0, 1, 2, 3, 4, 5, 6, 7].map(answer);
+    for (const x of a.slice(0, 7)) q.push(x);
     await vi.advanceTimersByTimeAsync(0);
     expect(send).not.toHaveBeenCalled();
-    expect(stored().map((x) => x.clientId)).toEqual(a.slice(0, 3).map((x) => x.clientId));
-    q.push(a[3]);
+    expect(stored().map((x) => x.clientId)).toEqual(a.slice(0, 7).map((x) => x.clientId));
+    q.push(a[7]);
     await vi.advanceTimersByTimeAsync(0);
     expect(sent).toEqual([a]);
     expect(stored()).toEqual([]);
@@ -66,13 +67,13 @@ describe('the answer queue on the phone', () => {
     expect(sent).toEqual([[a0, a1]]);
   });
 
-  it('a shopper answering every 2 s sends four at a time; with the oldest-answer clock an answer waits at most 3 s', async () => {
-    const steady = setup();
-    for (let i = 0; i < 8; i++) {
+  it('a shopper answering every 2 s sends eight at a time; with the oldest-answer clock an answer waits at most 3 s', async () => {
+    const steady = setup({ batchAnswers: undefined });
+    for (let i = 0; i < 16; i++) {
       steady.q.push(answer(i));
       await vi.advanceTimersByTimeAsync(2000);
     }
-    expect(steady.sent.map((b) => b.length)).toEqual([4, 4]);
+    expect(steady.sent.map((b) => b.length)).toEqual([8, 8]);
 
     const capped = setup({ batchClock: 'oldest-answer' });
     for (let i = 0; i < 8; i++) {
@@ -213,7 +214,7 @@ describe('the answer queue on the phone', () => {
   it('without storage (blocked, or the preview) the queue still sends from memory', async () => {
     const send = vi.fn(async (b: AnswerInput[]) => ack(b));
     const q = new AnswerQueue({ send, storage: null, storageKey: () => null });
-    for (const x of [0, 1, 2, 3].map(answer)) q.push(x);
+    for (const x of [0, 1, 2, 3, 4, 5, 6, 7].map(answer)) q.push(x);
     await vi.advanceTimersByTimeAsync(0);
     expect(send).toHaveBeenCalledTimes(1);
     expect(q.pending).toHaveLength(0);

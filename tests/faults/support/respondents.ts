@@ -22,7 +22,7 @@ export async function until(cond: () => boolean | Promise<boolean>, timeoutMs = 
 
 /**
  * `n` respondents at once, each giving an answer every 100 ms and sending them with the page's
- * own answer queue (batches of 4, the same client ids on every retry through the fault); the
+ * own answer queue (batches of 8, the same client ids on every retry through the fault); the
  * backoff is shorter than the page's (250 ms doubling to 2 s) to keep the run short.
  */
 export function crowd(study: LoadStudy, bases: string[], n = 200) {
