@@ -13,8 +13,11 @@ import { fitNow, makeSimulatedStudy } from '../support/studies';
 
 const plannerRows = async (studyId: string) =>
   (await (await em()).fork().getConnection().execute<{ n: number }[]>("select count(*)::int as n from analysis_result where study_id = ? and kind = 'planner'", [studyId]))[0].n;
-const plannerJobs = async (studyId: string) =>
-  (await (await em()).fork().getConnection().execute<{ n: number }[]>("select count(*)::int as n from pgboss.job where name = 'planner' and data->>'studyId' = ?", [studyId]))[0].n;
+const plannerJobs = async (studyId: string, state?: string) =>
+  (await (await em()).fork().getConnection().execute<{ n: number }[]>(
+    `select count(*)::int as n from pgboss.job where name = 'planner' and data->>'studyId' = ?${state ? ' and state = ?' : ''}`,
+    state ? [studyId, state] : [studyId],
+  ))[0].n;
 
 describe('fair queues', () => {
   let ws: Awaited<ReturnType<typeof makeWorkspace>>;
@@ -43,7 +46,13 @@ describe('fair queues', () => {
     const answers = await Promise.all(Array.from({ length: 6 }, () => plan('2')));
     for (const a of answers) expect(a.status).toBe(200);
     expect(await plannerRows(studyId)).toBe(1);
-    expect(await plannerJobs(studyId)).toBe(1);
+    // One job waits at most. Under `npm test` the test app's own worker may take the first job
+    // while the other asks arrive; the queue's singleton rule then lets one more wait (pg-boss
+    // 'short' collapses only jobs not yet started) — never one per ask.
+    expect(await plannerJobs(studyId, 'created')).toBeLessThanOrEqual(1);
+    const jobs = await plannerJobs(studyId);
+    expect(jobs).toBeGreaterThanOrEqual(1);
+    expect(jobs).toBeLessThanOrEqual(2);
   });
 
   it(`a workspace with ${MAX_WAITING_PER_WORKSPACE} computations waiting gets 429 for a new one; another workspace is not held up`, async () => {
