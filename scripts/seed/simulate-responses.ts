@@ -81,7 +81,9 @@ export function simulateRespondents(p: SimParams): SimRespondent[] {
       : r < care.inattentive + care.speeders + care.straightLiners ? 'straight' : 'careful';
     const seg = pickSegment(p, rng);
     const offset = p.alphaSd * rng.normal() + seg.shift;
-    const guess = Math.min(0.4, Math.max(0, p.guess + 0.04 * rng.normal()));
+    // A forced choice (pick the lower price: guess 0.5) has no guessing habit to vary; a yes/no
+    // task's false-alarm rate differs a little from shopper to shopper.
+    const guess = p.guess >= 0.5 ? p.guess : Math.min(0.4, Math.max(0, p.guess + 0.04 * rng.normal()));
     const screens: { kind: 'test' | 'catch'; basePrice: number; discount: number }[] = [];
     for (const basePrice of p.basePrices) for (const discount of p.ladder) for (let k = 0; k < p.repetitions; k++) screens.push({ kind: 'test', basePrice, discount });
     for (let c = 0; c < p.catchPerRespondent; c++) screens.push({ kind: 'catch', basePrice: p.basePrices[c % p.basePrices.length], discount: 0 });
