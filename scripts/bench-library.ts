@@ -1,7 +1,7 @@
 // `npm run bench:library [-- --studies 200 --runs 10]`: how long the threshold record page
 // (/w/[workspace]/record) takes to render with 200 closed studies, each with its cached fit,
 // on a production build (`next start`) and a fresh private database. Seeds the demo accounts,
-// fills the record (scripts/seed/bench-record-studies.ts), signs in over HTTP as the demo owner,
+// fills the record (scripts/load/record-studies.ts), signs in over HTTP as the demo owner,
 // then times full server renders of the page (one warm-up first) and of the page with a
 // comparison and a picked price. Prints each run; the last line is
 // `bench:library studies=<n> ms=<median>`. Timings are printed, never asserted; figures taken on
@@ -47,7 +47,7 @@ async function main() {
   ensureBuild(log);
   const url = await freshDatabase({ root: path.join(DATA, 'test'), port: PG_PORT, database: 'nw_bench_library' });
   const env = appEnv(url, { stripePort: STRIPE_PORT, smtpPort: Number(process.env.TEST_SMTP_PORT ?? 3913) });
-  for (const script of [['scripts/seed.ts'], ['scripts/seed/bench-record-studies.ts', String(STUDIES)]]) {
+  for (const script of [['scripts/seed.ts'], ['scripts/load/record-studies.ts', String(STUDIES)]]) {
     const r = run(bin('tsx'), ['--conditions=react-server', ...script], { cwd: ROOT, env: { ...process.env, ...env } });
     process.stdout.write(r.stdout);
     if (r.code !== 0) throw new Error(`${script[0]} failed:\n${r.stderr}`);

@@ -4,7 +4,7 @@
 // One simulated study (invented observer, own simulation) is fitted once with the engine; every
 // bench study stores that full report (curves, bands, shopper spread and all, so the database
 // holds realistic rows) with its thresholds scaled, under the cache key its study would use.
-// Categories and dates are invented. Usage: tsx --conditions=react-server scripts/seed/bench-record-studies.ts 200
+// Categories and dates are invented. Usage: tsx --conditions=react-server scripts/load/record-studies.ts 200
 import { randomUUID } from 'node:crypto';
 import { Study } from '@/entities/study';
 import { Workspace } from '@/entities/workspace';
@@ -15,8 +15,8 @@ import { DEFAULT_EXCLUSION_RULES } from '@/lib/schemas/exclusions.schema';
 import { fitCacheKey, FIT_BOOTSTRAP, FIT_SEED } from '@/lib/server/analysis/study-fit';
 import { orm } from '@/lib/server/db/orm';
 import { toDetail } from '@/lib/server/studies/studies';
-import { DEMO_DESIGN } from './demo-study';
-import { DEMO_WORKSPACE } from './accounts';
+import { DEMO_DESIGN } from '../seed/demo-study';
+import { DEMO_WORKSPACE } from '../seed/accounts';
 
 const CATEGORIES = ['Kitchen & home', 'Groceries — drinks', 'Household', 'Groceries — pantry', 'Tableware', 'Home — textiles', 'Groceries — dairy', 'Kitchen — tools'];
 
